@@ -1,0 +1,161 @@
+#include "app/command_line.h"
+
+#include "case/input_error.h"
+#include "case/quantity_text.h"
+
+#include <boost/program_options.hpp>
+
+#include <sstream>
+
+namespace fickcast
+{
+  namespace po = boost::program_options;
+
+  const std::vector<std::pair<std::string, std::string>> &verbs()
+  {
+    static const std::vector<std::pair<std::string, std::string>> list = {
+      {"run", "solve one case and write its results folder"},
+      {"check", "validate a case and print every effective setting with units; solve nothing"},
+    };
+    return list;
+  }
+
+  namespace
+  {
+    po::options_description common_options()
+    {
+      po::options_description options("Options");
+      options.add_options()                                                            //
+        ("set", po::value<std::vector<std::string>>()->composing(),
+         "override a case key: --set section.key=value (repeatable), e.g. "
+         "--set region.clay.diffusivity=\"2e-10 m2/s\"") //
+        ("output", po::value<std::string>(), "results folder (instead of the case's output.folder)") //
+        ("overwrite", "replace an existing results folder")                          //
+        ("quiet", "print errors only")                                               //
+        ("help", "show this help");
+      return options;
+    }
+
+    po::options_description verb_options(const std::string &verb)
+    {
+      po::options_description options = common_options();
+      if (verb == "check")
+        options.add_options()("keys", "list every case key with its default and meaning");
+      return options;
+    }
+
+    bool is_verb(const std::string &word)
+    {
+      for (const auto &[name, text] : verbs())
+        if (name == word)
+          return true;
+      return false;
+    }
+  } // namespace
+
+  Invocation parse_command_line(const std::vector<std::string> &arguments)
+  {
+    Invocation invocation;
+    if (arguments.empty())
+      {
+        invocation.help = true;
+        return invocation;
+      }
+    const std::string &first = arguments.front();
+    if (first == "--help" || first == "-h" || first == "help")
+      {
+        invocation.help = true;
+        if (arguments.size() > 1 && is_verb(arguments[1]))
+          invocation.verb = arguments[1];
+        return invocation;
+      }
+    if (first == "--version")
+      {
+        invocation.version = true;
+        return invocation;
+      }
+    if (!is_verb(first))
+      {
+        std::vector<std::string> names;
+        std::string list;
+        for (const auto &[name, text] : verbs())
+          {
+            names.push_back(name);
+            list += (list.empty() ? "" : ", ") + name;
+          }
+        const std::string suggestion = nearest(first, names);
+        throw InputError("command line", "", "unknown verb '" + first + "'; expected one of " + list +
+                                               (suggestion.empty() ? "" : " (did you mean '" + suggestion + "'?)"));
+      }
+    invocation.verb = first;
+
+    po::options_description options = verb_options(first);
+    po::options_description hidden;
+    hidden.add_options()("case", po::value<std::vector<std::string>>(), "case file");
+    po::options_description all;
+    all.add(options).add(hidden);
+    po::positional_options_description positional;
+    positional.add("case", -1);
+    po::variables_map values;
+    try
+      {
+        const std::vector<std::string> rest(arguments.begin() + 1, arguments.end());
+        po::store(po::command_line_parser(rest).options(all).positional(positional).run(), values);
+        po::notify(values);
+      }
+    catch (const po::error &error)
+      {
+        throw InputError("command line", "", std::string(error.what()) + " (see fickcast " + first + " --help)");
+      }
+    invocation.help = values.count("help") != 0;
+    invocation.overwrite = values.count("overwrite") != 0;
+    invocation.quiet = values.count("quiet") != 0;
+    invocation.list_keys = values.count("keys") != 0;
+    if (values.count("set"))
+      invocation.overrides = values["set"].as<std::vector<std::string>>();
+    if (values.count("output"))
+      invocation.output = values["output"].as<std::string>();
+    if (values.count("case"))
+      {
+        const auto cases = values["case"].as<std::vector<std::string>>();
+        if (cases.size() > 1)
+          throw InputError("command line", "", "expected one case file, found " + std::to_string(cases.size()) +
+                                                 " ('" + cases[0] + "', '" + cases[1] + "', ...)");
+        invocation.case_file = cases.front();
+      }
+    if (invocation.case_file.empty() && !invocation.help && !invocation.list_keys)
+      throw InputError("command line", "", "expected a case file: fickcast " + first + " CASE.ini");
+    return invocation;
+  }
+
+  std::string help_text(const std::string &verb)
+  {
+    std::ostringstream out;
+    if (verb.empty())
+      {
+        out << "fickcast: finite-element solver for Fick's second law in layered, porous and\n"
+               "heterogeneous media.\n\n"
+               "Usage: fickcast VERB [options] CASE.ini\n\n"
+               "Verbs:\n";
+        for (const auto &[name, text] : verbs())
+          out << "  " << name << std::string(10 - name.size(), ' ') << text << '\n';
+        out << "\nOptions for every verb:\n"
+            << common_options() << "\n"
+            << "  --version             print the version\n\n"
+               "Exit codes: 0 success, 1 run failed (numerical), 2 bad input (case, mesh, flag), 3 I/O.\n"
+               "More: fickcast VERB --help\n";
+        return out.str();
+      }
+    if (verb == "run")
+      out << "Usage: fickcast run [options] CASE.ini\n\n"
+             "Solves the case and writes its results folder (fields/, series.csv, summary.json).\n"
+             "The folder appears only when complete; an existing one is kept unless --overwrite.\n\n";
+    else if (verb == "check")
+      out << "Usage: fickcast check [options] CASE.ini\n"
+             "       fickcast check --keys\n\n"
+             "Validates the case and prints every effective setting: key, value as written, SI value\n"
+             "and unit, and where it came from (file:line, --set or default). Solves nothing.\n\n";
+    out << verb_options(verb);
+    return out.str();
+  }
+} // namespace fickcast

@@ -1,0 +1,106 @@
+#include "app/display_units.h"
+
+#include "case/quantity_text.h"
+#include "case/units.h"
+
+#include <cmath>
+#include <cstdio>
+
+namespace fickcast
+{
+  namespace
+  {
+    std::string written_unit(const CaseDescription &c, const std::string &key)
+    {
+      for (const auto &record : c.settings)
+        if (record.key == key)
+          {
+            try
+              {
+                return split_quantity(record.written, false).unit;
+              }
+            catch (...)
+              {
+                return "";
+              }
+          }
+      return "";
+    }
+
+    std::string layer_unit(const CaseDescription &c)
+    {
+      for (const auto &record : c.settings)
+        if (record.key == "geometry.layers")
+          {
+            // "clay 0.9 m, sand 0.3 m": the token after the first number.
+            const auto items = split_list(record.written);
+            if (!items.empty())
+              {
+                const auto space = items.front().find(' ');
+                if (space != std::string::npos)
+                  {
+                    try
+                      {
+                        return split_quantity(items.front().substr(space + 1), false).unit;
+                      }
+                    catch (...)
+                      {
+                      }
+                  }
+              }
+          }
+      return "";
+    }
+  } // namespace
+
+  DisplayUnits::DisplayUnits(const CaseDescription &c)
+  {
+    const UnitSystem &units = UnitSystem::instance();
+    auto factor = [&](const std::string &unit, const std::string &si, std::string &chosen) {
+      if (unit.empty())
+        {
+          chosen = si;
+          return 1.0;
+        }
+      try
+        {
+          const double f = units.to_si(1.0, unit, si) - units.to_si(0.0, unit, si);
+          chosen = unit;
+          return f;
+        }
+      catch (...)
+        {
+          chosen = si;
+          return 1.0;
+        }
+    };
+    time_factor_ = factor(written_unit(c, "time.end"), "s", time_unit_);
+    length_factor_ = factor(layer_unit(c), "m", length_unit_);
+    concentration_factor_ = factor(c.units.as_written == c.units.concentration ? "" : c.units.as_written,
+                                   c.units.concentration, concentration_unit_);
+  }
+
+  std::string DisplayUnits::format(const double value, const std::string &unit)
+  {
+    if (!std::isfinite(value))
+      return "not reached";
+    char buffer[64];
+    std::snprintf(buffer, sizeof(buffer), "%.4g", value);
+    return unit.empty() || unit == "1" ? std::string(buffer) : std::string(buffer) + " " + unit;
+  }
+
+  std::string DisplayUnits::time(const double seconds) const
+  {
+    return format(seconds / time_factor_, time_unit_);
+  }
+
+  std::string DisplayUnits::length(const double metres) const
+  {
+    return format(metres / length_factor_, length_unit_);
+  }
+
+  std::string DisplayUnits::concentration(const double si) const
+  {
+    return format(si / concentration_factor_, concentration_unit_);
+  }
+} // namespace fickcast

@@ -1,0 +1,26 @@
+// The units a case was written in, for printing results the way the user thinks of them.
+#pragma once
+
+#include "case/case_description.h"
+
+#include <string>
+
+namespace fickcast
+{
+  /// Converts SI results back into the units the case used (time of time.end, length of the
+  /// layers, the first concentration unit written).
+  class DisplayUnits
+  {
+  public:
+    explicit DisplayUnits(const CaseDescription &description);
+
+    std::string time(double seconds) const;
+    std::string length(double metres) const;
+    std::string concentration(double si) const;
+
+  private:
+    static std::string format(double value, const std::string &unit);
+    std::string time_unit_, length_unit_, concentration_unit_;
+    double time_factor_ = 1, length_factor_ = 1, concentration_factor_ = 1;
+  };
+} // namespace fickcast

@@ -1,0 +1,79 @@
+// fickcast: the command-line entry point.
+#include "app/command_line.h"
+#include "app/exit_codes.h"
+#include "app/verbs.h"
+
+#include "case/input_error.h"
+#include "numerics/simulation.h"
+#include "results/summary.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <csignal>
+#include <iostream>
+
+namespace
+{
+  void on_signal(int)
+  {
+    fickcast::request_stop();
+  }
+
+  int dispatch(const fickcast::Invocation &invocation, MPI_Comm communicator, const bool root)
+  {
+    if (invocation.version)
+      {
+        if (root)
+          std::cout << "fickcast " << fickcast::fickcast_version() << '\n';
+        return fickcast::exit_success;
+      }
+    if (invocation.help)
+      {
+        if (root)
+          std::cout << fickcast::help_text(invocation.verb);
+        return fickcast::exit_success;
+      }
+    if (invocation.verb == "check")
+      return fickcast::verb_check(invocation, communicator);
+    return fickcast::verb_run(invocation, communicator);
+  }
+} // namespace
+
+int main(int argc, char **argv)
+{
+  dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
+  const MPI_Comm communicator = MPI_COMM_WORLD;
+  const bool root = dealii::Utilities::MPI::this_mpi_process(communicator) == 0;
+  std::signal(SIGINT, on_signal);
+  std::signal(SIGTERM, on_signal);
+  try
+    {
+      const std::vector<std::string> arguments(argv + 1, argv + argc);
+      const fickcast::Invocation invocation = fickcast::parse_command_line(arguments);
+      return dispatch(invocation, communicator, root);
+    }
+  catch (const fickcast::InputError &error)
+    {
+      if (root)
+        std::cerr << "fickcast: " << error.what() << '\n';
+      return fickcast::exit_bad_input;
+    }
+  catch (const fickcast::IoError &error)
+    {
+      if (root)
+        std::cerr << "fickcast: " << error.what() << '\n';
+      return fickcast::exit_io_error;
+    }
+  catch (const fickcast::RunFailure &error)
+    {
+      if (root)
+        std::cerr << "fickcast: run failed: " << error.what() << '\n';
+      return fickcast::exit_run_failed;
+    }
+  catch (const std::exception &error)
+    {
+      if (root)
+        std::cerr << "fickcast: internal error: " << error.what() << '\n';
+      return fickcast::exit_run_failed;
+    }
+}

@@ -1,0 +1,63 @@
+#include "app/display_units.h"
+#include "app/exit_codes.h"
+#include "app/progress.h"
+#include "app/verbs.h"
+
+#include "case/case_reader.h"
+#include "numerics/run_case.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <cstdio>
+#include <iostream>
+
+namespace fickcast
+{
+  int verb_run(const Invocation &invocation, MPI_Comm communicator)
+  {
+    const bool root = dealii::Utilities::MPI::this_mpi_process(communicator) == 0;
+    const CaseDescription description = read_case(invocation.case_file, invocation.overrides);
+    const DisplayUnits units(description);
+    ProgressLine progress(units, root && !invocation.quiet);
+
+    RunOptions options;
+    options.folder = invocation.output;
+    options.overwrite = invocation.overwrite;
+    options.progress = [&progress](double t, double end, unsigned int step) { progress.update(t, end, step); };
+    const RunOutcome outcome = run_case(description, options, communicator);
+    progress.clear();
+    const RunRecord &r = outcome.record;
+    if (!root)
+      return r.status == "completed" ? exit_success : exit_run_failed;
+    if (r.status != "completed")
+      std::cerr << "fickcast: run failed: " << r.message << "\n  last good state (t = " << units.time(r.end_time)
+                << ") written to " << outcome.folder << '\n';
+    if (invocation.quiet)
+      return r.status == "completed" ? exit_success : exit_run_failed;
+
+    std::printf("%s: %s\n", description.file.c_str(), description.title.c_str());
+    std::printf("  %u-D, %lu cells, %lu unknowns (degree %u), %s, %u rank%s\n", r.dimension, r.cells, r.unknowns,
+                r.degree, r.linear_solver.c_str(), r.ranks, r.ranks > 1 ? "s" : "");
+    std::printf("  %u steps (%u rejected) to t = %s in %.2f s\n", r.steps_accepted, r.steps_rejected,
+                units.time(r.end_time).c_str(), r.wall_time);
+    for (const auto &probe : r.probes)
+      {
+        if (std::isfinite(probe.threshold))
+          std::printf("  threshold.%s: %s (probe %s reaches %s)\n", probe.name.c_str(),
+                      units.time(probe.threshold_time).c_str(), probe.name.c_str(),
+                      units.concentration(probe.threshold).c_str());
+        std::printf("  probe.%s at the end: %s\n", probe.name.c_str(), units.concentration(probe.final_value).c_str());
+      }
+    for (const auto &depth : r.depths)
+      if (!depth.depths.empty())
+        std::printf("  depth.%s at the end: %s (where c falls below %s)\n", depth.name.c_str(),
+                    std::isfinite(depth.depths.back()) ? units.length(depth.depths.back()).c_str()
+                                                       : "below the whole domain",
+                    units.concentration(depth.level).c_str());
+    std::printf("  mass balance error: %.2e of the amounts moved\n", r.balance_error_relative);
+    std::printf("results: %s\n", outcome.folder.c_str());
+    std::printf("  Model predictions support, but do not replace, testing and engineering judgement; see the\n"
+                "  README's cautions before using them for medical, containment or safety decisions.\n");
+    return r.status == "completed" ? exit_success : exit_run_failed;
+  }
+} // namespace fickcast

@@ -1,0 +1,586 @@
+#include "case/case_reader.h"
+
+#include "case/case_builder.h"
+#include "case/expression.h"
+#include "case/ini_document.h"
+#include "case/input_error.h"
+#include "case/quantity_text.h"
+#include "case/settings.h"
+#include "case/units.h"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <fstream>
+#include <sstream>
+#include <regex>
+#include <set>
+
+namespace fickcast
+{
+  std::string format_si(const double value, const std::string &unit)
+  {
+    char buffer[64];
+    std::snprintf(buffer, sizeof(buffer), "%.10g", value);
+    return unit.empty() || unit == "1" ? std::string(buffer) : std::string(buffer) + " " + unit;
+  }
+
+  std::string SettingValue::si_text() const
+  {
+    if (spec == nullptr)
+      return written;
+    if (is_auto)
+      return "auto";
+    switch (spec->kind)
+      {
+        case ValueKind::quantity:
+          return format_si(si, si_unit);
+        case ValueKind::integer:
+          return std::to_string(static_cast<long>(si));
+        case ValueKind::field:
+          if (field.is_constant())
+            return format_si(field.value, si_unit);
+          return "{" + field.expression + "}" +
+                 (field.scale == 1 && field.offset == 0 ? std::string() : " x " + format_si(field.scale, "")) +
+                 (field.offset == 0 ? std::string() : " + " + format_si(field.offset, "")) + " " + si_unit;
+        case ValueKind::quantity_list:
+        case ValueKind::point:
+          {
+            std::string joined;
+            for (const double item : list)
+              joined += (joined.empty() ? "" : ", ") + format_si(item, "");
+            return joined + " " + si_unit;
+          }
+        case ValueKind::layers:
+          {
+            std::string joined;
+            for (const auto &layer : layers)
+              joined += (joined.empty() ? "" : ", ") + layer.name + " " + format_si(layer.thickness, "m");
+            return joined;
+          }
+        case ValueKind::flag:
+          return flag ? "true" : "false";
+        case ValueKind::text:
+        case ValueKind::choice:
+          return text;
+      }
+    return written;
+  }
+
+  const SettingValue *Settings::find(const std::string &section, const std::string &key) const
+  {
+    for (const auto &value : values_)
+      if (value.section == section && value.key == key)
+        return &value;
+    return nullptr;
+  }
+
+  std::vector<std::string> Settings::names_of(const std::string &kind) const
+  {
+    std::vector<std::string> names;
+    for (const auto &[section, origin] : section_origins)
+      (void)origin;
+    for (const auto &value : values_)
+      if (section_kind(value.section) == kind && value.section.size() > kind.size())
+        {
+          const std::string name = value.section.substr(kind.size() + 1);
+          if (std::find(names.begin(), names.end(), name) == names.end())
+            names.push_back(name);
+        }
+    return names;
+  }
+
+  namespace
+  {
+    const std::vector<std::string> concentration_bases = {"kg/m3", "mol/m3", "1/m3", "1"};
+    const std::vector<std::string> flux_bases = {"kg/(m2 s)", "mol/(m2 s)", "1/(m2 s)", "m/s"};
+    const std::vector<std::string> source_bases = {"kg/(m3 s)", "mol/(m3 s)", "1/(m3 s)", "1/s"};
+
+    std::string si_unit_of(const Dim dim, const ConcentrationUnits &units)
+    {
+      switch (dim)
+        {
+          case Dim::dimensionless:
+            return "1";
+          case Dim::length:
+            return "m";
+          case Dim::time:
+            return "s";
+          case Dim::diffusivity:
+            return "m2/s";
+          case Dim::velocity:
+            return "m/s";
+          case Dim::temperature:
+            return "K";
+          case Dim::rate:
+            return "1/s";
+          case Dim::concentration:
+            return units.concentration;
+          case Dim::flux:
+            return units.flux;
+          case Dim::source:
+            return units.source;
+          case Dim::boundary_value:
+          case Dim::none:
+            break;
+        }
+      return "1";
+    }
+
+    /// Splits `region.clay.diffusivity=2e-9 m2/s` into section, key and value.
+    IniEntry parse_override(const std::string &text)
+    {
+      const auto equals = text.find('=');
+      const std::string name = equals == std::string::npos ? text : text.substr(0, equals);
+      if (equals == std::string::npos || name.find('.') == std::string::npos)
+        throw InputError("--set", text, "expected 'section.key=value', found '" + text + "'");
+      const std::string value = text.substr(equals + 1);
+      const auto first_dot = name.find('.');
+      const std::string first = name.substr(0, first_dot);
+      std::string section = first;
+      std::string key = name.substr(first_dot + 1);
+      const auto &named = named_section_kinds();
+      if (std::find(named.begin(), named.end(), first) != named.end())
+        {
+          const auto second_dot = name.find('.', first_dot + 1);
+          if (second_dot == std::string::npos)
+            throw InputError("--set", name, "expected '" + first + ".NAME.key=value', found '" + text + "'");
+          section = name.substr(0, second_dot);
+          key = name.substr(second_dot + 1);
+        }
+      auto trim = [](const std::string &s) {
+        const auto a = s.find_first_not_of(" \t");
+        if (a == std::string::npos)
+          return std::string();
+        return s.substr(a, s.find_last_not_of(" \t") - a + 1);
+      };
+      return IniEntry{trim(section), trim(key), trim(value), "--set", 0};
+    }
+
+    void check_section_known(const std::string &section, const std::string &where)
+    {
+      const std::string kind = section_kind(section);
+      const auto &fixed = fixed_sections();
+      const auto &named = named_section_kinds();
+      if (std::find(fixed.begin(), fixed.end(), section) != fixed.end())
+        return;
+      if (std::find(named.begin(), named.end(), kind) != named.end() && section.size() > kind.size() + 1)
+        return;
+      std::vector<std::string> candidates = fixed;
+      for (const auto &n : named)
+        candidates.push_back(n + ".NAME");
+      std::string list;
+      for (const auto &c : candidates)
+        list += (list.empty() ? "" : ", ") + std::string("[") + c + "]";
+      const std::string suggestion = nearest(section, candidates);
+      throw InputError(where, "", "unknown section [" + section + "]; expected one of " + list +
+                                    (suggestion.empty() ? "" : " (did you mean [" + suggestion + "]?)"));
+    }
+
+    const KeySpec &lookup_key(const IniEntry &entry)
+    {
+      const std::string kind = section_kind(entry.section);
+      if (const KeySpec *spec = find_key(kind, entry.key))
+        return *spec;
+      const auto keys = keys_of(kind);
+      std::vector<std::string> plain;
+      for (const auto &k : keys)
+        plain.push_back(k.back() == '*' ? k.substr(0, k.size() - 1) + "NAME" : k);
+      std::string suggestion = nearest(entry.key, plain);
+      // probe.x / threshold.x typed with another prefix: suggest by the prefix alone.
+      if (suggestion.empty() && entry.key.find('.') != std::string::npos)
+        suggestion = nearest(entry.key.substr(0, entry.key.find('.')) + ".NAME", plain);
+      std::string list;
+      for (const auto &k : plain)
+        list += (list.empty() ? "" : ", ") + k;
+      throw InputError(entry.origin(), entry.full_key(),
+                       "unknown key in [" + entry.section + "]" +
+                         (suggestion.empty() ? "" : " (did you mean '" + suggestion + "'?)") +
+                         "; keys of this section: " + list);
+    }
+
+    double parse_integer(const IniEntry &entry)
+    {
+      static const std::regex integer(R"(^[+-]?\d{1,9}$)");
+      if (!std::regex_match(entry.value, integer))
+        throw InputError(entry.origin(), entry.full_key(), "expected a whole number, found '" + entry.value + "'");
+      return std::stod(entry.value);
+    }
+
+    void check_bounds(const KeySpec &spec, const double value, const IniEntry &entry, const std::string &unit)
+    {
+      const bool below = spec.lower_open ? !(value > spec.lower) : !(value >= spec.lower);
+      const bool above = spec.upper_open ? !(value < spec.upper) : !(value <= spec.upper);
+      if (!below && !above)
+        return;
+      std::string expected;
+      const bool has_lower = std::isfinite(spec.lower);
+      const bool has_upper = std::isfinite(spec.upper);
+      if (has_lower && has_upper)
+        expected = std::string("a value in ") + (spec.lower_open ? "(" : "[") + format_si(spec.lower, "") + ", " +
+                   format_si(spec.upper, "") + (spec.upper_open ? ")" : "]");
+      else if (has_lower)
+        expected = std::string("a value ") + (spec.lower_open ? "> " : ">= ") + format_si(spec.lower, "");
+      else
+        expected = std::string("a value ") + (spec.upper_open ? "< " : "<= ") + format_si(spec.upper, "");
+      throw InputError(entry.origin(), entry.full_key(),
+                       "expected " + expected + (unit.empty() || unit == "1" ? "" : " " + unit) + ", found '" +
+                         entry.value + "' (" + format_si(value, unit) + ")");
+    }
+
+    double to_si_or_throw(const IniEntry &entry, double number, const std::string &unit, const std::string &si_unit,
+                          const Dim dim)
+    {
+      try
+        {
+          return UnitSystem::instance().to_si(number, unit, si_unit);
+        }
+      catch (const UnitError &error)
+        {
+          throw InputError(entry.origin(), entry.full_key(),
+                           std::string(error.what()) + "; expected " + describe_dim(dim));
+        }
+    }
+
+    struct Parser
+    {
+      Settings &settings;
+      unsigned int dimension = 1;
+
+      Dim effective_dim(const KeySpec &spec, const IniEntry &entry, const std::vector<IniEntry> &entries) const
+      {
+        if (spec.dim != Dim::boundary_value)
+          return spec.dim;
+        for (const auto &other : entries)
+          if (other.section == entry.section && other.key == "type")
+            return other.value == "flux" ? Dim::flux : Dim::concentration;
+        return Dim::concentration;
+      }
+
+      SettingValue parse(const IniEntry &entry, const KeySpec &spec, const Dim dim)
+      {
+        SettingValue value;
+        value.spec = &spec;
+        value.section = entry.section;
+        value.key = entry.key;
+        value.written = entry.value;
+        value.origin = entry.origin();
+        value.si_unit = si_unit_of(dim, settings.units);
+        const std::string &text = entry.value;
+        if (text.empty() && spec.kind != ValueKind::text)
+          throw InputError(entry.origin(), entry.full_key(), "expected " +
+                             (spec.dim == Dim::none ? std::string("a value") : describe_dim(dim)) +
+                             ", found an empty value");
+        if (spec.allow_auto && text == "auto")
+          {
+            value.is_auto = true;
+            return value;
+          }
+        try
+          {
+            switch (spec.kind)
+              {
+                case ValueKind::text:
+                  value.text = text;
+                  break;
+                case ValueKind::choice:
+                  if (std::find(spec.choices.begin(), spec.choices.end(), text) == spec.choices.end())
+                    {
+                      std::string list;
+                      for (const auto &c : spec.choices)
+                        list += (list.empty() ? "" : ", ") + c;
+                      const std::string suggestion = nearest(text, spec.choices);
+                      throw InputError(entry.origin(), entry.full_key(),
+                                       "expected one of " + list + ", found '" + text + "'" +
+                                         (suggestion.empty() ? "" : " (did you mean '" + suggestion + "'?)"));
+                    }
+                  value.text = text;
+                  break;
+                case ValueKind::integer:
+                  value.si = parse_integer(entry);
+                  check_bounds(spec, value.si, entry, "");
+                  break;
+                case ValueKind::flag:
+                  if (text == "true" || text == "yes" || text == "on" || text == "1")
+                    value.flag = true;
+                  else if (text == "false" || text == "no" || text == "off" || text == "0")
+                    value.flag = false;
+                  else
+                    throw InputError(entry.origin(), entry.full_key(),
+                                     "expected true or false, found '" + text + "'");
+                  break;
+                case ValueKind::quantity:
+                  {
+                    const QuantityText q = split_quantity(text, false);
+                    value.si = to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim);
+                    check_bounds(spec, value.si, entry, value.si_unit);
+                    break;
+                  }
+                case ValueKind::field:
+                  {
+                    const QuantityText q = split_quantity(text, true);
+                    if (!q.is_expression())
+                      {
+                        value.field.value = to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim);
+                        check_bounds(spec, value.field.value, entry, value.si_unit);
+                        break;
+                      }
+                    try
+                      {
+                        Expression check(q.expression, spec.variables);
+                        (void)check;
+                      }
+                    catch (const ExpressionError &error)
+                      {
+                        throw InputError(entry.origin(), entry.full_key(), error.what());
+                      }
+                    value.field.expression = q.expression;
+                    value.field.offset = to_si_or_throw(entry, 0, q.unit, value.si_unit, dim);
+                    value.field.scale = to_si_or_throw(entry, 1, q.unit, value.si_unit, dim) - value.field.offset;
+                    break;
+                  }
+                case ValueKind::quantity_list:
+                  for (const auto &item : split_list(text))
+                    {
+                      const QuantityText q = split_quantity(item, false);
+                      value.list.push_back(to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim));
+                      check_bounds(spec, value.list.back(), entry, value.si_unit);
+                    }
+                  break;
+                case ValueKind::point:
+                  {
+                    const auto items = split_list(text);
+                    if (items.size() != dimension)
+                      throw InputError(entry.origin(), entry.full_key(),
+                                       "expected " + std::to_string(dimension) + " coordinate" +
+                                         (dimension > 1 ? "s" : "") + " (one per axis of this " +
+                                         std::to_string(dimension) + "-D case), found " +
+                                         std::to_string(items.size()) + " in '" + text + "'");
+                    std::size_t with_unit = 0;
+                    for (const auto &item : items)
+                      {
+                        const QuantityText q = split_quantity(item, false);
+                        with_unit += q.unit.empty() ? 0 : 1;
+                        value.list.push_back(to_si_or_throw(entry, q.number, q.unit, "m", Dim::length));
+                      }
+                    if (with_unit != 0 && with_unit != items.size())
+                      throw InputError(entry.origin(), entry.full_key(),
+                                       "expected a unit on every coordinate (a bare number is metres), found '" +
+                                         text + "'");
+                    break;
+                  }
+                case ValueKind::layers:
+                  value.layers = parse_layers(entry);
+                  break;
+              }
+          }
+        catch (const UnitError &error)
+          {
+            throw InputError(entry.origin(), entry.full_key(),
+                             std::string(error.what()) +
+                               (spec.dim == Dim::none ? std::string() : "; expected " + describe_dim(dim)));
+          }
+        return value;
+      }
+
+      std::vector<LayerSpec> parse_layers(const IniEntry &entry) const
+      {
+        // Tokens: name number [unit], separated by commas and/or spaces.
+        std::vector<std::vector<std::string>> groups;
+        const bool has_commas = entry.value.find(',') != std::string::npos;
+        auto tokenize = [](const std::string &text) {
+          std::vector<std::string> tokens;
+          std::string token;
+          for (const char c : text + " ")
+            if (c == ' ' || c == '\t' || c == ',')
+              {
+                if (!token.empty())
+                  tokens.push_back(token);
+                token.clear();
+              }
+            else
+              token += c;
+          return tokens;
+        };
+        static const std::regex number(R"(^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$)");
+        auto is_number = [](const std::string &t) { return std::regex_match(t, number); };
+        if (has_commas)
+          for (const auto &item : split_list(entry.value))
+            groups.push_back(tokenize(item));
+        else
+          {
+            const auto tokens = tokenize(entry.value);
+            std::size_t i = 0;
+            while (i < tokens.size())
+              {
+                std::vector<std::string> group{tokens[i++]};
+                if (i < tokens.size())
+                  group.push_back(tokens[i++]);
+                if (i < tokens.size() && !is_number(tokens[i]) && (i + 1 >= tokens.size() || !is_number(tokens[i + 1])))
+                  group.push_back(tokens[i++]);
+                groups.push_back(group);
+              }
+          }
+        std::vector<LayerSpec> layers;
+        for (const auto &group : groups)
+          {
+            std::string joined;
+            for (const auto &t : group)
+              joined += (joined.empty() ? "" : " ") + t;
+            if (group.size() < 2 || group.size() > 3 || !is_number(group[1]))
+              throw InputError(entry.origin(), entry.full_key(),
+                               "expected 'name thickness unit' for each layer (for example 'clay 0.9 m, sand 0.3 m'), "
+                               "found '" + joined + "'");
+            static const std::regex name(R"(^[A-Za-z_][A-Za-z0-9_\-]*$)");
+            if (!std::regex_match(group[0], name))
+              throw InputError(entry.origin(), entry.full_key(),
+                               "expected a layer name of letters, digits, '_' and '-' starting with a letter, found '" +
+                                 group[0] + "'");
+            LayerSpec layer;
+            layer.name = group[0];
+            const QuantityText q = split_quantity(group[1] + (group.size() == 3 ? " " + group[2] : ""), false);
+            layer.thickness = to_si_or_throw(entry, q.number, q.unit, "m", Dim::length);
+            if (!(layer.thickness > 0))
+              throw InputError(entry.origin(), entry.full_key(),
+                               "expected a layer thickness > 0, found '" + joined + "' (a zero-thickness layer)");
+            for (const auto &other : layers)
+              if (other.name == layer.name)
+                throw InputError(entry.origin(), entry.full_key(),
+                                 "expected distinct layer names, found '" + layer.name + "' twice");
+            layers.push_back(layer);
+          }
+        if (layers.empty())
+          throw InputError(entry.origin(), entry.full_key(), "expected at least one layer, found none");
+        return layers;
+      }
+    };
+
+    /// Decides the case's concentration family from the first concentration, flux or source
+    /// written with a unit; later ones must agree with it.
+    ConcentrationUnits decide_units(const std::vector<IniEntry> &entries, const unsigned int dimension)
+    {
+      const UnitSystem &units = UnitSystem::instance();
+      std::size_t basis = concentration_bases.size();
+      std::string first_origin, first_key, first_written;
+      for (int pass = 0; pass < 3 && basis == concentration_bases.size(); ++pass)
+        for (const auto &entry : entries)
+          {
+            const KeySpec *spec = find_key(section_kind(entry.section), entry.key);
+            if (spec == nullptr || (spec->kind != ValueKind::quantity && spec->kind != ValueKind::field))
+              continue;
+            Dim dim = spec->dim;
+            if (dim == Dim::boundary_value)
+              {
+                dim = Dim::concentration;
+                for (const auto &other : entries)
+                  if (other.section == entry.section && other.key == "type" && other.value == "flux")
+                    dim = Dim::flux;
+              }
+            const std::vector<std::string> *candidates = nullptr;
+            if (pass == 0 && dim == Dim::concentration)
+              candidates = &concentration_bases;
+            else if (pass == 1 && dim == Dim::flux)
+              candidates = &flux_bases;
+            else if (pass == 2 && dim == Dim::source)
+              candidates = &source_bases;
+            if (candidates == nullptr)
+              continue;
+            QuantityText q;
+            try
+              {
+                q = split_quantity(entry.value, true);
+              }
+            catch (const UnitError &)
+              {
+                continue; // reported with its key when the value is parsed
+              }
+            if (q.unit.empty())
+              continue;
+            const std::string match = units.first_convertible(q.unit, *candidates);
+            if (match.empty())
+              throw InputError(entry.origin(), entry.full_key(),
+                               "expected " + describe_dim(dim) +
+                                 " (mass, amount or number per volume, or a fraction), found '" + entry.value +
+                                 "' (" + units.describe(q.unit) + ")");
+            basis = static_cast<std::size_t>(std::find(candidates->begin(), candidates->end(), match) -
+                                              candidates->begin());
+            first_written = q.unit;
+            break;
+          }
+      if (basis == concentration_bases.size())
+        basis = 3; // no units anywhere: a pure number (fraction)
+      static const char *numerator[] = {"kg", "mol", "1", ""};
+      ConcentrationUnits result;
+      result.concentration = concentration_bases[basis];
+      result.flux = flux_bases[basis];
+      result.source = source_bases[basis];
+      const std::string n = numerator[basis];
+      const char *per_length[] = {"", "/m2", "/m", ""};
+      if (basis == 3)
+        result.amount = dimension == 1 ? "m" : dimension == 2 ? "m2" : "m3";
+      else if (dimension == 3)
+        result.amount = n;
+      else
+        result.amount = n + per_length[dimension];
+      result.as_written = first_written.empty() ? result.concentration : first_written;
+      return result;
+    }
+  } // namespace
+
+  CaseDescription read_case_text(const std::string &text, const std::string &name,
+                                 const std::vector<std::string> &overrides)
+  {
+    const IniDocument document = IniDocument::parse(text, name);
+    std::vector<IniEntry> entries = document.entries();
+    for (const auto &override_text : overrides)
+      {
+        IniEntry entry = parse_override(override_text);
+        auto existing = std::find_if(entries.begin(), entries.end(),
+                                     [&](const IniEntry &e) { return e.full_key() == entry.full_key(); });
+        if (existing != entries.end())
+          *existing = entry;
+        else
+          entries.push_back(entry);
+      }
+
+    Settings settings;
+    settings.file = name;
+    for (const auto &section : document.sections())
+      {
+        const std::string where = name + ":" + std::to_string(document.section_line(section));
+        check_section_known(section, where);
+        settings.section_origins[section] = where;
+      }
+    for (const auto &entry : entries)
+      {
+        check_section_known(entry.section, entry.origin());
+        if (settings.section_origins.count(entry.section) == 0)
+          settings.section_origins[entry.section] = entry.origin();
+        (void)lookup_key(entry);
+      }
+
+    // The dimension first: points depend on it.
+    Parser parser{settings};
+    for (const auto &entry : entries)
+      if (entry.section == "case" && entry.key == "dimension")
+        parser.dimension = static_cast<unsigned int>(parser.parse(entry, lookup_key(entry), Dim::none).si);
+
+    settings.units = decide_units(entries, parser.dimension);
+    for (const auto &entry : entries)
+      {
+        const KeySpec &spec = lookup_key(entry);
+        settings.add(parser.parse(entry, spec, parser.effective_dim(spec, entry, entries)));
+      }
+    return build_case(settings, parser.dimension);
+  }
+
+  CaseDescription read_case(const std::string &path, const std::vector<std::string> &overrides)
+  {
+    std::ifstream in(path, std::ios::binary);
+    if (!in)
+      throw InputError(path, "", "cannot open the case file (expected a readable INI-style text file)");
+    std::ostringstream buffer;
+    buffer << in.rdbuf();
+    return read_case_text(buffer.str(), path, overrides);
+  }
+} // namespace fickcast

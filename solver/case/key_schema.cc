@@ -1,0 +1,253 @@
+#include "case/key_schema.h"
+
+namespace fickcast
+{
+  namespace
+  {
+    constexpr double infinity = std::numeric_limits<double>::infinity();
+
+    KeySpec make(const std::string &section, const std::string &key, ValueKind kind, Dim dim,
+                 const std::string &fallback, const std::string &help)
+    {
+      KeySpec spec;
+      spec.section = section;
+      spec.key = key;
+      spec.kind = kind;
+      spec.dim = dim;
+      spec.fallback = fallback;
+      spec.help = help;
+      return spec;
+    }
+
+    KeySpec required(KeySpec spec)
+    {
+      spec.required = true;
+      return spec;
+    }
+
+    KeySpec bounded(KeySpec spec, double lower, bool lower_open, double upper = infinity, bool upper_open = false)
+    {
+      spec.lower = lower;
+      spec.lower_open = lower_open;
+      spec.upper = upper;
+      spec.upper_open = upper_open;
+      return spec;
+    }
+
+    KeySpec positive(KeySpec spec)
+    {
+      return bounded(std::move(spec), 0, true);
+    }
+
+    KeySpec with_auto(KeySpec spec)
+    {
+      spec.allow_auto = true;
+      spec.fallback = "auto";
+      return spec;
+    }
+
+    KeySpec choices(KeySpec spec, std::vector<std::string> words)
+    {
+      spec.choices = std::move(words);
+      return spec;
+    }
+
+    KeySpec variables(KeySpec spec, std::vector<std::string> names)
+    {
+      spec.variables = std::move(names);
+      return spec;
+    }
+
+    std::vector<KeySpec> build_schema()
+    {
+      using K = ValueKind;
+      std::vector<KeySpec> s;
+      // [case]
+      s.push_back(make("case", "title", K::text, Dim::none, "untitled case", "a title for reports"));
+      s.push_back(bounded(make("case", "dimension", K::integer, Dim::none, "1",
+                               "1, 2 or 3 space dimensions"), 1, false, 3, false));
+      // [geometry]
+      s.push_back(required(make("geometry", "layers", K::layers, Dim::length, "",
+                                "layers from the top face inward: 'name thickness unit, ...'")));
+      s.push_back(with_auto(positive(make("geometry", "cell_size", K::quantity, Dim::length, "",
+                                          "target cell size; auto: total thickness / 100"))));
+      s.push_back(positive(make("geometry", "width", K::quantity, Dim::length, "",
+                                "extent along x (2-D and 3-D)")));
+      s.push_back(positive(make("geometry", "length", K::quantity, Dim::length, "",
+                                "extent along y (3-D)")));
+      s.push_back(choices(make("geometry", "grade_toward", K::choice, Dim::none, "none",
+                               "face toward which cells get smaller: none, top or bottom"),
+                          {"none", "top", "bottom"}));
+      s.push_back(bounded(make("geometry", "grading", K::quantity, Dim::dimensionless, "1",
+                               "size ratio of neighbouring cells away from grade_toward"),
+                          1, false, 2, false));
+      // [region.NAME]
+      s.push_back(required(variables(positive(make("region", "diffusivity", K::field, Dim::diffusivity, "",
+                                                   "free diffusivity D (constant or {expression of x, y, z, t})")),
+                                     {"x", "y", "z", "t"})));
+      s.push_back(bounded(make("region", "porosity", K::quantity, Dim::dimensionless, "1",
+                               "porosity theta in (0, 1]; 1 for a solid"), 0, true, 1, false));
+      s.push_back(bounded(make("region", "tortuosity", K::quantity, Dim::dimensionless, "1",
+                               "tortuosity factor tau in (0, 1]: D_eff = tau D"), 0, true, 1, false));
+      s.push_back(bounded(make("region", "retardation", K::quantity, Dim::dimensionless, "1",
+                               "retardation factor R >= 1 (linear sorption)"), 1, false));
+      s.push_back(positive(make("region", "partition", K::quantity, Dim::dimensionless, "1",
+                                "partition coefficient K: phase concentration = K x reference phase")));
+      s.push_back(bounded(make("region", "decay_rate", K::quantity, Dim::rate, "0",
+                               "first-order decay rate lambda (dissolved and sorbed)"), 0, false));
+      s.push_back(positive(make("region", "half_life", K::quantity, Dim::time, "",
+                                "first-order half-life; sets decay_rate = ln 2 / half_life")));
+      s.push_back(variables(make("region", "source", K::field, Dim::source, "0",
+                                 "volumetric source per bulk volume ({expression of x, y, z, t} allowed)"),
+                            {"x", "y", "z", "t"}));
+      s.push_back(variables(make("region", "initial", K::field, Dim::concentration, "",
+                                 "initial concentration in this region (overrides [initial] value)"),
+                            {"x", "y", "z"}));
+      s.push_back(positive(make("region", "cell_size", K::quantity, Dim::length, "",
+                                "cell size in this layer (overrides geometry.cell_size)")));
+      // [boundary.NAME]
+      s.push_back(required(choices(make("boundary", "type", K::choice, Dim::none, "",
+                                        "concentration, flux, transfer or sealed"),
+                                   {"concentration", "flux", "transfer", "sealed"})));
+      s.push_back(variables(make("boundary", "value", K::field, Dim::boundary_value, "",
+                                 "concentration inside the material at the face (type concentration) "
+                                 "or inward flux (type flux); {expression of t} allowed"),
+                            {"t"}));
+      s.push_back(variables(make("boundary", "ambient", K::field, Dim::concentration, "",
+                                 "concentration in the medium outside (reference phase); "
+                                 "{expression of t} allowed"),
+                            {"t"}));
+      s.push_back(positive(make("boundary", "coefficient", K::quantity, Dim::velocity, "",
+                                "transfer coefficient h: outward flux = h (c_face - K ambient)")));
+      // [initial]
+      s.push_back(variables(make("initial", "value", K::field, Dim::concentration, "0",
+                                 "initial concentration ({expression of x, y, z} allowed)"),
+                            {"x", "y", "z"}));
+      // [time]
+      s.push_back(required(positive(make("time", "end", K::quantity, Dim::time, "", "end time of the run"))));
+      s.push_back(with_auto(positive(make("time", "step", K::quantity, Dim::time, "",
+                                          "fixed time step, or auto for error-controlled steps"))));
+      s.push_back(bounded(make("time", "tolerance", K::quantity, Dim::dimensionless, "1e-4",
+                               "local error tolerance per step, relative to the concentration scale"),
+                          0, true, 0.1, false));
+      s.push_back(choices(make("time", "scheme", K::choice, Dim::none, "bdf2",
+                               "implicit_euler, crank_nicolson or bdf2"),
+                          {"implicit_euler", "crank_nicolson", "bdf2"}));
+      s.push_back(bounded(make("time", "start_steps", K::integer, Dim::none, "4",
+                               "implicit-Euler steps after each discontinuity (Crank-Nicolson)"),
+                          0, false, 50, false));
+      s.push_back(with_auto(positive(make("time", "initial_step", K::quantity, Dim::time, "",
+                                          "first step of an adaptive run"))));
+      s.push_back(with_auto(positive(make("time", "max_step", K::quantity, Dim::time, "",
+                                          "largest step of an adaptive run; auto: end / 20"))));
+      // [numerics]
+      s.push_back(bounded(make("numerics", "degree", K::integer, Dim::none, "2",
+                               "polynomial degree of the Lagrange elements: 1 or 2"), 1, false, 2, false));
+      s.push_back(choices(make("numerics", "linear_solver", K::choice, Dim::none, "auto",
+                               "auto, direct (sparse LU) or iterative (CG with algebraic multigrid)"),
+                          {"auto", "direct", "iterative"}));
+      s.push_back(bounded(make("numerics", "solver_tolerance", K::quantity, Dim::dimensionless, "1e-12",
+                               "relative residual reduction of the iterative solver"), 0, true, 1e-3, false));
+      // [output]
+      s.push_back(make("output", "folder", K::text, Dim::none, "",
+                       "results folder (relative to the working directory); default results/CASE"));
+      s.push_back(positive(make("output", "fields_every", K::quantity, Dim::time, "",
+                                "interval between field outputs (VTU)")));
+      s.push_back(positive(make("output", "times", K::quantity_list, Dim::time, "",
+                                "extra output times, comma separated")));
+      s.push_back(make("output", "fields", K::flag, Dim::none, "true", "write VTU fields"));
+      s.push_back(make("output", "probe.*", K::point, Dim::length, "",
+                       "a named point: one coordinate per axis, each with its unit"));
+      s.push_back(bounded(make("output", "threshold.*", K::quantity, Dim::concentration, "",
+                               "first time the probe of the same name reaches this concentration"),
+                          0, false));
+      s.push_back(bounded(make("output", "depth.*", K::quantity, Dim::concentration, "",
+                               "depth from the top face where the concentration falls below this level"),
+                          0, false));
+      return s;
+    }
+  } // namespace
+
+  bool KeySpec::matches(const std::string &name) const
+  {
+    if (!is_pattern())
+      return name == key;
+    const std::string prefix = key.substr(0, key.size() - 1); // keeps the dot
+    return name.size() > prefix.size() && name.compare(0, prefix.size(), prefix) == 0;
+  }
+
+  const std::vector<KeySpec> &key_schema()
+  {
+    static const std::vector<KeySpec> schema = build_schema();
+    return schema;
+  }
+
+  const std::vector<std::string> &fixed_sections()
+  {
+    static const std::vector<std::string> names = {"case", "geometry", "initial", "time", "numerics", "output"};
+    return names;
+  }
+
+  const std::vector<std::string> &named_section_kinds()
+  {
+    static const std::vector<std::string> names = {"region", "boundary"};
+    return names;
+  }
+
+  std::string section_kind(const std::string &section)
+  {
+    const auto dot = section.find('.');
+    if (dot == std::string::npos)
+      return section;
+    return section.substr(0, dot);
+  }
+
+  const KeySpec *find_key(const std::string &kind, const std::string &key)
+  {
+    for (const auto &spec : key_schema())
+      if (spec.section == kind && spec.matches(key))
+        return &spec;
+    return nullptr;
+  }
+
+  std::vector<std::string> keys_of(const std::string &kind)
+  {
+    std::vector<std::string> keys;
+    for (const auto &spec : key_schema())
+      if (spec.section == kind)
+        keys.push_back(spec.key);
+    return keys;
+  }
+
+  std::string describe_dim(const Dim dim)
+  {
+    switch (dim)
+      {
+        case Dim::dimensionless:
+          return "a pure number";
+        case Dim::length:
+          return "a length such as 2 mm";
+        case Dim::time:
+          return "a time such as 3 h";
+        case Dim::diffusivity:
+          return "a diffusivity such as 1e-9 m2/s";
+        case Dim::velocity:
+          return "a transfer coefficient such as 1e-7 m/s";
+        case Dim::temperature:
+          return "a temperature such as 1050 degC";
+        case Dim::rate:
+          return "a rate such as 0.07 1/yr";
+        case Dim::concentration:
+          return "a concentration such as 250 mg/L";
+        case Dim::flux:
+          return "a flux such as 1e-6 kg/(m2 s)";
+        case Dim::source:
+          return "a source such as 1e-3 kg/(m3 s)";
+        case Dim::boundary_value:
+          return "a concentration or a flux";
+        case Dim::none:
+          break;
+      }
+    return "a value";
+  }
+} // namespace fickcast

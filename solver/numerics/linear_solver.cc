@@ -1,0 +1,64 @@
+#include "numerics/linear_solver.h"
+
+#include "case/input_error.h"
+
+#include <deal.II/lac/solver_cg.h>
+
+namespace fickcast
+{
+  LinearSolver::LinearSolver(const bool direct, const double tolerance, const bool higher_order_elements)
+    : direct_(direct)
+    , tolerance_(tolerance)
+    , higher_order_(higher_order_elements)
+    , direct_control_(1, 0)
+  {}
+
+  void LinearSolver::set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix)
+  {
+    matrix_ = &matrix;
+    ++n_setups_;
+    if (direct_)
+      {
+        direct_solver_ = std::make_unique<dealii::TrilinosWrappers::SolverDirect>(
+          direct_control_, dealii::TrilinosWrappers::SolverDirect::AdditionalData(false, "Amesos_Klu"));
+        direct_solver_->initialize(matrix);
+        return;
+      }
+    dealii::TrilinosWrappers::PreconditionAMG::AdditionalData data;
+    data.elliptic = true;
+    data.higher_order_elements = higher_order_;
+    data.smoother_sweeps = 2;
+    data.aggregation_threshold = 0.02;
+    multigrid_ = std::make_unique<dealii::TrilinosWrappers::PreconditionAMG>();
+    multigrid_->initialize(matrix, data);
+  }
+
+  unsigned int LinearSolver::solve(dealii::TrilinosWrappers::MPI::Vector &x,
+                                   const dealii::TrilinosWrappers::MPI::Vector &b)
+  {
+    if (direct_)
+      {
+        direct_solver_->solve(x, b);
+        return 1;
+      }
+    const double norm = b.l2_norm();
+    if (norm == 0)
+      {
+        x = 0;
+        return 0;
+      }
+    dealii::SolverControl control(5000, tolerance_ * norm, false, false);
+    dealii::SolverCG<dealii::TrilinosWrappers::MPI::Vector> cg(control);
+    try
+      {
+        cg.solve(*matrix_, x, b, *multigrid_);
+      }
+    catch (const dealii::SolverControl::NoConvergence &failure)
+      {
+        throw RunFailure("the linear solver (CG with algebraic multigrid) did not converge: residual " +
+                         std::to_string(failure.last_residual) + " after " + std::to_string(failure.last_step) +
+                         " iterations (target " + std::to_string(tolerance_ * norm) + ")");
+      }
+    return control.last_step();
+  }
+} // namespace fickcast

@@ -1,0 +1,56 @@
+#include "numerics/mesh_statistics.h"
+
+#include "geometry/layered_mesh.h"
+
+#include <deal.II/base/mpi.h>
+#include <deal.II/distributed/tria.h>
+#include <deal.II/dofs/dof_handler.h>
+#include <deal.II/fe/fe_q.h>
+
+#include <memory>
+
+namespace fickcast
+{
+  namespace
+  {
+    template <int dim>
+    MeshStatistics count(const CaseDescription &c, MPI_Comm communicator)
+    {
+      std::unique_ptr<dealii::Triangulation<dim>> triangulation;
+      if constexpr (dim == 1)
+        triangulation = std::make_unique<dealii::Triangulation<dim>>();
+      else
+        triangulation = std::make_unique<dealii::parallel::distributed::Triangulation<dim>>(communicator);
+      build_layered_mesh<dim>(*triangulation, c.geometry);
+      const dealii::FE_Q<dim> fe(c.numerics.degree);
+      dealii::DoFHandler<dim> dofs(*triangulation);
+      dofs.distribute_dofs(fe);
+      MeshStatistics statistics;
+      statistics.cells = triangulation->n_global_active_cells();
+      statistics.unknowns = dofs.n_dofs();
+      double smallest = 1e300, largest = 0;
+      for (const auto &cell : triangulation->active_cell_iterators())
+        if (cell->is_locally_owned())
+          {
+            smallest = std::min(smallest, cell->diameter());
+            largest = std::max(largest, cell->diameter());
+          }
+      statistics.smallest_cell = dealii::Utilities::MPI::min(smallest, communicator);
+      statistics.largest_cell = dealii::Utilities::MPI::max(largest, communicator);
+      return statistics;
+    }
+  } // namespace
+
+  MeshStatistics count_mesh(const CaseDescription &description, MPI_Comm communicator)
+  {
+    switch (description.dimension)
+      {
+        case 1:
+          return count<1>(description, MPI_COMM_SELF);
+        case 2:
+          return count<2>(description, communicator);
+        default:
+          return count<3>(description, communicator);
+      }
+  }
+} // namespace fickcast

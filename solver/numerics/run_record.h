@@ -1,0 +1,56 @@
+// Everything a run found out, in SI: what summary.json and the closing report are made from.
+#pragma once
+
+#include <cmath>
+#include <limits>
+#include <string>
+#include <vector>
+
+namespace fickcast
+{
+  constexpr double not_a_number = std::numeric_limits<double>::quiet_NaN();
+
+  struct ProbeRecord
+  {
+    std::string name;
+    double final_value = not_a_number;    ///< concentration at the end, SI
+    double threshold = not_a_number;      ///< level of output.threshold.NAME, if any
+    double threshold_time = not_a_number; ///< first time the level was reached; NaN if never
+  };
+
+  struct DepthRecord
+  {
+    std::string name;
+    double level = 0;
+    std::vector<double> times;  ///< output times, s
+    std::vector<double> depths; ///< m from the top face; NaN where c never falls below the level
+  };
+
+  struct RunRecord
+  {
+    std::string status = "completed"; ///< completed, failed
+    std::string message;              ///< why it failed, if it did
+    unsigned int dimension = 1;
+    unsigned long cells = 0;
+    unsigned long unknowns = 0;
+    unsigned int degree = 1;
+    unsigned int ranks = 1;
+    std::string linear_solver;
+    double end_time = 0;      ///< s, time reached
+    unsigned int steps_accepted = 0;
+    unsigned int steps_rejected = 0;
+    unsigned long linear_iterations = 0;
+    unsigned int matrix_setups = 0;
+    double wall_time = 0; ///< s
+    std::vector<std::string> regions, boundaries;
+    std::vector<double> initial_region_amounts, final_region_amounts;
+    std::vector<double> boundary_entered; ///< cumulative amount in through each boundary
+    double source_total = 0;
+    double decayed_total = 0;
+    double balance_error = 0;          ///< cumulative: storage change - (in + source - decay)
+    double balance_error_relative = 0; ///< |balance_error| / reference amount
+    std::vector<ProbeRecord> probes;
+    std::vector<DepthRecord> depths;
+    std::vector<double> output_times;
+  };
+} // namespace fickcast

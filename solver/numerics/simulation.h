@@ -1,0 +1,31 @@
+// The time loop: steps, error control, mass balance, probes, events and output.
+#pragma once
+
+#include "case/case_description.h"
+#include "numerics/run_record.h"
+
+#include <mpi.h>
+
+#include <functional>
+#include <string>
+
+namespace fickcast
+{
+  /// Called after every accepted step with (time reached, end time, step count).
+  using ProgressCallback = std::function<void(double, double, unsigned int)>;
+
+  /**
+   * Runs one case of dimension @p dim on @p communicator, writing series.csv and fields/ into
+   * @p folder (which exists and is shared by all ranks). Returns what was found; a numerical
+   * failure returns status "failed" with the last good state written. Throws InputError for
+   * input that only shows during the run (a diffusivity expression going negative, a probe
+   * outside a mesh).
+   */
+  template <int dim>
+  RunRecord simulate(const CaseDescription &description, MPI_Comm communicator, const std::string &folder,
+                     const ProgressCallback &progress);
+
+  /// Set by a SIGINT/SIGTERM handler: the time loop stops at the next step, keeping what it has.
+  void request_stop();
+  bool stop_requested();
+} // namespace fickcast

@@ -1,0 +1,64 @@
+#include "numerics/step_controller.h"
+
+#include <algorithm>
+#include <cmath>
+
+namespace fickcast
+{
+  StepController::StepController(const TimeSpec &spec, const double duration)
+    : adaptive_(spec.adaptive)
+    , max_step_(spec.max_step > 0 ? spec.max_step : duration / 20.0)
+    , min_step_(duration * 1e-14)
+    , fixed_(spec.step)
+  {
+    if (adaptive_)
+      proposal_ = spec.initial_step > 0 ? spec.initial_step : std::min(max_step_, duration * 1e-8);
+    else
+      proposal_ = fixed_;
+    proposal_ = std::min(proposal_, duration);
+  }
+
+  double StepController::step_from(const double t, const double hard, const double previous_step) const
+  {
+    double dt = proposal_;
+    if (previous_step > 0)
+      dt = std::min(dt, 2.0 * previous_step);
+    const double remaining = hard - t;
+    if (remaining <= dt * (1 + 1e-9))
+      return remaining;
+    if (adaptive_ && remaining < 2 * dt)
+      return remaining / 2;
+    return dt;
+  }
+
+  bool StepController::judge(const double dt, const double error, const unsigned int order, const bool shortened)
+  {
+    const double exponent = 1.0 / (order + 1.0);
+    double factor = error > 0 ? 0.9 * std::pow(error, -exponent) : 2.0;
+    factor = std::clamp(factor, 0.2, 2.0);
+    if (error > 1.0)
+      {
+        proposal_ = dt * std::min(factor, 0.9);
+        return false;
+      }
+    if (factor < 1.0)
+      proposal_ = dt * factor;
+    else if (shortened)
+      proposal_ = std::max(proposal_, dt); // a landing step says nothing against the proposal
+    else if (factor >= 1.5)
+      proposal_ = dt * factor;
+    else
+      proposal_ = dt;
+    proposal_ = std::min(proposal_, max_step_);
+    return true;
+  }
+
+  void StepController::accept_unjudged(const double dt, const bool shortened)
+  {
+    if (!adaptive_)
+      return;
+    if (!shortened)
+      proposal_ = std::min(max_step_, proposal_);
+    (void)dt;
+  }
+} // namespace fickcast

@@ -1,0 +1,41 @@
+// Step sizes: fixed, or adapted to a local error estimate; landing exactly on output times.
+#pragma once
+
+#include "case/case_description.h"
+
+namespace fickcast
+{
+  /**
+   * Chooses step sizes. In adaptive mode the local error of each step is estimated by the
+   * caller (difference between the new state and a polynomial extrapolation of the previous
+   * ones, scaled to the method's leading error term) and judged here against the tolerance:
+   * accept when the scaled error is at most 1, and propose dt * clamp(0.9 err^(-1/(q+1)),
+   * 0.2, 2). Growth below 1.5x is not taken, so the step matrix is not refactored for small
+   * gains. Steps never overshoot the next output time and never more than double (which keeps
+   * variable-step BDF2 zero-stable).
+   */
+  class StepController
+  {
+  public:
+    StepController(const TimeSpec &spec, double duration);
+
+    bool adaptive() const { return adaptive_; }
+    /// The step to take from @p t: at most the proposal, landing on @p hard (> t).
+    double step_from(double t, double hard, double previous_step) const;
+    /// Judges a step of size @p dt with scaled error @p error at order @p order (adaptive mode);
+    /// returns whether it is accepted and updates the proposal. @p shortened: dt was cut to land.
+    bool judge(double dt, double error, unsigned int order, bool shortened);
+    /// Accepts without an estimate (first step, fixed mode).
+    void accept_unjudged(double dt, bool shortened);
+    double proposal() const { return proposal_; }
+    /// Smallest step allowed before the run is declared failed.
+    double min_step() const { return min_step_; }
+
+  private:
+    bool adaptive_;
+    double proposal_;
+    double max_step_;
+    double min_step_;
+    double fixed_;
+  };
+} // namespace fickcast

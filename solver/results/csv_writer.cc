@@ -1,0 +1,57 @@
+#include "results/csv_writer.h"
+
+#include "case/input_error.h"
+
+#include <cmath>
+#include <cstdio>
+#include <stdexcept>
+
+namespace fickcast
+{
+  void CsvWriter::open(const std::string &path, const std::vector<Column> &columns)
+  {
+    path_ = path;
+    stream_.open(path);
+    if (!stream_)
+      throw IoError("cannot write " + path);
+    n_columns_ = columns.size();
+    for (std::size_t i = 0; i < columns.size(); ++i)
+      {
+        stream_ << (i ? "," : "") << columns[i].name;
+        if (!columns[i].unit.empty() && columns[i].unit != "1")
+          stream_ << " [" << columns[i].unit << "]";
+      }
+    stream_ << '\n';
+  }
+
+  void CsvWriter::write(const std::vector<double> &values)
+  {
+    if (values.size() != n_columns_)
+      throw std::logic_error("fickcast: CSV row of " + std::to_string(values.size()) + " values for " +
+                             std::to_string(n_columns_) + " columns in " + path_);
+    char buffer[32];
+    for (std::size_t i = 0; i < values.size(); ++i)
+      {
+        if (i)
+          stream_ << ',';
+        if (std::isfinite(values[i]))
+          {
+            std::snprintf(buffer, sizeof(buffer), "%.12g", values[i]);
+            stream_ << buffer;
+          }
+      }
+    stream_ << '\n';
+    if (!stream_)
+      throw IoError("writing " + path_ + " failed");
+  }
+
+  void CsvWriter::close()
+  {
+    if (stream_.is_open())
+      {
+        stream_.close();
+        if (stream_.fail())
+          throw IoError("closing " + path_ + " failed");
+      }
+  }
+} // namespace fickcast

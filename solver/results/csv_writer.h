@@ -1,0 +1,38 @@
+// A CSV table written row by row: header with units, SI values, nothing else.
+#pragma once
+
+#include <fstream>
+#include <string>
+#include <vector>
+
+namespace fickcast
+{
+  /// One column: name and SI unit (printed as `name [unit]`; no brackets for pure numbers).
+  struct Column
+  {
+    std::string name;
+    std::string unit;
+  };
+
+  /**
+   * Writes a comma-separated table: one header line `name [unit],...`, then rows of numbers
+   * with 12 significant digits. NaN is written as an empty field (no value at that row).
+   */
+  class CsvWriter
+  {
+  public:
+    CsvWriter() = default;
+    /// Opens @p path and writes the header. Throws IoError.
+    void open(const std::string &path, const std::vector<Column> &columns);
+    /// Writes one row; must have as many values as there are columns.
+    void write(const std::vector<double> &values);
+    void close();
+    bool is_open() const { return stream_.is_open(); }
+    std::size_t n_columns() const { return n_columns_; }
+
+  private:
+    std::ofstream stream_;
+    std::string path_;
+    std::size_t n_columns_ = 0;
+  };
+} // namespace fickcast

@@ -1,0 +1,138 @@
+#include "results/field_writer.h"
+
+#include "case/input_error.h"
+
+#include <deal.II/numerics/data_out.h>
+#include <deal.II/numerics/data_postprocessor.h>
+
+#include <fstream>
+
+namespace fickcast
+{
+  using namespace dealii;
+
+  namespace
+  {
+    /// Phase concentration, amount per volume and flux from u and grad u, per cell region.
+    template <int dim>
+    class PhaseFields : public DataPostprocessor<dim>
+    {
+    public:
+      PhaseFields(const DiffusionProblem<dim> &problem, const double time)
+        : problem_(problem)
+        , time_(time)
+      {}
+
+      void evaluate_scalar_field(const DataPostprocessorInputs::Scalar<dim> &inputs,
+                                 std::vector<dealii::Vector<double>> &computed) const override
+      {
+        const auto cell = inputs.template get_cell<dim>();
+        const auto region = cell->material_id();
+        const double k = problem_.partition(region);
+        const double c = problem_.capacity(region);
+        for (unsigned int q = 0; q < inputs.solution_values.size(); ++q)
+          {
+            const double u = inputs.solution_values[q];
+            computed[q](0) = k * u;
+            computed[q](1) = c * u;
+            const double g = problem_.conductance(region, inputs.evaluation_points[q], time_);
+            for (int d = 0; d < dim; ++d)
+              computed[q](2 + d) = -g * inputs.solution_gradients[q][d];
+          }
+      }
+
+      std::vector<std::string> get_names() const override
+      {
+        std::vector<std::string> names{"concentration", "amount_per_volume"};
+        for (int d = 0; d < dim; ++d)
+          names.emplace_back("flux");
+        return names;
+      }
+
+      std::vector<DataComponentInterpretation::DataComponentInterpretation>
+      get_data_component_interpretation() const override
+      {
+        std::vector<DataComponentInterpretation::DataComponentInterpretation> kinds(
+          2, DataComponentInterpretation::component_is_scalar);
+        for (int d = 0; d < dim; ++d)
+          kinds.push_back(DataComponentInterpretation::component_is_part_of_vector);
+        return kinds;
+      }
+
+      UpdateFlags get_needed_update_flags() const override
+      {
+        return update_values | update_gradients | update_quadrature_points;
+      }
+
+    private:
+      const DiffusionProblem<dim> &problem_;
+      double time_;
+    };
+  } // namespace
+
+  template <int dim>
+  FieldWriter<dim>::FieldWriter(const DiffusionProblem<dim> &problem, const std::string &folder)
+    : problem_(problem)
+    , folder_(folder)
+  {}
+
+  template <int dim>
+  void FieldWriter<dim>::write(const Vector &u, const double t)
+  {
+    const PhaseFields<dim> phase(problem_, t);
+    DataOut<dim> data_out;
+    data_out.attach_dof_handler(problem_.dof_handler());
+    data_out.add_data_vector(u, phase);
+    data_out.add_data_vector(u, "reference_concentration");
+
+    const auto &triangulation = problem_.triangulation();
+    dealii::Vector<float> region(triangulation.n_active_cells());
+    dealii::Vector<float> diffusivity(triangulation.n_active_cells());
+    for (const auto &cell : triangulation.active_cell_iterators())
+      if (cell->is_locally_owned())
+        {
+          region(cell->active_cell_index()) = static_cast<float>(cell->material_id());
+          diffusivity(cell->active_cell_index()) =
+            static_cast<float>(problem_.effective_diffusivity(cell->material_id(), cell->center(), t));
+        }
+    problem_.check_coefficients();
+    data_out.add_data_vector(region, "region", DataOut<dim>::type_cell_data);
+    data_out.add_data_vector(diffusivity, "effective_diffusivity", DataOut<dim>::type_cell_data);
+    data_out.build_patches(problem_.mapping(), problem_.degree());
+
+    DataOutBase::VtkFlags flags;
+    flags.time = t;
+    flags.cycle = static_cast<unsigned int>(records_.size());
+    data_out.set_flags(flags);
+
+    const unsigned int index = static_cast<unsigned int>(records_.size());
+    const MPI_Comm communicator = problem_.communicator();
+    std::string name;
+    if (Utilities::MPI::n_mpi_processes(communicator) == 1)
+      {
+        name = "fields_" + Utilities::int_to_string(index, 4) + ".vtu";
+        std::ofstream out(folder_ + "/" + name);
+        if (!out)
+          throw IoError("cannot write " + folder_ + "/" + name);
+        data_out.write_vtu(out);
+      }
+    else
+      name = data_out.write_vtu_with_pvtu_record(folder_ + "/", "fields", index, communicator, 4);
+    records_.emplace_back(t, name);
+  }
+
+  template <int dim>
+  void FieldWriter<dim>::finish() const
+  {
+    if (Utilities::MPI::this_mpi_process(problem_.communicator()) != 0)
+      return;
+    std::ofstream out(folder_ + "/fields.pvd");
+    if (!out)
+      throw IoError("cannot write " + folder_ + "/fields.pvd");
+    DataOutBase::write_pvd_record(out, records_);
+  }
+
+  template class FieldWriter<1>;
+  template class FieldWriter<2>;
+  template class FieldWriter<3>;
+} // namespace fickcast

@@ -1,0 +1,37 @@
+// VTU (PVTU when distributed) field files at output times, with a PVD index.
+#pragma once
+
+#include "numerics/diffusion_problem.h"
+
+#include <string>
+#include <utility>
+#include <vector>
+
+namespace fickcast
+{
+  /**
+   * Writes, per output time, the phase concentration c = K u, the reference-phase u, the
+   * amount per bulk volume C u, the flux vector -G grad u, the region (material id) and the
+   * effective diffusivity, into `fields/fields_NNNN.vtu` (one rank) or `.pvtu` pieces (several),
+   * and keeps `fields/fields.pvd` listing them with their times (seconds).
+   */
+  template <int dim>
+  class FieldWriter
+  {
+  public:
+    using Vector = typename DiffusionProblem<dim>::Vector;
+
+    /// @p folder is the `fields` folder; it must exist.
+    FieldWriter(const DiffusionProblem<dim> &problem, const std::string &folder);
+
+    /// Writes the ghosted state @p u at time @p t (collective).
+    void write(const Vector &u, double t);
+    /// Writes the PVD index (rank 0); call after the last write().
+    void finish() const;
+
+  private:
+    const DiffusionProblem<dim> &problem_;
+    std::string folder_;
+    std::vector<std::pair<double, std::string>> records_;
+  };
+} // namespace fickcast

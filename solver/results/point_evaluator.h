@@ -1,0 +1,43 @@
+// Concentrations at fixed points of a (possibly distributed) finite-element field.
+#pragma once
+
+#include "numerics/diffusion_problem.h"
+
+#include <deal.II/base/point.h>
+
+#include <vector>
+
+namespace fickcast
+{
+  /**
+   * Locates fixed points once (cell and reference coordinates, on the rank that owns the cell)
+   * and evaluates the phase concentration c = K u there, exactly as the finite-element function
+   * gives it. Collective: every rank calls concentrations() and gets every value. A point on a
+   * face between cells reads the cell the mesh search returns; at an interface with a partition
+   * jump that is one side or the other, so probes belong inside regions.
+   */
+  template <int dim>
+  class PointEvaluator
+  {
+  public:
+    using Vector = typename DiffusionProblem<dim>::Vector;
+
+    /// Throws InputError naming @p what if a point lies outside the mesh.
+    PointEvaluator(const DiffusionProblem<dim> &problem, const std::vector<dealii::Point<dim>> &points,
+                   const std::string &what);
+
+    /// Phase concentrations at the points for the ghosted state @p u.
+    std::vector<double> concentrations(const Vector &u) const;
+    /// Region (material id) of each point; valid on every rank.
+    const std::vector<unsigned int> &regions() const { return regions_; }
+    std::size_t size() const { return n_points_; }
+
+  private:
+    MPI_Comm communicator_;
+    std::size_t n_points_ = 0;
+    std::vector<unsigned int> mine_;  ///< indices of points owned here
+    std::vector<std::vector<dealii::types::global_dof_index>> dofs_;
+    std::vector<std::vector<double>> weights_; ///< K times shape values at the point
+    std::vector<unsigned int> regions_;
+  };
+} // namespace fickcast
