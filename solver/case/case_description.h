@@ -183,6 +183,7 @@ namespace fickcast
     std::string source;              ///< concentration per time
     std::string amount;              ///< amount (per unit area in 1-D, per unit depth in 2-D)
     std::string as_written;          ///< the first concentration unit the case used, e.g. mg/L
+    std::string decided_by;          ///< key and origin of that first concentration
   };
 
   struct CaseDescription

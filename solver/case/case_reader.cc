@@ -228,8 +228,17 @@ namespace fickcast
                          entry.value + "' (" + format_si(value, unit) + ")");
     }
 
+    std::string family_note(const Dim dim, const ConcentrationUnits *units)
+    {
+      if (units == nullptr || units->decided_by.empty() ||
+          (dim != Dim::concentration && dim != Dim::flux && dim != Dim::source))
+        return "";
+      return " (this case's concentrations are in " + units->concentration + ", as set by " + units->decided_by +
+             ")";
+    }
+
     double to_si_or_throw(const IniEntry &entry, double number, const std::string &unit, const std::string &si_unit,
-                          const Dim dim)
+                          const Dim dim, const ConcentrationUnits *units = nullptr)
     {
       try
         {
@@ -238,7 +247,7 @@ namespace fickcast
       catch (const UnitError &error)
         {
           throw InputError(entry.origin(), entry.full_key(),
-                           std::string(error.what()) + "; expected " + describe_dim(dim));
+                           std::string(error.what()) + "; expected " + describe_dim(dim) + family_note(dim, units));
         }
     }
 
@@ -312,7 +321,7 @@ namespace fickcast
                 case ValueKind::quantity:
                   {
                     const QuantityText q = split_quantity(text, false);
-                    value.si = to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim);
+                    value.si = to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim, &settings.units);
                     check_bounds(spec, value.si, entry, value.si_unit);
                     break;
                   }
@@ -321,7 +330,7 @@ namespace fickcast
                     const QuantityText q = split_quantity(text, true);
                     if (!q.is_expression())
                       {
-                        value.field.value = to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim);
+                        value.field.value = to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim, &settings.units);
                         check_bounds(spec, value.field.value, entry, value.si_unit);
                         break;
                       }
@@ -335,15 +344,15 @@ namespace fickcast
                         throw InputError(entry.origin(), entry.full_key(), error.what());
                       }
                     value.field.expression = q.expression;
-                    value.field.offset = to_si_or_throw(entry, 0, q.unit, value.si_unit, dim);
-                    value.field.scale = to_si_or_throw(entry, 1, q.unit, value.si_unit, dim) - value.field.offset;
+                    value.field.offset = to_si_or_throw(entry, 0, q.unit, value.si_unit, dim, &settings.units);
+                    value.field.scale = to_si_or_throw(entry, 1, q.unit, value.si_unit, dim, &settings.units) - value.field.offset;
                     break;
                   }
                 case ValueKind::quantity_list:
                   for (const auto &item : split_list(text))
                     {
                       const QuantityText q = split_quantity(item, false);
-                      value.list.push_back(to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim));
+                      value.list.push_back(to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim, &settings.units));
                       check_bounds(spec, value.list.back(), entry, value.si_unit);
                     }
                   break;
@@ -505,6 +514,7 @@ namespace fickcast
             basis = static_cast<std::size_t>(std::find(candidates->begin(), candidates->end(), match) -
                                               candidates->begin());
             first_written = q.unit;
+            first_key = entry.full_key() + " at " + entry.origin();
             break;
           }
       if (basis == concentration_bases.size())
@@ -523,6 +533,7 @@ namespace fickcast
       else
         result.amount = n + per_length[dimension];
       result.as_written = first_written.empty() ? result.concentration : first_written;
+      result.decided_by = first_key;
       return result;
     }
   } // namespace

@@ -111,12 +111,12 @@ namespace fickcast
                                    {"concentration", "flux", "transfer", "sealed"})));
       s.push_back(variables(make("boundary", "value", K::field, Dim::boundary_value, "",
                                  "concentration inside the material at the face (type concentration) "
-                                 "or inward flux (type flux); {expression of t} allowed"),
-                            {"t"}));
+                                 "or inward flux (type flux); {expression of x, y, z, t} allowed"),
+                            {"x", "y", "z", "t"}));
       s.push_back(variables(make("boundary", "ambient", K::field, Dim::concentration, "",
                                  "concentration in the medium outside (reference phase); "
-                                 "{expression of t} allowed"),
-                            {"t"}));
+                                 "{expression of x, y, z, t} allowed"),
+                            {"x", "y", "z", "t"}));
       s.push_back(positive(make("boundary", "coefficient", K::quantity, Dim::velocity, "",
                                 "transfer coefficient h: outward flux = h (c_face - K ambient)")));
       // [initial]

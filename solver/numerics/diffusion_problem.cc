@@ -160,12 +160,19 @@ namespace fickcast
               owner_boundary[dof] = b;
           }
       }
+    std::map<types::global_dof_index, Point<dim>> support_points;
+    if (!owner_boundary.empty())
+      DoFTools::map_dofs_to_support_points(mapping_, dof_handler_, support_points);
+    fixed_points_.clear();
     for (const auto &[dof, b] : owner_boundary)
       {
         if (relevant_.is_element(dof))
           constraints_.add_line(dof);
         if (owned_.is_element(dof))
-          fixed_dofs_.emplace_back(dof, b);
+          {
+            fixed_dofs_.emplace_back(dof, b);
+            fixed_points_.push_back(support_points.at(dof));
+          }
       }
     constraints_.close();
 
@@ -424,12 +431,59 @@ namespace fickcast
   {
     sources(t, f);
     for (unsigned int b = 0; b < boundary_kinds_.size(); ++b)
+      if (boundary_kinds_[b] == BoundaryKind::flux || boundary_kinds_[b] == BoundaryKind::transfer)
+        boundary_forcing(b, t, &f);
+  }
+
+  template <int dim>
+  double DiffusionProblem<dim>::boundary_forcing(const unsigned int b, const double t, Vector *f) const
+  {
+    const ScalarFunction &given =
+      boundary_kinds_[b] == BoundaryKind::flux ? boundary_value_[b] : boundary_ambient_[b];
+    if (!given.depends_on_space())
       {
-        if (boundary_kinds_[b] == BoundaryKind::flux)
-          f.add(boundary_value_[b].at_time(t), boundary_load_[b]);
-        else if (boundary_kinds_[b] == BoundaryKind::transfer)
-          f.add(boundary_ambient_[b].at_time(t), boundary_load_[b]);
+        const double value = given.at_time(t);
+        if (f != nullptr && value != 0)
+          f->add(value, boundary_load_[b]);
+        return value * boundary_load_total_[b];
       }
+    // Spatially varying: integrate value(x, t) phi_i over the boundary (times h K for transfer).
+    Vector load = make_vector();
+    const QGauss<dim - 1> face_quadrature(fe_.degree + 2);
+    FEFaceValues<dim> fe_face_values(mapping_, fe_, face_quadrature,
+                                     update_values | update_quadrature_points | update_JxW_values);
+    const unsigned int n = fe_.n_dofs_per_cell();
+    dealii::Vector<double> local(n);
+    std::vector<types::global_dof_index> dofs(n);
+    for (const auto &cell : dof_handler_.active_cell_iterators())
+      {
+        if (!cell->is_locally_owned())
+          continue;
+        for (const unsigned int face : cell->face_indices())
+          {
+            if (!cell->face(face)->at_boundary() || cell->face(face)->boundary_id() != b)
+              continue;
+            fe_face_values.reinit(cell, face);
+            cell->get_dof_indices(dofs);
+            const double factor = boundary_kinds_[b] == BoundaryKind::transfer
+                                    ? boundary_specs_[b]->coefficient * partition(cell->material_id())
+                                    : 1.0;
+            local = 0;
+            for (unsigned int q = 0; q < face_quadrature.size(); ++q)
+              {
+                const auto &p = fe_face_values.quadrature_point(q);
+                const double value = given(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, t);
+                const double w = coordinate_weight(p) * fe_face_values.JxW(q);
+                for (unsigned int i = 0; i < n; ++i)
+                  local(i) += factor * value * fe_face_values.shape_value(i, q) * w;
+              }
+            load.add(dofs, local);
+          }
+      }
+    load.compress(VectorOperation::add);
+    if (f != nullptr)
+      *f += load;
+    return load.mean_value() * static_cast<double>(load.size());
   }
 
   template <int dim>
@@ -484,12 +538,13 @@ namespace fickcast
   }
 
   template <int dim>
-  double DiffusionProblem<dim>::dirichlet_value(const unsigned int b, const double t) const
+  double DiffusionProblem<dim>::dirichlet_value(const unsigned int b, const Point<dim> &p, const double t) const
   {
     const BoundarySpec &spec = *boundary_specs_[b];
+    const double x = p[0], y = dim > 1 ? p[1] : 0.0, z = dim > 2 ? p[2] : 0.0;
     if (spec.value_is_ambient)
-      return boundary_ambient_[b].at_time(t);
-    return boundary_value_[b].at_time(t) / boundary_partition_[b];
+      return boundary_ambient_[b](x, y, z, t);
+    return boundary_value_[b](x, y, z, t) / boundary_partition_[b];
   }
 
   template <int dim>
@@ -499,12 +554,12 @@ namespace fickcast
     for (const auto &region : description_.regions)
       if (region.initial && region.initial->is_constant())
         scale = std::max(scale, std::abs(region.initial->value) / region.partition);
+    for (std::size_t k = 0; k < fixed_dofs_.size(); ++k)
+      scale = std::max(scale, std::abs(dirichlet_value(fixed_dofs_[k].second, fixed_points_[k], 0.0)));
     for (unsigned int b = 0; b < boundary_kinds_.size(); ++b)
-      if (boundary_kinds_[b] == BoundaryKind::concentration)
-        scale = std::max(scale, std::abs(dirichlet_value(b, 0.0)));
-      else if (boundary_kinds_[b] == BoundaryKind::transfer)
+      if (boundary_kinds_[b] == BoundaryKind::transfer && !boundary_ambient_[b].depends_on_space())
         scale = std::max(scale, std::abs(boundary_ambient_[b].at_time(0.0)));
-    return scale;
+    return Utilities::MPI::max(scale, communicator_);
   }
 
   template <int dim>
@@ -587,8 +642,8 @@ namespace fickcast
 
     // Lifting: u1 = w + g, g holding the fixed values; solve for w with zero fixed rows.
     Vector lifted = make_vector();
-    for (const auto &[dof, boundary] : fixed_dofs_)
-      lifted[dof] = dirichlet_value(boundary, plan.t1);
+    for (std::size_t k = 0; k < fixed_dofs_.size(); ++k)
+      lifted[fixed_dofs_[k].first] = dirichlet_value(fixed_dofs_[k].second, fixed_points_[k], plan.t1);
     lifted.compress(VectorOperation::insert);
     Vector system_times_lifted = make_vector();
     mass_.vmult(system_times_lifted, lifted);
@@ -658,10 +713,9 @@ namespace fickcast
     for (unsigned int b = 0; b < boundary_kinds_.size(); ++b)
       {
         if (boundary_kinds_[b] == BoundaryKind::flux)
-          rates.boundary_inflow[b] = boundary_value_[b].at_time(t) * boundary_load_total_[b];
+          rates.boundary_inflow[b] = boundary_forcing(b, t, nullptr);
         else if (boundary_kinds_[b] == BoundaryKind::transfer)
-          rates.boundary_inflow[b] =
-            boundary_ambient_[b].at_time(t) * boundary_load_total_[b] - transfer_rowsum_[b] * u;
+          rates.boundary_inflow[b] = boundary_forcing(b, t, nullptr) - transfer_rowsum_[b] * u;
       }
     if (!source_depends_on_space_)
       {

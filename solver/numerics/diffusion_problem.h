@@ -124,8 +124,8 @@ namespace fickcast
     void zero_fixed(Vector &v) const;
     /// Factorisations or multigrid set-ups so far.
     unsigned int n_matrix_setups() const { return solver_ ? solver_->n_setups() : 0; }
-    /// Dirichlet unknown value imposed on boundary @p boundary at time t (reference phase).
-    double dirichlet_value(unsigned int boundary, double t) const;
+    /// Unknown (reference-phase) value imposed on concentration boundary @p boundary at a point.
+    double dirichlet_value(unsigned int boundary, const dealii::Point<dim> &point, double t) const;
 
   private:
     struct Operator
@@ -142,6 +142,9 @@ namespace fickcast
     void assemble_operator(double t, Operator &op);
     void forcing(double t, Vector &f) const;
     void sources(double t, Vector &f) const;
+    /// Inward rate through flux or transfer boundary @p b from its given value (flux) or ambient
+    /// (transfer) at time t; adds the load vector to @p f when given.
+    double boundary_forcing(unsigned int b, double t, Vector *f) const;
     const Operator &operator_at(double t, bool trial);
 
     const CaseDescription &description_;
@@ -175,6 +178,7 @@ namespace fickcast
     std::vector<Vector> transfer_rowsum_; ///< B_b 1 per boundary
     std::vector<Vector> boundary_load_; ///< int phi w over boundary b (times h K for transfer)
     std::vector<std::pair<dealii::types::global_dof_index, unsigned int>> fixed_dofs_; ///< owned
+    std::vector<dealii::Point<dim>> fixed_points_; ///< support point of each entry of fixed_dofs_
     double system_a_ = -1, system_b_ = -1;
     unsigned long system_version_ = 0;
     std::unique_ptr<LinearSolver> solver_;

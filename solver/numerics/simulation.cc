@@ -60,7 +60,7 @@ namespace fickcast
 
   template <int dim>
   RunRecord simulate(const CaseDescription &c, MPI_Comm communicator, const std::string &folder,
-                     const ProgressCallback &progress)
+                     const ProgressCallback &progress, const StateObserver<dim> &observer)
   {
     using Vector = typename DiffusionProblem<dim>::Vector;
     const auto wall_start = std::chrono::steady_clock::now();
@@ -202,6 +202,8 @@ namespace fickcast
 
     auto output_fields = [&](const double t, const Vector &state) {
       const Vector ghosted = problem.make_ghosted(state);
+      if (observer)
+        observer(t, problem, ghosted);
       if (fields)
         fields->write(ghosted, t);
       record.output_times.push_back(t);
@@ -458,7 +460,10 @@ namespace fickcast
     return record;
   }
 
-  template RunRecord simulate<1>(const CaseDescription &, MPI_Comm, const std::string &, const ProgressCallback &);
-  template RunRecord simulate<2>(const CaseDescription &, MPI_Comm, const std::string &, const ProgressCallback &);
-  template RunRecord simulate<3>(const CaseDescription &, MPI_Comm, const std::string &, const ProgressCallback &);
+  template RunRecord simulate<1>(const CaseDescription &, MPI_Comm, const std::string &, const ProgressCallback &,
+                                   const StateObserver<1> &);
+  template RunRecord simulate<2>(const CaseDescription &, MPI_Comm, const std::string &, const ProgressCallback &,
+                                   const StateObserver<2> &);
+  template RunRecord simulate<3>(const CaseDescription &, MPI_Comm, const std::string &, const ProgressCallback &,
+                                   const StateObserver<3> &);
 } // namespace fickcast

@@ -9,10 +9,24 @@
 #include <functional>
 #include <string>
 
+namespace dealii::TrilinosWrappers::MPI
+{
+  class Vector;
+}
+
 namespace fickcast
 {
+  template <int dim>
+  class DiffusionProblem;
+
   /// Called after every accepted step with (time reached, end time, step count).
   using ProgressCallback = std::function<void(double, double, unsigned int)>;
+
+  /// Called at t = 0 and at every output time with the problem and the ghosted state u
+  /// (verification tests compare it with exact solutions in-process).
+  template <int dim>
+  using StateObserver =
+    std::function<void(double, const DiffusionProblem<dim> &, const dealii::TrilinosWrappers::MPI::Vector &)>;
 
   /**
    * Runs one case of dimension @p dim on @p communicator, writing series.csv and fields/ into
@@ -23,7 +37,7 @@ namespace fickcast
    */
   template <int dim>
   RunRecord simulate(const CaseDescription &description, MPI_Comm communicator, const std::string &folder,
-                     const ProgressCallback &progress);
+                     const ProgressCallback &progress, const StateObserver<dim> &observer = {});
 
   /// Set by a SIGINT/SIGTERM handler: the time loop stops at the next step, keeping what it has.
   void request_stop();

@@ -1,0 +1,59 @@
+#!/usr/bin/env bash
+# The fickcast command line: help, version, verbs, flags, exit codes, results-folder safety.
+# Usage: cli_test.sh FICKCAST CASE.ini SCRATCH_DIR
+set -u
+fickcast=$1 case_file=$2 scratch=$3
+rm -rf "$scratch" && mkdir -p "$scratch"
+failures=0
+fail() { echo "FAIL: $*"; failures=$((failures + 1)); }
+expect_code() { # expected-code description command...
+  local expected=$1 what=$2; shift 2
+  "$@" >"$scratch/out.txt" 2>"$scratch/err.txt"
+  local code=$?
+  [ "$code" -eq "$expected" ] || fail "$what: expected exit $expected, found $code ($(head -c 300 "$scratch/err.txt"))"
+}
+
+expect_code 0 "--version" "$fickcast" --version
+grep -Eq '^fickcast [0-9]+\.[0-9]+\.[0-9]+' "$scratch/out.txt" || fail "--version prints no version"
+expect_code 0 "--help" "$fickcast" --help
+grep -q "run" "$scratch/out.txt" && grep -q "check" "$scratch/out.txt" || fail "--help does not list the verbs"
+expect_code 0 "no arguments shows help" "$fickcast"
+expect_code 0 "run --help" "$fickcast" run --help
+grep -q -- "--overwrite" "$scratch/out.txt" || fail "run --help lacks --overwrite"
+expect_code 0 "check --help" "$fickcast" check --help
+expect_code 0 "check --keys" "$fickcast" check --keys
+grep -q "diffusivity" "$scratch/out.txt" || fail "check --keys does not list diffusivity"
+
+expect_code 2 "unknown verb" "$fickcast" rnu "$case_file"
+grep -q "did you mean 'run'" "$scratch/err.txt" || fail "unknown verb gives no suggestion"
+expect_code 2 "missing case file argument" "$fickcast" run
+expect_code 2 "case file that does not exist" "$fickcast" run "$scratch/nowhere.ini"
+grep -q "nowhere.ini" "$scratch/err.txt" || fail "missing file not named"
+expect_code 2 "unknown flag" "$fickcast" run "$case_file" --frobnicate
+expect_code 2 "--set without =" "$fickcast" check "$case_file" --set time.end
+grep -q -- "--set" "$scratch/err.txt" || fail "bad --set not attributed to --set"
+expect_code 2 "--set with a bad unit" "$fickcast" check "$case_file" --set "time.end=3 m"
+grep -q -- "--set: time.end" "$scratch/err.txt" || fail "bad --set value not attributed"
+
+expect_code 0 "check" "$fickcast" check "$case_file"
+grep -Eq "time\.end .*:[0-9]+$" "$scratch/out.txt" || fail "check does not give file:line origins"
+grep -Eq "default$" "$scratch/out.txt" || fail "check does not mark defaults"
+expect_code 0 "check with --set" "$fickcast" check "$case_file" --set "time.end=2 yr"
+grep -Eq "time\.end +2 yr +63115200 s +--set" "$scratch/out.txt" || fail "check does not show the --set origin"
+
+results="$scratch/results"
+expect_code 0 "run" "$fickcast" run "$case_file" --output "$results" --set "time.end=1 yr"
+[ -f "$results/summary.json" ] && [ -f "$results/series.csv" ] && [ -f "$results/fields/fields.pvd" ] ||
+  fail "run left an incomplete results folder"
+touch "$results/marker"
+expect_code 2 "run into an existing folder" "$fickcast" run "$case_file" --output "$results" --set "time.end=1 yr"
+grep -q "overwrite" "$scratch/err.txt" || fail "existing folder message does not mention --overwrite"
+[ -f "$results/marker" ] || fail "an existing results folder was touched without --overwrite"
+expect_code 0 "run --overwrite --quiet" "$fickcast" run "$case_file" --output "$results" --overwrite --quiet \
+  --set "time.end=1 yr"
+[ -s "$scratch/out.txt" ] && fail "--quiet printed to stdout"
+[ -f "$results/marker" ] && fail "--overwrite kept the old folder content"
+ls "$scratch" | grep -q "partial" && fail "a partial folder was left behind"
+
+if [ "$failures" -ne 0 ]; then echo "$failures failure(s)"; exit 1; fi
+echo "all command-line checks passed"

@@ -1,0 +1,113 @@
+// The same 2-D case on 1 and on 2 MPI ranks gives the same answer to solver tolerance.
+// Run with mpirun -np 2: the two-rank run uses MPI_COMM_WORLD (p4est-distributed mesh, CG with
+// algebraic multigrid), the one-rank run uses MPI_COMM_SELF on rank 0 (sparse direct solver).
+#include "case_runner.h"
+
+#include "numerics/diffusion_problem.h"
+#include "numerics/simulation.h"
+#include "results/point_evaluator.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <filesystem>
+
+namespace fickcast::testing
+{
+  namespace
+  {
+    const char *case_text = R"(
+[case]
+title = rank agreement
+dimension = 2
+[geometry]
+layers = cap 0.2 m, body 0.8 m
+width = 1.5 m
+cell_size = 0.05 m
+[region.cap]
+diffusivity = {2e-9*(1 + 0.5*x)} m2/s
+partition = 0.5
+[region.body]
+diffusivity = 1e-9 m2/s
+porosity = 0.3
+retardation = 2
+decay_rate = 1e-9 1/s
+[boundary.top]
+type = concentration
+ambient = {1 + 0.2*x} mol/m3
+[boundary.right]
+type = transfer
+coefficient = 1e-8 m/s
+ambient = 0.3 mol/m3
+[time]
+end = 5 yr
+[output]
+fields_every = 1 yr
+probe.a = 0.75 m, 0.3 m
+)";
+
+    struct Observed
+    {
+      std::vector<double> times;
+      std::vector<std::vector<double>> values; ///< concentrations at the sample points per time
+      RunRecord record;
+    };
+
+    Observed run_on(MPI_Comm communicator, const std::string &name)
+    {
+      CaseDescription description = describe(case_text, name, communicator);
+      std::filesystem::create_directories(description.output.folder + "/fields");
+      Observed observed;
+      std::vector<dealii::Point<2>> points;
+      for (int i = 0; i <= 10; ++i)
+        for (int j = 0; j <= 10; ++j)
+          points.emplace_back(0.15 * i, 0.1 * j);
+      const StateObserver<2> observer = [&](double t, const DiffusionProblem<2> &problem,
+                                            const dealii::TrilinosWrappers::MPI::Vector &state) {
+        const PointEvaluator<2> evaluator(problem, points, "sample");
+        observed.times.push_back(t);
+        observed.values.push_back(evaluator.concentrations(state));
+      };
+      observed.record = simulate<2>(description, communicator, description.output.folder, {}, observer);
+      return observed;
+    }
+  } // namespace
+
+  TEST(RankAgreement, TwoRanksMatchOneRankToSolverTolerance)
+  {
+    const unsigned int n_ranks = dealii::Utilities::MPI::n_mpi_processes(MPI_COMM_WORLD);
+    ASSERT_EQ(n_ranks, 2u) << "run this test with mpirun -np 2";
+    const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD);
+    const Observed many = run_on(MPI_COMM_WORLD, "agreement_two");
+    Observed one;
+    if (rank == 0)
+      one = run_on(MPI_COMM_SELF, "agreement_one");
+    if (rank != 0)
+      return;
+    EXPECT_EQ(many.record.ranks, 2u);
+    EXPECT_EQ(one.record.ranks, 1u);
+    ASSERT_EQ(one.times.size(), many.times.size());
+    double scale = 0;
+    for (const auto &row : one.values)
+      for (const double v : row)
+        scale = std::max(scale, std::abs(v));
+    for (std::size_t k = 0; k < one.times.size(); ++k)
+      {
+        EXPECT_DOUBLE_EQ(one.times[k], many.times[k]);
+        for (std::size_t i = 0; i < one.values[k].size(); ++i)
+          EXPECT_NEAR(one.values[k][i], many.values[k][i], 1e-8 * scale) << "time " << k << ", point " << i;
+      }
+    for (std::size_t r = 0; r < one.record.final_region_amounts.size(); ++r)
+      EXPECT_NEAR(one.record.final_region_amounts[r] / many.record.final_region_amounts[r], 1.0, 1e-8);
+    double moved = 0;
+    for (const double amount : one.record.boundary_entered)
+      moved = std::max(moved, std::abs(amount));
+    ASSERT_GT(moved, 0);
+    for (std::size_t b = 0; b < one.record.boundary_entered.size(); ++b)
+      EXPECT_NEAR(one.record.boundary_entered[b], many.record.boundary_entered[b], 1e-8 * moved)
+        << "boundary " << one.record.boundaries[b];
+    EXPECT_EQ(one.record.steps_accepted, many.record.steps_accepted);
+  }
+} // namespace fickcast::testing

@@ -1,0 +1,42 @@
+#include "case_runner.h"
+
+#include "case/case_reader.h"
+#include "numerics/run_case.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <filesystem>
+
+#ifndef FICKCAST_TEST_SCRATCH
+#  define FICKCAST_TEST_SCRATCH "/tmp/fickcast-tests"
+#endif
+
+namespace fickcast::testing
+{
+  std::string scratch_folder(const std::string &name, MPI_Comm communicator)
+  {
+    const std::string folder = std::string(FICKCAST_TEST_SCRATCH) + "/" + name;
+    if (dealii::Utilities::MPI::this_mpi_process(communicator) == 0)
+      {
+        std::filesystem::remove_all(folder);
+        std::filesystem::create_directories(folder);
+      }
+    MPI_Barrier(communicator);
+    return folder;
+  }
+
+  CaseDescription describe(const std::string &case_text, const std::string &name, MPI_Comm communicator)
+  {
+    const std::string folder = scratch_folder(name, communicator);
+    CaseDescription description = read_case_text(case_text, name + ".ini");
+    description.output.folder = folder + "/results";
+    return description;
+  }
+
+  RunRecord run(const CaseDescription &description)
+  {
+    RunOptions options;
+    options.overwrite = true;
+    return run_case(description, options, MPI_COMM_WORLD).record;
+  }
+} // namespace fickcast::testing

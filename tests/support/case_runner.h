@@ -1,0 +1,24 @@
+// Running a case written inline in a test, into a fresh results folder.
+#pragma once
+
+#include "case/case_description.h"
+#include "numerics/run_record.h"
+
+#include <mpi.h>
+
+#include <string>
+
+namespace fickcast::testing
+{
+  /// A fresh, empty folder under the build tree for one test (removed and re-created by rank 0
+  /// of @p communicator, collective over it).
+  std::string scratch_folder(const std::string &name, MPI_Comm communicator = MPI_COMM_WORLD);
+
+  /// Reads @p case_text (INI) as if it were the file `<name>.ini`, with the results folder
+  /// set to scratch_folder(name)/results.
+  CaseDescription describe(const std::string &case_text, const std::string &name,
+                           MPI_Comm communicator = MPI_COMM_WORLD);
+
+  /// Runs @p description on MPI_COMM_WORLD into its output folder (overwriting); returns the record.
+  RunRecord run(const CaseDescription &description);
+} // namespace fickcast::testing

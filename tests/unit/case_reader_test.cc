@@ -1,0 +1,135 @@
+#include "case/case_reader.h"
+#include "case/input_error.h"
+
+#include <gtest/gtest.h>
+
+namespace fickcast
+{
+  namespace
+  {
+    const std::string minimal = R"(
+[geometry]
+layers = clay 0.9 m, sand 300 mm
+cell_size = 5 mm
+[region.clay]
+diffusivity = 1.9e-9 m2/s
+porosity = 0.38
+tortuosity = 0.33
+[region.sand]
+diffusivity = 1.9e-5 cm2/s
+[boundary.top]
+type = concentration
+value = 1500 mg/L
+[time]
+end = 60 yr
+[output]
+probe.base = 0.9 m
+threshold.base = 250 mg/L
+)";
+
+    std::string error_of(const std::string &text, const std::vector<std::string> &overrides = {})
+    {
+      try
+        {
+          read_case_text(text, "case.ini", overrides);
+        }
+      catch (const InputError &error)
+        {
+          return error.what();
+        }
+      return "";
+    }
+  } // namespace
+
+  TEST(CaseReader, ConvertsEverythingToSI)
+  {
+    const CaseDescription c = read_case_text(minimal, "case.ini");
+    ASSERT_EQ(c.geometry.layers.size(), 2u);
+    EXPECT_DOUBLE_EQ(c.geometry.layers[1].thickness, 0.3);
+    EXPECT_DOUBLE_EQ(c.geometry.cell_size, 0.005);
+    EXPECT_DOUBLE_EQ(c.regions[1].diffusivity.value, 1.9e-9);
+    EXPECT_DOUBLE_EQ(c.regions[0].capacity(), 0.38);
+    EXPECT_DOUBLE_EQ(c.regions[0].conductance_factor(), 0.38 * 0.33);
+    EXPECT_DOUBLE_EQ(c.time.end, 60 * 31557600.0);
+    EXPECT_EQ(c.units.concentration, "kg/m3");
+    EXPECT_EQ(c.units.amount, "kg/m2");
+    EXPECT_EQ(c.units.as_written, "mg/L");
+    EXPECT_DOUBLE_EQ(c.boundaries[0].value.value, 1.5);
+    EXPECT_EQ(c.boundaries[1].kind, BoundaryKind::sealed); // bottom, not given
+    ASSERT_EQ(c.output.thresholds.size(), 1u);
+    EXPECT_DOUBLE_EQ(c.output.thresholds[0].level, 0.25);
+    EXPECT_EQ(c.output.folder, "results/case");
+  }
+
+  TEST(CaseReader, RecordsWhereEverySettingCameFrom)
+  {
+    const CaseDescription c = read_case_text(minimal, "case.ini", {"time.end=10 yr"});
+    bool saw_end = false, saw_default = false;
+    for (const auto &record : c.settings)
+      {
+        if (record.key == "time.end")
+          {
+            saw_end = true;
+            EXPECT_EQ(record.origin, "--set");
+            EXPECT_EQ(record.written, "10 yr");
+            EXPECT_EQ(record.si, "315576000 s");
+          }
+        if (record.key == "region.sand.porosity")
+          {
+            saw_default = true;
+            EXPECT_EQ(record.origin, "default");
+          }
+        if (record.key == "region.clay.porosity")
+          EXPECT_EQ(record.origin, "case.ini:7");
+      }
+    EXPECT_TRUE(saw_end);
+    EXPECT_TRUE(saw_default);
+    EXPECT_DOUBLE_EQ(c.time.end, 10 * 31557600.0);
+  }
+
+  TEST(CaseReader, OverridesNamedSections)
+  {
+    const CaseDescription c = read_case_text(minimal, "case.ini", {"region.clay.porosity=0.45"});
+    EXPECT_DOUBLE_EQ(c.regions[0].porosity, 0.45);
+  }
+
+  TEST(CaseReader, MistakesNameFileLineAndKey)
+  {
+    EXPECT_NE(error_of(minimal + "[region.silt]\ndiffusivity = 1e-9 m2/s\n").find("region.silt"), std::string::npos);
+    const std::string typo = error_of(minimal, {"region.clay.porsity=0.3"});
+    EXPECT_NE(typo.find("did you mean 'porosity'"), std::string::npos) << typo;
+    const std::string unit = error_of(minimal, {"region.clay.diffusivity=1.9e-9 m"});
+    EXPECT_NE(unit.find("--set: region.clay.diffusivity"), std::string::npos) << unit;
+    EXPECT_NE(unit.find("a length"), std::string::npos) << unit;
+    const std::string negative = error_of(minimal, {"region.sand.diffusivity=-1e-9 m2/s"});
+    EXPECT_NE(negative.find("expected a value > 0"), std::string::npos) << negative;
+    EXPECT_NE(error_of(minimal, {"region.clay.porosity=1.2"}).find("(0, 1]"), std::string::npos);
+    EXPECT_NE(error_of(minimal, {"region.clay.retardation=0.5"}).find(">= 1"), std::string::npos);
+    EXPECT_NE(error_of(minimal, {"time.end=0 s"}).find("time.end"), std::string::npos);
+    EXPECT_NE(error_of(minimal, {"output.probe.base=2 m"}).find("outside"), std::string::npos);
+    EXPECT_NE(error_of(minimal, {"boundary.side.type=sealed"}).find("boundary.side"), std::string::npos);
+    EXPECT_NE(error_of(minimal, {"output.threshold.nowhere=1 mg/L"}).find("probe"), std::string::npos);
+    // The first concentration written decides the family; a later one in another family names it.
+    const std::string family = error_of(minimal, {"boundary.top.value=2 mol/m3"});
+    EXPECT_NE(family.find("output.threshold.base"), std::string::npos) << family;
+    EXPECT_NE(family.find("boundary.top.value"), std::string::npos) << family;
+    EXPECT_NE(error_of(minimal, {"geometry.layers=clay 0 m, sand 1 m"}).find("zero-thickness"), std::string::npos);
+  }
+
+  TEST(CaseReader, ExpressionsAreCheckedWhenRead)
+  {
+    const CaseDescription c = read_case_text(minimal, "case.ini", {"boundary.top.value={1500*exp(-t/(2*h))} mg/L"});
+    EXPECT_EQ(c.boundaries[0].value.expression, "1500*exp(-t/(2*h))");
+    EXPECT_DOUBLE_EQ(c.boundaries[0].value.scale, 1e-3);
+    EXPECT_NE(error_of(minimal, {"initial.value={t*2} mg/L"}).find("variables allowed here: x, y, z"),
+              std::string::npos);
+  }
+
+  TEST(CaseReader, LayersWithoutCommas)
+  {
+    const CaseDescription c = read_case_text(minimal, "case.ini", {"geometry.layers=clay 0.6 m sand 0.3 m"});
+    ASSERT_EQ(c.geometry.layers.size(), 2u);
+    EXPECT_DOUBLE_EQ(c.geometry.layers[0].thickness, 0.6);
+    EXPECT_EQ(c.geometry.layers[1].name, "sand");
+  }
+} // namespace fickcast
