@@ -25,13 +25,13 @@ namespace fickcast
     po::options_description common_options()
     {
       po::options_description options("Options");
-      options.add_options()                                                            //
+      options.add_options() //
         ("set", po::value<std::vector<std::string>>()->composing(),
          "override a case key: --set section.key=value (repeatable), e.g. "
-         "--set region.clay.diffusivity=\"2e-10 m2/s\"") //
+         "--set region.clay.diffusivity=\"2e-10 m2/s\"")                                             //
         ("output", po::value<std::string>(), "results folder (instead of the case's output.folder)") //
-        ("overwrite", "replace an existing results folder")                          //
-        ("quiet", "print errors only")                                               //
+        ("overwrite", "replace an existing results folder")                                          //
+        ("quiet", "print errors only")                                                               //
         ("help", "show this help");
       return options;
     }
@@ -84,8 +84,9 @@ namespace fickcast
             list += (list.empty() ? "" : ", ") + name;
           }
         const std::string suggestion = nearest(first, names);
-        throw InputError("command line", "", "unknown verb '" + first + "'; expected one of " + list +
-                                               (suggestion.empty() ? "" : " (did you mean '" + suggestion + "'?)"));
+        throw InputError("command line", "",
+                         "unknown verb '" + first + "'; expected one of " + list +
+                           (suggestion.empty() ? "" : " (did you mean '" + suggestion + "'?)"));
       }
     invocation.verb = first;
 
@@ -119,8 +120,9 @@ namespace fickcast
       {
         const auto cases = values["case"].as<std::vector<std::string>>();
         if (cases.size() > 1)
-          throw InputError("command line", "", "expected one case file, found " + std::to_string(cases.size()) +
-                                                 " ('" + cases[0] + "', '" + cases[1] + "', ...)");
+          throw InputError("command line", "",
+                           "expected one case file, found " + std::to_string(cases.size()) + " ('" + cases[0] + "', '" +
+                             cases[1] + "', ...)");
         invocation.case_file = cases.front();
       }
     if (invocation.case_file.empty() && !invocation.help && !invocation.list_keys)

@@ -9,7 +9,7 @@ namespace fickcast
   /// What the user asked for.
   struct Invocation
   {
-    std::string verb;                   ///< run, check, ... or empty for --help / --version
+    std::string verb; ///< run, check, ... or empty for --help / --version
     std::string case_file;
     std::vector<std::string> overrides; ///< --set section.key=value, in order
     std::string output;                 ///< --output DIR
@@ -17,7 +17,7 @@ namespace fickcast
     bool quiet = false;
     bool help = false;
     bool version = false;
-    bool list_keys = false;             ///< check --keys
+    bool list_keys = false; ///< check --keys
   };
 
   /// The verbs this build offers, with a one-line description each.

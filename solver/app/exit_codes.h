@@ -5,9 +5,9 @@ namespace fickcast
 {
   enum ExitCode : int
   {
-    exit_success = 0,   ///< done
-    exit_run_failed = 1,///< numerical failure (no convergence, step underflow), or a failed check
-    exit_bad_input = 2, ///< case file, mesh, table or flag
-    exit_io_error = 3   ///< reading or writing files failed
+    exit_success = 0,    ///< done
+    exit_run_failed = 1, ///< numerical failure (no convergence, step underflow), or a failed check
+    exit_bad_input = 2,  ///< case file, mesh, table or flag
+    exit_io_error = 3    ///< reading or writing files failed
   };
 } // namespace fickcast

@@ -11,7 +11,8 @@ namespace fickcast
     , enabled_(enabled && ::isatty(STDERR_FILENO) == 1)
     , start_(std::chrono::steady_clock::now())
     , last_(start_)
-  {}
+  {
+  }
 
   ProgressLine::~ProgressLine()
   {
@@ -30,8 +31,8 @@ namespace fickcast
     last_ = now;
     const double fraction = end > 0 ? t / end : 1.0;
     const double left = fraction > 0 ? elapsed * (1 - fraction) / fraction : 0.0;
-    std::fprintf(stderr, "\r  t = %s (%3.0f %%), step %u, about %.0f s left   ", units_.time(t).c_str(),
-                 100 * fraction, step, left);
+    std::fprintf(stderr, "\r  t = %s (%3.0f %%), step %u, about %.0f s left   ", units_.time(t).c_str(), 100 * fraction,
+                 step, left);
     std::fflush(stderr);
     shown_ = true;
   }

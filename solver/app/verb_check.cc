@@ -26,9 +26,8 @@ namespace fickcast
               std::cout << "\n[" << section << "]\n";
             }
           std::string fallback = spec.required ? "(required)" : spec.fallback.empty() ? "(optional)" : spec.fallback;
-          std::cout << "  " << spec.key << std::string(spec.key.size() < 16 ? 16 - spec.key.size() : 1, ' ')
-                    << fallback << std::string(fallback.size() < 16 ? 16 - fallback.size() : 1, ' ') << spec.help
-                    << '\n';
+          std::cout << "  " << spec.key << std::string(spec.key.size() < 16 ? 16 - spec.key.size() : 1, ' ') << fallback
+                    << std::string(fallback.size() < 16 ? 16 - fallback.size() : 1, ' ') << spec.help << '\n';
         }
     }
   } // namespace
@@ -61,13 +60,13 @@ namespace fickcast
     auto pad = [](const std::string &text, const std::size_t width) {
       return text + std::string(text.size() < width ? width - text.size() : 0, ' ');
     };
-    std::cout << "case " << description.file << ": " << description.title << " (" << description.dimension
-              << "-D)\n"
-              << "concentration: SI " << description.units.concentration << " (as written: "
-              << description.units.as_written << "); amounts in " << description.units.amount << "\n"
+    std::cout << "case " << description.file << ": " << description.title << " (" << description.dimension << "-D)\n"
+              << "concentration: SI " << description.units.concentration
+              << " (as written: " << description.units.as_written << "); amounts in " << description.units.amount
+              << "\n"
               << "mesh: " << mesh.cells << " cells, " << mesh.unknowns << " unknowns (degree "
-              << description.numerics.degree << "), cell sizes " << mesh.smallest_cell << " to "
-              << mesh.largest_cell << " m\n\n"
+              << description.numerics.degree << "), cell sizes " << mesh.smallest_cell << " to " << mesh.largest_cell
+              << " m\n\n"
               << pad("key", key_width) << "  " << pad("value as written", written_width) << "  "
               << pad("SI value", si_width) << "  from\n";
     for (const auto &record : description.settings)

@@ -17,7 +17,8 @@ namespace fickcast
       Builder(const Settings &settings_in, const unsigned int dimension_in)
         : settings(settings_in)
         , dimension(dimension_in)
-      {}
+      {
+      }
 
       CaseDescription build()
       {
@@ -171,7 +172,8 @@ namespace fickcast
             const auto *rate = get(section, "decay_rate");
             const auto *half_life = get(section, "half_life");
             if (rate && half_life)
-              fail(*half_life, "expected either decay_rate or half_life, found both (decay_rate at " + rate->origin + ")");
+              fail(*half_life,
+                   "expected either decay_rate or half_life, found both (decay_rate at " + rate->origin + ")");
             region.decay_rate = rate ? rate->si : half_life ? std::log(2.0) / half_life->si : 0.0;
             region.source = field(section, "source");
             if (const auto *initial = get(section, "initial"))
@@ -223,7 +225,8 @@ namespace fickcast
                 forbid(coefficient, "the concentration is imposed");
                 if (value && ambient)
                   fail(*ambient, "expected either value (inside the material) or ambient (outside, "
-                                 "reference phase), found both (value at " + value->origin + ")");
+                                 "reference phase), found both (value at " +
+                                   value->origin + ")");
                 if (!value && !ambient)
                   missing(section, "value", "the concentration at the face, such as 250 mg/L");
                 boundary.value_is_ambient = ambient != nullptr;
@@ -328,8 +331,8 @@ namespace fickcast
           {
             for (const double t : times->list)
               if (t > c.time.end)
-                fail(*times, "expected output times within the run (<= " + format_si(c.time.end, "s") +
-                               "), found " + format_si(t, "s"));
+                fail(*times, "expected output times within the run (<= " + format_si(c.time.end, "s") + "), found " +
+                               format_si(t, "s"));
             c.output.times = times->list;
             std::sort(c.output.times.begin(), c.output.times.end());
           }
@@ -395,11 +398,11 @@ namespace fickcast
             if (key_spec.kind == ValueKind::quantity || key_spec.kind == ValueKind::field)
               if (key_spec.fallback != "auto")
                 {
-                  si = format_si(std::stod(key_spec.fallback),
-                                 key_spec.dim == Dim::concentration ? c.units.concentration
-                                 : key_spec.dim == Dim::source      ? c.units.source
-                                 : key_spec.dim == Dim::rate        ? "1/s"
-                                                                    : "");
+                  si =
+                    format_si(std::stod(key_spec.fallback), key_spec.dim == Dim::concentration ? c.units.concentration
+                                                            : key_spec.dim == Dim::source      ? c.units.source
+                                                            : key_spec.dim == Dim::rate        ? "1/s"
+                                                                                               : "");
                 }
             c.settings.push_back(SettingRecord{section + "." + key_spec.key, key_spec.fallback, si, "default"});
           }

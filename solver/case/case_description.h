@@ -49,11 +49,11 @@ namespace fickcast
   struct GeometrySpec
   {
     std::vector<LayerSpec> layers;
-    double cell_size = 0;      ///< m, target cell size along every axis
-    double width = 0;          ///< m, extent along x (2-D and 3-D)
-    double length = 0;         ///< m, extent along y (3-D)
+    double cell_size = 0; ///< m, target cell size along every axis
+    double width = 0;     ///< m, extent along x (2-D and 3-D)
+    double length = 0;    ///< m, extent along y (3-D)
     Face grade_toward = Face::none;
-    double grading = 1;        ///< ratio of neighbouring cell sizes (>= 1) growing away from grade_toward
+    double grading = 1; ///< ratio of neighbouring cell sizes (>= 1) growing away from grade_toward
 
     double total_thickness() const
     {
@@ -68,15 +68,15 @@ namespace fickcast
   struct RegionSpec
   {
     std::string name;
-    ScalarField diffusivity;  ///< free diffusivity D, m2/s
-    double porosity = 1;      ///< theta in (0, 1]
-    double tortuosity = 1;    ///< factor tau in (0, 1]: D_eff = tau * D
-    double retardation = 1;   ///< R >= 1 (linear sorption)
-    double partition = 1;     ///< K > 0: phase concentration c = K u
-    double decay_rate = 0;    ///< lambda >= 0, 1/s, acting on dissolved and sorbed amounts
-    ScalarField source;       ///< volumetric source, concentration units per second, per bulk volume
+    ScalarField diffusivity;            ///< free diffusivity D, m2/s
+    double porosity = 1;                ///< theta in (0, 1]
+    double tortuosity = 1;              ///< factor tau in (0, 1]: D_eff = tau * D
+    double retardation = 1;             ///< R >= 1 (linear sorption)
+    double partition = 1;               ///< K > 0: phase concentration c = K u
+    double decay_rate = 0;              ///< lambda >= 0, 1/s, acting on dissolved and sorbed amounts
+    ScalarField source;                 ///< volumetric source, concentration units per second, per bulk volume
     std::optional<ScalarField> initial; ///< phase concentration, overrides [initial] value
-    double cell_size = 0;     ///< m; 0: the geometry's
+    double cell_size = 0;               ///< m; 0: the geometry's
 
     /// Storage capacity C = theta R K (multiplies du/dt).
     double capacity() const { return porosity * retardation * partition; }
@@ -102,10 +102,10 @@ namespace fickcast
   {
     std::string name;
     BoundaryKind kind = BoundaryKind::sealed;
-    ScalarField value;            ///< concentration at the face (concentration), or inward flux (flux)
-    bool value_is_ambient = false;///< concentration kind given through `ambient` instead of `value`
-    ScalarField ambient;          ///< outside concentration, reference phase (transfer, or concentration)
-    double coefficient = 0;       ///< transfer coefficient h, m/s
+    ScalarField value;             ///< concentration at the face (concentration), or inward flux (flux)
+    bool value_is_ambient = false; ///< concentration kind given through `ambient` instead of `value`
+    ScalarField ambient;           ///< outside concentration, reference phase (transfer, or concentration)
+    double coefficient = 0;        ///< transfer coefficient h, m/s
   };
 
   enum class TimeScheme
@@ -117,14 +117,14 @@ namespace fickcast
 
   struct TimeSpec
   {
-    double end = 0;              ///< s
-    bool adaptive = true;        ///< step = auto
-    double step = 0;             ///< s, fixed step when not adaptive
-    double tolerance = 1e-4;     ///< relative local error per step (adaptive)
+    double end = 0;          ///< s
+    bool adaptive = true;    ///< step = auto
+    double step = 0;         ///< s, fixed step when not adaptive
+    double tolerance = 1e-4; ///< relative local error per step (adaptive)
     TimeScheme scheme = TimeScheme::bdf2;
-    unsigned int start_steps = 4;///< implicit-Euler steps after every discontinuity (Crank-Nicolson)
-    double initial_step = 0;     ///< s; 0: chosen from tolerance and end time
-    double max_step = 0;         ///< s; 0: end / 20
+    unsigned int start_steps = 4; ///< implicit-Euler steps after every discontinuity (Crank-Nicolson)
+    double initial_step = 0;      ///< s; 0: chosen from tolerance and end time
+    double max_step = 0;          ///< s; 0: end / 20
   };
 
   enum class LinearSolverKind
@@ -157,9 +157,9 @@ namespace fickcast
 
   struct OutputSpec
   {
-    std::string folder;               ///< results folder, relative to the working directory
-    std::vector<double> times;        ///< s, extra output times
-    double fields_every = 0;          ///< s; 0: only the end (and listed times)
+    std::string folder;        ///< results folder, relative to the working directory
+    std::vector<double> times; ///< s, extra output times
+    double fields_every = 0;   ///< s; 0: only the end (and listed times)
     bool write_fields = true;
     std::vector<ProbeSpec> probes;
     std::vector<LevelSpec> thresholds;
@@ -189,12 +189,12 @@ namespace fickcast
   struct CaseDescription
   {
     std::string title;
-    std::string file;           ///< the case file it came from
+    std::string file; ///< the case file it came from
     unsigned int dimension = 1;
     GeometrySpec geometry;
     std::vector<RegionSpec> regions;
     std::vector<BoundarySpec> boundaries; ///< every face of the geometry, sealed unless given
-    ScalarField initial;        ///< phase concentration, SI
+    ScalarField initial;                  ///< phase concentration, SI
     TimeSpec time;
     NumericsSpec numerics;
     OutputSpec output;

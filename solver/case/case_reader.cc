@@ -12,9 +12,9 @@
 #include <cmath>
 #include <cstdio>
 #include <fstream>
-#include <sstream>
 #include <regex>
 #include <set>
+#include <sstream>
 
 namespace fickcast
 {
@@ -173,8 +173,9 @@ namespace fickcast
       for (const auto &c : candidates)
         list += (list.empty() ? "" : ", ") + std::string("[") + c + "]";
       const std::string suggestion = nearest(section, candidates);
-      throw InputError(where, "", "unknown section [" + section + "]; expected one of " + list +
-                                    (suggestion.empty() ? "" : " (did you mean [" + suggestion + "]?)"));
+      throw InputError(where, "",
+                       "unknown section [" + section + "]; expected one of " + list +
+                         (suggestion.empty() ? "" : " (did you mean [" + suggestion + "]?)"));
     }
 
     const KeySpec &lookup_key(const IniEntry &entry)
@@ -233,8 +234,7 @@ namespace fickcast
       if (units == nullptr || units->decided_by.empty() ||
           (dim != Dim::concentration && dim != Dim::flux && dim != Dim::source))
         return "";
-      return " (this case's concentrations are in " + units->concentration + ", as set by " + units->decided_by +
-             ")";
+      return " (this case's concentrations are in " + units->concentration + ", as set by " + units->decided_by + ")";
     }
 
     double to_si_or_throw(const IniEntry &entry, double number, const std::string &unit, const std::string &si_unit,
@@ -277,8 +277,8 @@ namespace fickcast
         value.si_unit = si_unit_of(dim, settings.units);
         const std::string &text = entry.value;
         if (text.empty() && spec.kind != ValueKind::text)
-          throw InputError(entry.origin(), entry.full_key(), "expected " +
-                             (spec.dim == Dim::none ? std::string("a value") : describe_dim(dim)) +
+          throw InputError(entry.origin(), entry.full_key(),
+                           "expected " + (spec.dim == Dim::none ? std::string("a value") : describe_dim(dim)) +
                              ", found an empty value");
         if (spec.allow_auto && text == "auto")
           {
@@ -315,8 +315,7 @@ namespace fickcast
                   else if (text == "false" || text == "no" || text == "off" || text == "0")
                     value.flag = false;
                   else
-                    throw InputError(entry.origin(), entry.full_key(),
-                                     "expected true or false, found '" + text + "'");
+                    throw InputError(entry.origin(), entry.full_key(), "expected true or false, found '" + text + "'");
                   break;
                 case ValueKind::quantity:
                   {
@@ -330,7 +329,8 @@ namespace fickcast
                     const QuantityText q = split_quantity(text, true);
                     if (!q.is_expression())
                       {
-                        value.field.value = to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim, &settings.units);
+                        value.field.value =
+                          to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim, &settings.units);
                         check_bounds(spec, value.field.value, entry, value.si_unit);
                         break;
                       }
@@ -345,14 +345,16 @@ namespace fickcast
                       }
                     value.field.expression = q.expression;
                     value.field.offset = to_si_or_throw(entry, 0, q.unit, value.si_unit, dim, &settings.units);
-                    value.field.scale = to_si_or_throw(entry, 1, q.unit, value.si_unit, dim, &settings.units) - value.field.offset;
+                    value.field.scale =
+                      to_si_or_throw(entry, 1, q.unit, value.si_unit, dim, &settings.units) - value.field.offset;
                     break;
                   }
                 case ValueKind::quantity_list:
                   for (const auto &item : split_list(text))
                     {
                       const QuantityText q = split_quantity(item, false);
-                      value.list.push_back(to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim, &settings.units));
+                      value.list.push_back(
+                        to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim, &settings.units));
                       check_bounds(spec, value.list.back(), entry, value.si_unit);
                     }
                   break;
@@ -363,8 +365,8 @@ namespace fickcast
                       throw InputError(entry.origin(), entry.full_key(),
                                        "expected " + std::to_string(dimension) + " coordinate" +
                                          (dimension > 1 ? "s" : "") + " (one per axis of this " +
-                                         std::to_string(dimension) + "-D case), found " +
-                                         std::to_string(items.size()) + " in '" + text + "'");
+                                         std::to_string(dimension) + "-D case), found " + std::to_string(items.size()) +
+                                         " in '" + text + "'");
                     std::size_t with_unit = 0;
                     for (const auto &item : items)
                       {
@@ -374,8 +376,8 @@ namespace fickcast
                       }
                     if (with_unit != 0 && with_unit != items.size())
                       throw InputError(entry.origin(), entry.full_key(),
-                                       "expected a unit on every coordinate (a bare number is metres), found '" +
-                                         text + "'");
+                                       "expected a unit on every coordinate (a bare number is metres), found '" + text +
+                                         "'");
                     break;
                   }
                 case ValueKind::layers:
@@ -439,7 +441,8 @@ namespace fickcast
             if (group.size() < 2 || group.size() > 3 || !is_number(group[1]))
               throw InputError(entry.origin(), entry.full_key(),
                                "expected 'name thickness unit' for each layer (for example 'clay 0.9 m, sand 0.3 m'), "
-                               "found '" + joined + "'");
+                               "found '" +
+                                 joined + "'");
             static const std::regex name(R"(^[A-Za-z_][A-Za-z0-9_\-]*$)");
             if (!std::regex_match(group[0], name))
               throw InputError(entry.origin(), entry.full_key(),
@@ -509,10 +512,10 @@ namespace fickcast
             if (match.empty())
               throw InputError(entry.origin(), entry.full_key(),
                                "expected " + describe_dim(dim) +
-                                 " (mass, amount or number per volume, or a fraction), found '" + entry.value +
-                                 "' (" + units.describe(q.unit) + ")");
-            basis = static_cast<std::size_t>(std::find(candidates->begin(), candidates->end(), match) -
-                                              candidates->begin());
+                                 " (mass, amount or number per volume, or a fraction), found '" + entry.value + "' (" +
+                                 units.describe(q.unit) + ")");
+            basis =
+              static_cast<std::size_t>(std::find(candidates->begin(), candidates->end(), match) - candidates->begin());
             first_written = q.unit;
             first_key = entry.full_key() + " at " + entry.origin();
             break;

@@ -9,11 +9,26 @@ namespace fickcast
 {
   namespace
   {
-    double erf_function(double x) { return std::erf(x); }
-    double erfc_function(double x) { return std::erfc(x); }
-    double pow_function(double x, double y) { return std::pow(x, y); }
-    double floor_function(double x) { return std::floor(x); }
-    double ceil_function(double x) { return std::ceil(x); }
+    double erf_function(double x)
+    {
+      return std::erf(x);
+    }
+    double erfc_function(double x)
+    {
+      return std::erfc(x);
+    }
+    double pow_function(double x, double y)
+    {
+      return std::pow(x, y);
+    }
+    double floor_function(double x)
+    {
+      return std::floor(x);
+    }
+    double ceil_function(double x)
+    {
+      return std::ceil(x);
+    }
   } // namespace
 
   Expression::Expression(const std::string &text, const std::vector<std::string> &variables)

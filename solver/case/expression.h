@@ -27,8 +27,8 @@ namespace fickcast
    * because fickcast's expressions take variables beyond x, y, z, t (temperature T and
    * concentration c). Besides muparser's functions (sin, exp, sqrt, min, max, `a ? b : c`, ...)
    * it knows erf, erfc, pow, floor, ceil, the constants pi and e, and unit constants in SI:
-   * s, h, d, yr (Julian), m, cm, mm, um, nm (not min: that is the minimum function), so `{1500*exp(-t/(2*h))}` reads naturally.
-   * Not thread-safe: evaluate one object from one thread (copies are independent).
+   * s, h, d, yr (Julian), m, cm, mm, um, nm (not min: that is the minimum function), so `{1500*exp(-t/(2*h))}` reads
+   * naturally. Not thread-safe: evaluate one object from one thread (copies are independent).
    */
   class Expression
   {

@@ -94,15 +94,14 @@ namespace fickcast
   {
     constexpr std::size_t max_size = 4 * 1024 * 1024;
     if (text.size() > max_size)
-      throw InputError(name, "", "expected a case file of at most 4 MiB, found " +
-                                   std::to_string(text.size()) + " bytes");
+      throw InputError(name, "",
+                       "expected a case file of at most 4 MiB, found " + std::to_string(text.size()) + " bytes");
     const std::size_t bad_byte = first_non_text_byte(text);
     if (bad_byte != std::string::npos)
       {
         const auto line = 1 + std::count(text.begin(), text.begin() + bad_byte, '\n');
         throw InputError(name + ":" + std::to_string(line), "",
-                         "expected a UTF-8 text case file, found binary content at byte " +
-                           std::to_string(bad_byte));
+                         "expected a UTF-8 text case file, found binary content at byte " + std::to_string(bad_byte));
       }
 
     IniDocument document;
@@ -127,15 +126,16 @@ namespace fickcast
         if (line.front() == '[')
           {
             if (line.back() != ']')
-              throw InputError(where, "", "unterminated section header: expected '[name]', found '" +
-                                            line + "'");
+              throw InputError(where, "", "unterminated section header: expected '[name]', found '" + line + "'");
             section = trim(line.substr(1, line.size() - 2));
             if (!valid_name(section))
-              throw InputError(where, "", "expected a section name of letters, digits, '_', '-' "
-                                          "and '.', found '[" + section + "]'");
+              throw InputError(where, "",
+                               "expected a section name of letters, digits, '_', '-' "
+                               "and '.', found '[" +
+                                 section + "]'");
             if (const unsigned int first = document.section_line(section); first != 0)
-              throw InputError(where, "", "duplicate section [" + section + "], first given at line " +
-                                            std::to_string(first));
+              throw InputError(where, "",
+                               "duplicate section [" + section + "], first given at line " + std::to_string(first));
             document.sections_.push_back(section);
             document.section_lines_.push_back(line_number);
             continue;
@@ -148,20 +148,18 @@ namespace fickcast
         if (section.empty())
           throw InputError(where, key, "key given before any [section] header");
         if (!valid_name(key))
-          throw InputError(where, key, "expected a key of letters, digits, '_', '-' and '.', found '" +
-                                         key + "'");
+          throw InputError(where, key, "expected a key of letters, digits, '_', '-' and '.', found '" + key + "'");
         const std::string full = section + "." + key;
         if (const auto previous = key_lines.find(full); previous != key_lines.end())
-          throw InputError(where, full, "key given twice, first at line " +
-                                          std::to_string(previous->second));
+          throw InputError(where, full, "key given twice, first at line " + std::to_string(previous->second));
         key_lines[full] = line_number;
         document.entries_.push_back(IniEntry{section, key, value, name, line_number});
       }
     if (document.entries_.empty())
-      throw InputError(name, "", document.sections_.empty()
-                                   ? "the case file is empty: expected sections such as [geometry] "
-                                     "and [time] with 'key = value' lines"
-                                   : "the case file has section headers but no 'key = value' lines");
+      throw InputError(name, "",
+                       document.sections_.empty() ? "the case file is empty: expected sections such as [geometry] "
+                                                    "and [time] with 'key = value' lines"
+                                                  : "the case file has section headers but no 'key = value' lines");
 
     // Second reading: Boost.Program_options, the parser of record for names and values.
     namespace po = boost::program_options;
@@ -177,9 +175,9 @@ namespace fickcast
         throw InputError(name, "", std::string("not a valid INI-style case file: ") + error.what());
       }
     if (parsed.options.size() != document.entries_.size())
-      throw InputError(name, "", "the file reads differently line by line (" +
-                                   std::to_string(document.entries_.size()) + " keys) than as a whole (" +
-                                   std::to_string(parsed.options.size()) + " keys)");
+      throw InputError(name, "",
+                       "the file reads differently line by line (" + std::to_string(document.entries_.size()) +
+                         " keys) than as a whole (" + std::to_string(parsed.options.size()) + " keys)");
     for (std::size_t i = 0; i < parsed.options.size(); ++i)
       {
         auto &entry = document.entries_[i];
@@ -187,8 +185,8 @@ namespace fickcast
         const std::string boost_value = option.value.empty() ? std::string() : option.value.front();
         if (option.string_key != entry.full_key() || boost_value != entry.value)
           throw InputError(entry.origin(), entry.full_key(),
-                           "the line reads differently line by line than as a whole: found '" +
-                             option.string_key + " = " + boost_value + "'");
+                           "the line reads differently line by line than as a whole: found '" + option.string_key +
+                             " = " + boost_value + "'");
       }
     return document;
   }

@@ -9,10 +9,10 @@ namespace fickcast
   /// One `key = value` line of a case file (or one `--set` override).
   struct IniEntry
   {
-    std::string section;  ///< `time`, `region.clay`, ...
-    std::string key;      ///< key within the section, e.g. `diffusivity` or `probe.base`
-    std::string value;    ///< the value as written, trimmed, without comment
-    std::string file;     ///< file the entry came from, or `--set`
+    std::string section;   ///< `time`, `region.clay`, ...
+    std::string key;       ///< key within the section, e.g. `diffusivity` or `probe.base`
+    std::string value;     ///< the value as written, trimmed, without comment
+    std::string file;      ///< file the entry came from, or `--set`
     unsigned int line = 0; ///< 1-based line number; 0 for `--set`
 
     /// `section.key`, the name used everywhere else.

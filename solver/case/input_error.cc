@@ -20,5 +20,6 @@ namespace fickcast
     , where_(where)
     , key_(key)
     , message_(message)
-  {}
+  {
+  }
 } // namespace fickcast

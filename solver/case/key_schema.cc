@@ -64,17 +64,15 @@ namespace fickcast
       std::vector<KeySpec> s;
       // [case]
       s.push_back(make("case", "title", K::text, Dim::none, "untitled case", "a title for reports"));
-      s.push_back(bounded(make("case", "dimension", K::integer, Dim::none, "1",
-                               "1, 2 or 3 space dimensions"), 1, false, 3, false));
+      s.push_back(bounded(make("case", "dimension", K::integer, Dim::none, "1", "1, 2 or 3 space dimensions"), 1, false,
+                          3, false));
       // [geometry]
       s.push_back(required(make("geometry", "layers", K::layers, Dim::length, "",
                                 "layers from the top face inward: 'name thickness unit, ...'")));
-      s.push_back(with_auto(positive(make("geometry", "cell_size", K::quantity, Dim::length, "",
-                                          "target cell size; auto: total thickness / 100"))));
-      s.push_back(positive(make("geometry", "width", K::quantity, Dim::length, "",
-                                "extent along x (2-D and 3-D)")));
-      s.push_back(positive(make("geometry", "length", K::quantity, Dim::length, "",
-                                "extent along y (3-D)")));
+      s.push_back(with_auto(positive(
+        make("geometry", "cell_size", K::quantity, Dim::length, "", "target cell size; auto: total thickness / 100"))));
+      s.push_back(positive(make("geometry", "width", K::quantity, Dim::length, "", "extent along x (2-D and 3-D)")));
+      s.push_back(positive(make("geometry", "length", K::quantity, Dim::length, "", "extent along y (3-D)")));
       s.push_back(choices(make("geometry", "grade_toward", K::choice, Dim::none, "none",
                                "face toward which cells get smaller: none, top or bottom"),
                           {"none", "top", "bottom"}));
@@ -85,16 +83,20 @@ namespace fickcast
       s.push_back(required(variables(positive(make("region", "diffusivity", K::field, Dim::diffusivity, "",
                                                    "free diffusivity D (constant or {expression of x, y, z, t})")),
                                      {"x", "y", "z", "t"})));
-      s.push_back(bounded(make("region", "porosity", K::quantity, Dim::dimensionless, "1",
-                               "porosity theta in (0, 1]; 1 for a solid"), 0, true, 1, false));
+      s.push_back(bounded(
+        make("region", "porosity", K::quantity, Dim::dimensionless, "1", "porosity theta in (0, 1]; 1 for a solid"), 0,
+        true, 1, false));
       s.push_back(bounded(make("region", "tortuosity", K::quantity, Dim::dimensionless, "1",
-                               "tortuosity factor tau in (0, 1]: D_eff = tau D"), 0, true, 1, false));
+                               "tortuosity factor tau in (0, 1]: D_eff = tau D"),
+                          0, true, 1, false));
       s.push_back(bounded(make("region", "retardation", K::quantity, Dim::dimensionless, "1",
-                               "retardation factor R >= 1 (linear sorption)"), 1, false));
+                               "retardation factor R >= 1 (linear sorption)"),
+                          1, false));
       s.push_back(positive(make("region", "partition", K::quantity, Dim::dimensionless, "1",
                                 "partition coefficient K: phase concentration = K x reference phase")));
       s.push_back(bounded(make("region", "decay_rate", K::quantity, Dim::rate, "0",
-                               "first-order decay rate lambda (dissolved and sorbed)"), 0, false));
+                               "first-order decay rate lambda (dissolved and sorbed)"),
+                          0, false));
       s.push_back(positive(make("region", "half_life", K::quantity, Dim::time, "",
                                 "first-order half-life; sets decay_rate = ln 2 / half_life")));
       s.push_back(variables(make("region", "source", K::field, Dim::source, "0",
@@ -106,9 +108,9 @@ namespace fickcast
       s.push_back(positive(make("region", "cell_size", K::quantity, Dim::length, "",
                                 "cell size in this layer (overrides geometry.cell_size)")));
       // [boundary.NAME]
-      s.push_back(required(choices(make("boundary", "type", K::choice, Dim::none, "",
-                                        "concentration, flux, transfer or sealed"),
-                                   {"concentration", "flux", "transfer", "sealed"})));
+      s.push_back(
+        required(choices(make("boundary", "type", K::choice, Dim::none, "", "concentration, flux, transfer or sealed"),
+                         {"concentration", "flux", "transfer", "sealed"})));
       s.push_back(variables(make("boundary", "value", K::field, Dim::boundary_value, "",
                                  "concentration inside the material at the face (type concentration) "
                                  "or inward flux (type flux); {expression of x, y, z, t} allowed"),
@@ -125,36 +127,38 @@ namespace fickcast
                             {"x", "y", "z"}));
       // [time]
       s.push_back(required(positive(make("time", "end", K::quantity, Dim::time, "", "end time of the run"))));
-      s.push_back(with_auto(positive(make("time", "step", K::quantity, Dim::time, "",
-                                          "fixed time step, or auto for error-controlled steps"))));
+      s.push_back(with_auto(positive(
+        make("time", "step", K::quantity, Dim::time, "", "fixed time step, or auto for error-controlled steps"))));
       s.push_back(bounded(make("time", "tolerance", K::quantity, Dim::dimensionless, "1e-4",
                                "local error tolerance per step, relative to the concentration scale"),
                           0, true, 0.1, false));
-      s.push_back(choices(make("time", "scheme", K::choice, Dim::none, "bdf2",
-                               "implicit_euler, crank_nicolson or bdf2"),
-                          {"implicit_euler", "crank_nicolson", "bdf2"}));
+      s.push_back(
+        choices(make("time", "scheme", K::choice, Dim::none, "bdf2", "implicit_euler, crank_nicolson or bdf2"),
+                {"implicit_euler", "crank_nicolson", "bdf2"}));
       s.push_back(bounded(make("time", "start_steps", K::integer, Dim::none, "4",
                                "implicit-Euler steps after each discontinuity (Crank-Nicolson)"),
                           0, false, 50, false));
-      s.push_back(with_auto(positive(make("time", "initial_step", K::quantity, Dim::time, "",
-                                          "first step of an adaptive run"))));
-      s.push_back(with_auto(positive(make("time", "max_step", K::quantity, Dim::time, "",
-                                          "largest step of an adaptive run; auto: end / 20"))));
+      s.push_back(
+        with_auto(positive(make("time", "initial_step", K::quantity, Dim::time, "", "first step of an adaptive run"))));
+      s.push_back(with_auto(positive(
+        make("time", "max_step", K::quantity, Dim::time, "", "largest step of an adaptive run; auto: end / 20"))));
       // [numerics]
-      s.push_back(bounded(make("numerics", "degree", K::integer, Dim::none, "2",
-                               "polynomial degree of the Lagrange elements: 1 or 2"), 1, false, 2, false));
+      s.push_back(bounded(
+        make("numerics", "degree", K::integer, Dim::none, "2", "polynomial degree of the Lagrange elements: 1 or 2"), 1,
+        false, 2, false));
       s.push_back(choices(make("numerics", "linear_solver", K::choice, Dim::none, "auto",
                                "auto, direct (sparse LU) or iterative (CG with algebraic multigrid)"),
                           {"auto", "direct", "iterative"}));
       s.push_back(bounded(make("numerics", "solver_tolerance", K::quantity, Dim::dimensionless, "1e-12",
-                               "relative residual reduction of the iterative solver"), 0, true, 1e-3, false));
+                               "relative residual reduction of the iterative solver"),
+                          0, true, 1e-3, false));
       // [output]
       s.push_back(make("output", "folder", K::text, Dim::none, "",
                        "results folder (relative to the working directory); default results/CASE"));
-      s.push_back(positive(make("output", "fields_every", K::quantity, Dim::time, "",
-                                "interval between field outputs (VTU)")));
-      s.push_back(positive(make("output", "times", K::quantity_list, Dim::time, "",
-                                "extra output times, comma separated")));
+      s.push_back(
+        positive(make("output", "fields_every", K::quantity, Dim::time, "", "interval between field outputs (VTU)")));
+      s.push_back(
+        positive(make("output", "times", K::quantity_list, Dim::time, "", "extra output times, comma separated")));
       s.push_back(make("output", "fields", K::flag, Dim::none, "true", "write VTU fields"));
       s.push_back(make("output", "probe.*", K::point, Dim::length, "",
                        "a named point: one coordinate per axis, each with its unit"));

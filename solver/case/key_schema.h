@@ -45,14 +45,14 @@ namespace fickcast
     std::string key;     ///< key, or a prefix ending in `.*` (for example `probe.*`)
     ValueKind kind = ValueKind::text;
     Dim dim = Dim::none;
-    std::string fallback;  ///< default as it would be written; empty: none
+    std::string fallback; ///< default as it would be written; empty: none
     bool required = false;
     bool allow_auto = false; ///< the word `auto` is accepted (and is then the default)
     std::vector<std::string> choices;
     double lower = -std::numeric_limits<double>::infinity();
     bool lower_open = false; ///< lower bound excluded
     double upper = std::numeric_limits<double>::infinity();
-    bool upper_open = false; ///< upper bound excluded
+    bool upper_open = false;            ///< upper bound excluded
     std::vector<std::string> variables; ///< expression variables (field kind)
     std::string help;
 

@@ -119,8 +119,8 @@ namespace fickcast
       {
         current[0] = i;
         for (std::size_t j = 1; j <= b.size(); ++j)
-          current[j] = std::min({previous[j] + 1, current[j - 1] + 1,
-                                 previous[j - 1] + (a[i - 1] == b[j - 1] ? 0 : 1)});
+          current[j] =
+            std::min({previous[j] + 1, current[j - 1] + 1, previous[j - 1] + (a[i - 1] == b[j - 1] ? 0 : 1)});
         std::swap(previous, current);
       }
     return previous[b.size()];

@@ -35,10 +35,7 @@ namespace fickcast
     ut_system *system = nullptr;
     mutable std::mutex mutex; // UDUNITS-2 keeps a global status: serialise calls.
 
-    UnitHandle parse(const std::string &text) const
-    {
-      return UnitHandle(ut_parse(system, text.c_str(), UT_UTF8));
-    }
+    UnitHandle parse(const std::string &text) const { return UnitHandle(ut_parse(system, text.c_str(), UT_UTF8)); }
   };
 
   const UnitSystem &UnitSystem::instance()
@@ -95,8 +92,8 @@ namespace fickcast
           return cv_convert_double(converter.get(), number);
         }
     }
-    std::string message = "expected units convertible to " + si_unit + ", found '" + unit_text + "' (" +
-                          describe(unit_text) + ")";
+    std::string message =
+      "expected units convertible to " + si_unit + ", found '" + unit_text + "' (" + describe(unit_text) + ")";
     static const std::regex are_token(R"((^|[^A-Za-z_])a(?![A-Za-z_]))");
     static const std::regex coulomb_token(R"((^|[^A-Za-z_])C(?![A-Za-z_]))");
     if (si_unit == "s" && std::regex_search(unit_text, are_token))
@@ -114,7 +111,8 @@ namespace fickcast
     return unit && target && ut_are_convertible(unit.get(), target.get());
   }
 
-  std::string UnitSystem::first_convertible(const std::string &unit_text, const std::vector<std::string> &si_units) const
+  std::string UnitSystem::first_convertible(const std::string &unit_text,
+                                            const std::vector<std::string> &si_units) const
   {
     for (const auto &si_unit : si_units)
       if (convertible(unit_text, si_unit))

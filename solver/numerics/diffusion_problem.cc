@@ -40,7 +40,8 @@ namespace fickcast
     , communicator_(communicator)
     , fe_(description.numerics.degree)
     , mapping_(1)
-  {}
+  {
+  }
 
   template <int dim>
   DiffusionProblem<dim>::~DiffusionProblem()
@@ -211,8 +212,8 @@ namespace fickcast
     const double d = diffusivity_[region](x, y, z, t);
     if ((!(d > 0) || !std::isfinite(d)) && bad_coefficient_.empty())
       bad_coefficient_ = "region." + spec.name + ".diffusivity: expected a diffusivity > 0 everywhere, found " +
-                         std::to_string(d) + " m2/s at " + describe_point(x, y, z, dim) +
-                         ", t = " + std::to_string(t) + " s";
+                         std::to_string(d) + " m2/s at " + describe_point(x, y, z, dim) + ", t = " + std::to_string(t) +
+                         " s";
     return spec.tortuosity * d;
   }
 
@@ -309,9 +310,8 @@ namespace fickcast
             if (boundary_kinds_[b] != BoundaryKind::flux && boundary_kinds_[b] != BoundaryKind::transfer)
               continue;
             fe_face_values.reinit(cell, f);
-            const double factor = boundary_kinds_[b] == BoundaryKind::transfer
-                                    ? boundary_specs_[b]->coefficient * spec.partition
-                                    : 1.0;
+            const double factor =
+              boundary_kinds_[b] == BoundaryKind::transfer ? boundary_specs_[b]->coefficient * spec.partition : 1.0;
             local_load = 0;
             for (unsigned int q = 0; q < face_quadrature.size(); ++q)
               {
@@ -378,9 +378,8 @@ namespace fickcast
                 const auto grad_i = fe_values.shape_grad(i, q);
                 const double phi_i = fe_values.shape_value(i, q);
                 for (unsigned int j = 0; j < n; ++j)
-                  local(i, j) += (g * (grad_i * fe_values.shape_grad(j, q)) +
-                                  reaction * phi_i * fe_values.shape_value(j, q)) *
-                                 w;
+                  local(i, j) +=
+                    (g * (grad_i * fe_values.shape_grad(j, q)) + reaction * phi_i * fe_values.shape_value(j, q)) * w;
               }
           }
         for (const unsigned int f : cell->face_indices())
@@ -438,8 +437,7 @@ namespace fickcast
   template <int dim>
   double DiffusionProblem<dim>::boundary_forcing(const unsigned int b, const double t, Vector *f) const
   {
-    const ScalarFunction &given =
-      boundary_kinds_[b] == BoundaryKind::flux ? boundary_value_[b] : boundary_ambient_[b];
+    const ScalarFunction &given = boundary_kinds_[b] == BoundaryKind::flux ? boundary_value_[b] : boundary_ambient_[b];
     if (!given.depends_on_space())
       {
         const double value = given.at_time(t);

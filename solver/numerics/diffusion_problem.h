@@ -170,13 +170,13 @@ namespace fickcast
     dealii::TrilinosWrappers::SparseMatrix mass_, mass_constrained_, system_;
     Operator current_, trial_;
     unsigned long operator_versions_ = 0;
-    std::vector<Vector> region_mass_;   ///< M_r 1 per region
-    std::vector<Vector> region_load_;   ///< int phi w per region (constant sources)
-    Vector decay_weights_;              ///< R 1
+    std::vector<Vector> region_mass_;         ///< M_r 1 per region
+    std::vector<Vector> region_load_;         ///< int phi w per region (constant sources)
+    Vector decay_weights_;                    ///< R 1
     std::vector<double> boundary_load_total_; ///< sum of boundary_load_ entries
     std::vector<double> region_load_total_;   ///< sum of region_load_ entries (region measure)
-    std::vector<Vector> transfer_rowsum_; ///< B_b 1 per boundary
-    std::vector<Vector> boundary_load_; ///< int phi w over boundary b (times h K for transfer)
+    std::vector<Vector> transfer_rowsum_;     ///< B_b 1 per boundary
+    std::vector<Vector> boundary_load_;       ///< int phi w over boundary b (times h K for transfer)
     std::vector<std::pair<dealii::types::global_dof_index, unsigned int>> fixed_dofs_; ///< owned
     std::vector<dealii::Point<dim>> fixed_points_; ///< support point of each entry of fixed_dofs_
     double system_a_ = -1, system_b_ = -1;

@@ -11,7 +11,8 @@ namespace fickcast
     , tolerance_(tolerance)
     , higher_order_(higher_order_elements)
     , direct_control_(1, 0)
-  {}
+  {
+  }
 
   void LinearSolver::set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix)
   {

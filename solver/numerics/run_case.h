@@ -13,8 +13,8 @@ namespace fickcast
 {
   struct RunOptions
   {
-    std::string folder;      ///< results folder; empty: the case's output.folder
-    bool overwrite = false;  ///< replace an existing results folder
+    std::string folder;     ///< results folder; empty: the case's output.folder
+    bool overwrite = false; ///< replace an existing results folder
     ProgressCallback progress;
   };
 

@@ -36,7 +36,7 @@ namespace fickcast
     unsigned int degree = 1;
     unsigned int ranks = 1;
     std::string linear_solver;
-    double end_time = 0;      ///< s, time reached
+    double end_time = 0; ///< s, time reached
     unsigned int steps_accepted = 0;
     unsigned int steps_rejected = 0;
     unsigned long linear_iterations = 0;

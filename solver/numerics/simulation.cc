@@ -101,8 +101,8 @@ namespace fickcast
     const double total_thickness = c.geometry.total_thickness();
     std::vector<Point<dim>> line_points;
     {
-      const std::size_t n_line = std::max<std::size_t>(400, 20 * static_cast<std::size_t>(
-                                                                   std::ceil(total_thickness / c.geometry.cell_size)));
+      const std::size_t n_line =
+        std::max<std::size_t>(400, 20 * static_cast<std::size_t>(std::ceil(total_thickness / c.geometry.cell_size)));
       for (std::size_t k = 0; k <= n_line; ++k)
         {
           Point<dim> p;
@@ -257,8 +257,8 @@ namespace fickcast
             const double hard = schedule[next_output];
             double dt = controller.step_from(t, hard, previous_dt);
             if (dt < controller.min_step())
-              throw RunFailure("the time step fell below " + std::to_string(controller.min_step()) + " s at t = " +
-                               std::to_string(t) + " s");
+              throw RunFailure("the time step fell below " + std::to_string(controller.min_step()) +
+                               " s at t = " + std::to_string(t) + " s");
             const bool landing = std::abs(t + dt - hard) <= 1e-12 * c.time.end + 1e-300 || dt >= hard - t;
             const double t1 = landing ? hard : t + dt;
             dt = t1 - t;
@@ -328,8 +328,8 @@ namespace fickcast
                       }
                     predicted -= u_new;
                     problem.zero_fixed(predicted);
-                    const double error = factor * predicted.linfty_norm() /
-                                         (c.time.tolerance * std::max(scale, u_new.linfty_norm()));
+                    const double error =
+                      factor * predicted.linfty_norm() / (c.time.tolerance * std::max(scale, u_new.linfty_norm()));
                     accepted = controller.judge(dt, error, order, shortened);
                   }
               }
@@ -370,10 +370,12 @@ namespace fickcast
                     boundary_rates[b] = rates_new.boundary_inflow[b];
                   }
               }
-            amounts[n_boundaries] = plan.bdf2 ? dt * rates_new.source
-                                              : dt * (plan.theta * rates_new.source + (1 - plan.theta) * rates_old.source);
-            amounts[n_boundaries + 1] = plan.bdf2 ? dt * rates_new.decay
-                                                  : dt * (plan.theta * rates_new.decay + (1 - plan.theta) * rates_old.decay);
+            amounts[n_boundaries] = plan.bdf2
+                                      ? dt * rates_new.source
+                                      : dt * (plan.theta * rates_new.source + (1 - plan.theta) * rates_old.source);
+            amounts[n_boundaries + 1] = plan.bdf2
+                                          ? dt * rates_new.decay
+                                          : dt * (plan.theta * rates_new.decay + (1 - plan.theta) * rates_old.decay);
             if (plan.bdf2)
               for (std::size_t k = 0; k < amounts.size(); ++k)
                 amounts[k] = (amounts[k] + plan.alpha2 * amounts_prev[k]) / plan.alpha0;
@@ -455,15 +457,14 @@ namespace fickcast
     for (std::size_t k = 0; k < record.probes.size(); ++k)
       record.probes[k].final_value = probe_values[k];
     record.matrix_setups = problem.n_matrix_setups();
-    record.wall_time =
-      std::chrono::duration<double>(std::chrono::steady_clock::now() - wall_start).count();
+    record.wall_time = std::chrono::duration<double>(std::chrono::steady_clock::now() - wall_start).count();
     return record;
   }
 
   template RunRecord simulate<1>(const CaseDescription &, MPI_Comm, const std::string &, const ProgressCallback &,
-                                   const StateObserver<1> &);
+                                 const StateObserver<1> &);
   template RunRecord simulate<2>(const CaseDescription &, MPI_Comm, const std::string &, const ProgressCallback &,
-                                   const StateObserver<2> &);
+                                 const StateObserver<2> &);
   template RunRecord simulate<3>(const CaseDescription &, MPI_Comm, const std::string &, const ProgressCallback &,
-                                   const StateObserver<3> &);
+                                 const StateObserver<3> &);
 } // namespace fickcast

@@ -21,7 +21,8 @@ namespace fickcast
       PhaseFields(const DiffusionProblem<dim> &problem, const double time)
         : problem_(problem)
         , time_(time)
-      {}
+      {
+      }
 
       void evaluate_scalar_field(const DataPostprocessorInputs::Scalar<dim> &inputs,
                                  std::vector<dealii::Vector<double>> &computed) const override
@@ -74,7 +75,8 @@ namespace fickcast
   FieldWriter<dim>::FieldWriter(const DiffusionProblem<dim> &problem, const std::string &folder)
     : problem_(problem)
     , folder_(folder)
-  {}
+  {
+  }
 
   template <int dim>
   void FieldWriter<dim>::write(const Vector &u, const double t)

@@ -9,31 +9,39 @@ namespace fickcast
   Json::Json(const double number)
     : type_(Type::number)
     , number_(number)
-  {}
+  {
+  }
   Json::Json(const int number)
     : Json(static_cast<double>(number))
-  {}
+  {
+  }
   Json::Json(const unsigned int number)
     : Json(static_cast<double>(number))
-  {}
+  {
+  }
   Json::Json(const long number)
     : Json(static_cast<double>(number))
-  {}
+  {
+  }
   Json::Json(const unsigned long number)
     : Json(static_cast<double>(number))
-  {}
+  {
+  }
   Json::Json(const bool value)
     : type_(Type::boolean)
     , boolean_(value)
-  {}
+  {
+  }
   Json::Json(const char *text)
     : type_(Type::string)
     , string_(text)
-  {}
+  {
+  }
   Json::Json(const std::string &text)
     : type_(Type::string)
     , string_(text)
-  {}
+  {
+  }
 
   Json Json::array()
   {

@@ -35,7 +35,7 @@ namespace fickcast
   private:
     MPI_Comm communicator_;
     std::size_t n_points_ = 0;
-    std::vector<unsigned int> mine_;  ///< indices of points owned here
+    std::vector<unsigned int> mine_; ///< indices of points owned here
     std::vector<std::vector<dealii::types::global_dof_index>> dofs_;
     std::vector<std::vector<double>> weights_; ///< K times shape values at the point
     std::vector<unsigned int> regions_;

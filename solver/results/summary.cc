@@ -9,7 +9,7 @@
 #include <unistd.h>
 
 #ifndef FICKCAST_VERSION
-#  define FICKCAST_VERSION "unknown"
+#define FICKCAST_VERSION "unknown"
 #endif
 
 namespace fickcast

@@ -8,7 +8,7 @@
 #include <filesystem>
 
 #ifndef FICKCAST_TEST_SCRATCH
-#  define FICKCAST_TEST_SCRATCH "/tmp/fickcast-tests"
+#define FICKCAST_TEST_SCRATCH "/tmp/fickcast-tests"
 #endif
 
 namespace fickcast::testing

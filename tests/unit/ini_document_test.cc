@@ -39,8 +39,7 @@ namespace fickcast
   {
     EXPECT_NE(error_of("[time\nend = 1 h\n").find("bad.ini:1"), std::string::npos);
     EXPECT_NE(error_of("[time\nend = 1 h\n").find("unterminated"), std::string::npos);
-    EXPECT_NE(error_of("[time]\nend = 1 h\n[time]\nstep = 1 s\n").find("duplicate section [time]"),
-              std::string::npos);
+    EXPECT_NE(error_of("[time]\nend = 1 h\n[time]\nstep = 1 s\n").find("duplicate section [time]"), std::string::npos);
     EXPECT_NE(error_of("[time]\nend = 1 h\nend = 2 h\n").find("bad.ini:3: time.end: key given twice"),
               std::string::npos);
     EXPECT_NE(error_of("end = 1 h\n").find("before any [section]"), std::string::npos);

@@ -59,15 +59,15 @@ namespace fickcast::testing
       const std::string initial = "{exp(-(" + r2 + ")/(4*0.25))/(4*pi*0.25)^(" + std::to_string(d) + "/2)}";
       const double t1 = d == 3 ? 0.25 : 0.75, t2 = d == 3 ? 0.75 : 1.75;
       std::string text = "[case]\ntitle = gaussian\ndimension = " + std::to_string(d) +
-                         "\n[geometry]\nlayers = medium " + std::to_string(side) + " m\ncell_size = " +
-                         std::to_string(cell) + " m\n";
+                         "\n[geometry]\nlayers = medium " + std::to_string(side) +
+                         " m\ncell_size = " + std::to_string(cell) + " m\n";
       if (d >= 2)
         text += "width = " + std::to_string(side) + " m\n";
       if (d == 3)
         text += "length = " + std::to_string(side) + " m\n";
       text += "[region.medium]\ndiffusivity = 1 m2/s\n[initial]\nvalue = " + initial +
-              " mol/m3\n[time]\nend = " + std::to_string(t2) + " s\ntolerance = 1e-5\n[output]\ntimes = " +
-              std::to_string(t1) + " s\n";
+              " mol/m3\n[time]\nend = " + std::to_string(t2) +
+              " s\ntolerance = 1e-5\n[output]\ntimes = " + std::to_string(t1) + " s\n";
       const CaseDescription description = describe(text, "gaussian_" + std::to_string(d) + "d");
       const RunRecord record = run(description);
       ASSERT_EQ(record.status, "completed");

@@ -29,11 +29,10 @@ namespace fickcast::testing
     // u = exp(-t/2) [2 + x y^2 + sin(pi x) cos(1.5 pi y)], D = 1 + 0.5 sin(2 pi x) cos(pi y).
     const std::string exact_u = "exp(-t/2)*(2 + x*y^2 + sin(pi*x)*cos(1.5*pi*y))";
     const std::string diffusivity = "1 + 0.5*sin(2*pi*x)*cos(pi*y)";
-    const std::string source =
-      "exp(-t/2)*(-(2 + x*y^2 + sin(pi*x)*cos(1.5*pi*y))/2"
-      " - (pi*cos(2*pi*x)*cos(pi*y)*(y^2 + pi*cos(pi*x)*cos(1.5*pi*y))"
-      " - 0.5*pi*sin(2*pi*x)*sin(pi*y)*(2*x*y - 1.5*pi*sin(pi*x)*sin(1.5*pi*y))"
-      " + (1 + 0.5*sin(2*pi*x)*cos(pi*y))*(2*x - 3.25*pi^2*sin(pi*x)*cos(1.5*pi*y))))";
+    const std::string source = "exp(-t/2)*(-(2 + x*y^2 + sin(pi*x)*cos(1.5*pi*y))/2"
+                               " - (pi*cos(2*pi*x)*cos(pi*y)*(y^2 + pi*cos(pi*x)*cos(1.5*pi*y))"
+                               " - 0.5*pi*sin(2*pi*x)*sin(pi*y)*(2*x*y - 1.5*pi*sin(pi*x)*sin(1.5*pi*y))"
+                               " + (1 + 0.5*sin(2*pi*x)*cos(pi*y))*(2*x - 3.25*pi^2*sin(pi*x)*cos(1.5*pi*y))))";
 
     class ExactSolution : public dealii::Function<2>
     {
@@ -41,11 +40,9 @@ namespace fickcast::testing
       ExactSolution(const std::string &text, double time)
         : expression_(text, {"x", "y", "t"})
         , time_(time)
-      {}
-      double value(const Point<2> &p, unsigned int = 0) const override
       {
-        return expression_({p[0], p[1], time_});
       }
+      double value(const Point<2> &p, unsigned int = 0) const override { return expression_({p[0], p[1], time_}); }
 
     private:
       Expression expression_;
@@ -61,8 +58,8 @@ namespace fickcast::testing
       return text;
     }
 
-    std::string unit_square_case(const std::string &u, const std::string &d, const std::string &f,
-                                 const double cell, const unsigned int degree, const std::string &time_block)
+    std::string unit_square_case(const std::string &u, const std::string &d, const std::string &f, const double cell,
+                                 const unsigned int degree, const std::string &time_block)
     {
       return "[case]\ntitle = mms\ndimension = 2\n[geometry]\nlayers = square 1 m\nwidth = 1 m\ncell_size = " +
              std::to_string(cell) + " m\n[region.square]\ndiffusivity = {" + d + "} m2/s\nsource = {" + f +
@@ -89,8 +86,8 @@ namespace fickcast::testing
         dealii::VectorTools::integrate_difference(problem.mapping(), problem.dof_handler(), state, exact, cellwise,
                                                   dealii::QGauss<2>(problem.degree() + 3),
                                                   dealii::VectorTools::L2_norm);
-        error = dealii::VectorTools::compute_global_error(problem.triangulation(), cellwise,
-                                                          dealii::VectorTools::L2_norm);
+        error =
+          dealii::VectorTools::compute_global_error(problem.triangulation(), cellwise, dealii::VectorTools::L2_norm);
       };
       const RunRecord record = simulate<2>(description, MPI_COMM_WORLD, description.output.folder, {}, observer);
       EXPECT_EQ(record.status, "completed");
@@ -109,7 +106,8 @@ namespace fickcast::testing
   }
 
   class SpatialOrder : public ::testing::TestWithParam<unsigned int>
-  {};
+  {
+  };
 
   TEST_P(SpatialOrder, L2ErrorFallsAsHToThePPlusOne)
   {
@@ -127,8 +125,8 @@ namespace fickcast::testing
       {
         const double order = std::log2(errors[k - 1] / errors[k]);
         std::printf("Q%u: L2 error %.3e -> %.3e, observed order %.3f\n", p, errors[k - 1], errors[k], order);
-        EXPECT_GE(order, p + 1 - 0.1) << "Q" << p << " between levels " << k - 1 << " and " << k
-                                      << ": errors " << errors[k - 1] << ", " << errors[k];
+        EXPECT_GE(order, p + 1 - 0.1) << "Q" << p << " between levels " << k - 1 << " and " << k << ": errors "
+                                      << errors[k - 1] << ", " << errors[k];
       }
   }
 
@@ -141,7 +139,8 @@ namespace fickcast::testing
   };
 
   class TemporalOrder : public ::testing::TestWithParam<TimeCase>
-  {};
+  {
+  };
 
   // REFERENCES sec. 11, spatially exact MMS: u = exp(-t)(1 + x + 2y + xy) lies in the Q1 space,
   // D = 1 + x/2 + y/4, f = -exp(-t)(2 + 1.25x + 2.5y + xy); only the time error remains.
@@ -154,10 +153,9 @@ namespace fickcast::testing
     std::vector<double> errors;
     for (const int steps : {10, 20, 40, 80})
       {
-        const std::string block = "[time]\nend = 1 s\nstep = " + std::to_string(1.0 / steps) + " s\nscheme = " +
-                                  time_case.scheme + "\n";
-        errors.push_back(
-          l2_error_at_end(unit_square_case(u, d, f, 0.25, 1, block), "mms_time_" + time_case.scheme, u));
+        const std::string block =
+          "[time]\nend = 1 s\nstep = " + std::to_string(1.0 / steps) + " s\nscheme = " + time_case.scheme + "\n";
+        errors.push_back(l2_error_at_end(unit_square_case(u, d, f, 0.25, 1, block), "mms_time_" + time_case.scheme, u));
       }
     for (std::size_t k = 1; k < errors.size(); ++k)
       {
