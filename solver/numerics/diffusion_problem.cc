@@ -75,6 +75,7 @@ namespace fickcast
   template <int dim>
   void DiffusionProblem<dim>::setup()
   {
+    PhaseTimer::Scope scope(timer_, "setup");
     make_mesh();
 
     // Model coefficients by material id and boundary id.
@@ -183,8 +184,11 @@ namespace fickcast
     mass_.reinit(owned_, owned_, pattern, communicator_);
     mass_constrained_.reinit(owned_, owned_, pattern, communicator_);
     system_.reinit(owned_, owned_, pattern, communicator_);
+    // The trial operator (at the end of a step) exists only when the operator changes in time.
     for (Operator *op : {&current_, &trial_})
       {
+        if (op == &trial_ && !operator_depends_on_time_)
+          continue;
         op->full.reinit(owned_, owned_, pattern, communicator_);
         op->constrained.reinit(owned_, owned_, pattern, communicator_);
         op->time = -1;
@@ -245,6 +249,19 @@ namespace fickcast
   }
 
   template <int dim>
+  unsigned int DiffusionProblem<dim>::quadrature_points_per_axis() const
+  {
+    // Gauss with p + 1 points integrates the mass and stiffness integrands of cellwise-constant
+    // coefficients on affine cells exactly; expressions get one more.
+    bool varying = false;
+    for (const auto &d : diffusivity_)
+      varying = varying || !d.is_constant();
+    for (const auto &s : source_)
+      varying = varying || !s.is_constant();
+    return fe_.degree + (varying ? 2 : 1);
+  }
+
+  template <int dim>
   void DiffusionProblem<dim>::assemble_constant_parts()
   {
     const unsigned int n_regions = names_.regions.size();
@@ -257,7 +274,7 @@ namespace fickcast
     mass_ = 0;
     mass_constrained_ = 0;
 
-    const QGauss<dim> quadrature(fe_.degree + 2);
+    const QGauss<dim> quadrature(quadrature_points_per_axis());
     const QGauss<dim - 1> face_quadrature(fe_.degree + 2);
     FEValues<dim> fe_values(mapping_, fe_, quadrature, update_values | update_quadrature_points | update_JxW_values);
     FEFaceValues<dim> fe_face_values(mapping_, fe_, face_quadrature,
@@ -347,9 +364,10 @@ namespace fickcast
   template <int dim>
   void DiffusionProblem<dim>::assemble_operator(const double t, Operator &op)
   {
+    PhaseTimer::Scope scope(timer_, "assembly");
     op.full = 0;
     op.constrained = 0;
-    const QGauss<dim> quadrature(fe_.degree + 2);
+    const QGauss<dim> quadrature(quadrature_points_per_axis());
     const QGauss<dim - 1> face_quadrature(fe_.degree + 2);
     FEValues<dim> fe_values(mapping_, fe_, quadrature,
                             update_values | update_gradients | update_quadrature_points | update_JxW_values);
@@ -628,10 +646,17 @@ namespace fickcast
     StepResult result;
     if (a != system_a_ || b != system_b_ || new_op.version != system_version_)
       {
+        PhaseTimer::Scope scope(timer_, "matrix setup");
         system_.copy_from(mass_constrained_);
         system_ *= a;
         system_.add(b, new_op.constrained);
-        solver_->set_matrix(system_);
+        const double ratio = b / a;
+        const bool same_operator = new_op.version == system_version_;
+        const double change = same_operator && hierarchy_b_over_a_ > 0 ? ratio / hierarchy_b_over_a_ : 0.0;
+        const unsigned int setups_before = solver_->n_setups();
+        solver_->set_matrix(system_, change);
+        if (solver_->n_setups() != setups_before)
+          hierarchy_b_over_a_ = ratio;
         system_a_ = a;
         system_b_ = b;
         system_version_ = new_op.version;
@@ -657,14 +682,16 @@ namespace fickcast
       }
     reduced.compress(VectorOperation::insert);
 
-    u1 = u0;
     for (const auto &[dof, boundary] : fixed_dofs_)
       {
         (void)boundary;
         u1[dof] = 0;
       }
     u1.compress(VectorOperation::insert);
-    result.linear_iterations = solver_->solve(u1, reduced);
+    {
+      PhaseTimer::Scope scope(timer_, "linear solve");
+      result.linear_iterations = solver_->solve(u1, reduced);
+    }
     for (const auto &[dof, boundary] : fixed_dofs_)
       u1[dof] = lifted[dof];
     u1.compress(VectorOperation::insert);

@@ -5,6 +5,7 @@
 #include "geometry/layered_mesh.h"
 #include "model/scalar_function.h"
 #include "numerics/linear_solver.h"
+#include "numerics/phase_timer.h"
 
 #include <deal.II/base/index_set.h>
 #include <deal.II/dofs/dof_handler.h>
@@ -77,6 +78,8 @@ namespace fickcast
 
     /// Builds the mesh and the space, assembles the time-independent operators.
     void setup();
+    /// Wall time per phase so far (set-up, assembly, matrix set-up, solve).
+    PhaseTimer &timer() const { return timer_; }
 
     // --- the discretisation
     const dealii::DoFHandler<dim> &dof_handler() const { return dof_handler_; }
@@ -108,7 +111,8 @@ namespace fickcast
     /// u at t = 0: the initial phase concentration divided by each region's partition.
     void initial_state(Vector &u) const;
 
-    /// Takes one step; @p u_prev is the state before u0 (BDF2 only). Throws RunFailure.
+    /// Takes one step; @p u_prev is the state before u0 (BDF2 only). @p u1 holds an initial
+    /// guess on entry (iterative solver). Throws RunFailure.
     StepResult advance(const StepPlan &plan, const Vector &u0, const Vector *u_prev, Vector &u1);
 
     // --- observables (collective)
@@ -139,6 +143,7 @@ namespace fickcast
     void make_mesh();
     void setup_dofs();
     void assemble_constant_parts();
+    unsigned int quadrature_points_per_axis() const;
     void assemble_operator(double t, Operator &op);
     void forcing(double t, Vector &f) const;
     void sources(double t, Vector &f) const;
@@ -180,8 +185,10 @@ namespace fickcast
     std::vector<std::pair<dealii::types::global_dof_index, unsigned int>> fixed_dofs_; ///< owned
     std::vector<dealii::Point<dim>> fixed_points_; ///< support point of each entry of fixed_dofs_
     double system_a_ = -1, system_b_ = -1;
+    double hierarchy_b_over_a_ = -1; ///< b / a of the matrix the preconditioner was built for
     unsigned long system_version_ = 0;
     std::unique_ptr<LinearSolver> solver_;
     mutable std::string bad_coefficient_; ///< first non-physical coefficient met on this rank
+    mutable PhaseTimer timer_;
   };
 } // namespace fickcast

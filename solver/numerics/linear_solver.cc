@@ -14,9 +14,11 @@ namespace fickcast
   {
   }
 
-  void LinearSolver::set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix)
+  void LinearSolver::set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix, const double change)
   {
     matrix_ = &matrix;
+    if (!direct_ && multigrid_ && change > 0 && change < 3.0 && change > 1.0 / 3.0)
+      return; // keep the hierarchy of a nearby matrix
     ++n_setups_;
     if (direct_)
       {
@@ -31,7 +33,8 @@ namespace fickcast
     data.smoother_sweeps = 2;
     data.aggregation_threshold = 0.02;
     multigrid_ = std::make_unique<dealii::TrilinosWrappers::PreconditionAMG>();
-    multigrid_->initialize(matrix, data);
+    multigrid_matrix_.copy_from(matrix); // the smoother keeps using the values it was built on
+    multigrid_->initialize(multigrid_matrix_, data);
   }
 
   unsigned int LinearSolver::solve(dealii::TrilinosWrappers::MPI::Vector &x,

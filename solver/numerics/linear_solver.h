@@ -23,8 +23,15 @@ namespace fickcast
     /// @p direct chooses KLU; otherwise CG to the relative residual @p tolerance.
     LinearSolver(bool direct, double tolerance, bool higher_order_elements);
 
-    /// Prepares for @p matrix, which must stay alive and unchanged until the next call.
-    void set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix);
+    /**
+     * Prepares for @p matrix, which must stay alive until the next call. The direct solver
+     * refactorises. The iterative solver keeps its multigrid hierarchy while the matrix is a
+     * small change of the one it was built for (@p change: the ratio of the new step size to the
+     * one of the hierarchy, 1 for "same"): CG on the new matrix with the multigrid of a nearby
+     * one still converges (both are symmetric positive definite), and a set-up costs several
+     * solves. The hierarchy is rebuilt when the step changed by more than a factor of 3.
+     */
+    void set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix, double change = 0);
 
     /// Solves matrix x = b; @p x is the initial guess on entry. Returns the iteration count
     /// (1 for the direct solver). Throws RunFailure if CG does not converge.
@@ -42,6 +49,7 @@ namespace fickcast
     dealii::SolverControl direct_control_;
     std::unique_ptr<dealii::TrilinosWrappers::SolverDirect> direct_solver_;
     std::unique_ptr<dealii::TrilinosWrappers::PreconditionAMG> multigrid_;
+    dealii::TrilinosWrappers::SparseMatrix multigrid_matrix_; ///< the matrix the hierarchy was built on
     unsigned int n_setups_ = 0;
   };
 } // namespace fickcast

@@ -3,6 +3,7 @@
 
 #include <cmath>
 #include <limits>
+#include <map>
 #include <string>
 #include <vector>
 
@@ -52,5 +53,6 @@ namespace fickcast
     std::vector<ProbeRecord> probes;
     std::vector<DepthRecord> depths;
     std::vector<double> output_times;
+    std::map<std::string, double> timing; ///< wall seconds per phase
   };
 } // namespace fickcast

@@ -105,6 +105,7 @@ namespace fickcast
     DataOutBase::VtkFlags flags;
     flags.time = t;
     flags.cycle = static_cast<unsigned int>(records_.size());
+    flags.compression_level = DataOutBase::VtkFlags::best_speed;
     data_out.set_flags(flags);
 
     const unsigned int index = static_cast<unsigned int>(records_.size());

@@ -120,6 +120,10 @@ namespace fickcast
     run["date"] = now_iso8601();
     run["host"] = host_name();
     run["wall_time"] = quantity(r.wall_time, "s");
+    Json timing = Json::object();
+    for (const auto &[phase, seconds] : r.timing)
+      timing[phase] = seconds;
+    run["wall_time_by_phase_s"] = timing;
 
     Json &amounts = s["amounts"];
     double initial = 0, final = 0;

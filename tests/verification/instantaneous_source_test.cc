@@ -8,6 +8,7 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <cstdio>
 
 namespace fickcast::testing
 {
@@ -88,9 +89,13 @@ namespace fickcast::testing
                 rr += (s.points[i][j] - centre) * (s.points[i][j] - centre);
               worst = std::max(worst, std::abs(values[i] - gaussian(d, rr, age)));
             }
+          std::printf("%d-D Gaussian at t = %g s: largest error %.3e of the initial peak (bound %.1e)\n", d, s.time,
+                      worst / peak0, tolerance);
           EXPECT_LT(worst, tolerance * peak0) << d << "-D at t = " << s.time << " s";
           // Mean-square displacement grows as 2 d D t (common practice; Crank 1975 ch. 2-3).
           const Moments now = moments(s, d, centre);
+          std::printf("%d-D Gaussian at t = %g s: second-moment growth / (2 d D t) = %.5f\n", d, s.time,
+                      (now.second - start.second) / (2 * d * s.time));
           EXPECT_NEAR((now.second - start.second) / (2 * d * s.time), 1.0, 0.01) << d << "-D at t = " << s.time;
           EXPECT_NEAR(now.mass, start.mass, 1e-6 * start.mass); // sealed box: amount kept
         }
@@ -104,11 +109,11 @@ namespace fickcast::testing
 
   TEST(InstantaneousSource, LineSourceTwoDimensions)
   {
-    check_gaussian(2, 16.0, 0.25, 2e-3);
+    check_gaussian(2, 16.0, 0.25, 2e-4);
   }
 
   TEST(InstantaneousSource, PointSourceThreeDimensions)
   {
-    check_gaussian(3, 12.0, 0.5, 5e-3);
+    check_gaussian(3, 12.0, 0.75, 5e-3);
   }
 } // namespace fickcast::testing

@@ -130,13 +130,21 @@ namespace fickcast::testing
       }
   }
 
-  INSTANTIATE_TEST_SUITE_P(Degrees, SpatialOrder, ::testing::Values(1u, 2u));
+  INSTANTIATE_TEST_SUITE_P(Degrees, SpatialOrder, ::testing::Values(1u, 2u),
+                           [](const ::testing::TestParamInfo<unsigned int> &info) {
+                             return "Q" + std::to_string(info.param);
+                           });
 
   struct TimeCase
   {
     std::string scheme;
     double expected_order;
   };
+
+  void PrintTo(const TimeCase &time_case, std::ostream *out)
+  {
+    *out << time_case.scheme;
+  }
 
   class TemporalOrder : public ::testing::TestWithParam<TimeCase>
   {
