@@ -1,5 +1,6 @@
 #include "case/case_builder.h"
 
+#include "case/expression.h"
 #include "case/input_error.h"
 #include "case/quantity_text.h"
 
@@ -30,6 +31,8 @@ namespace fickcast
         build_geometry(c);
         build_regions(c);
         build_boundaries(c);
+        build_stages(c);
+        build_temperature(c);
         c.initial = field("initial", "value");
         build_time(c);
         build_numerics(c);
@@ -162,19 +165,80 @@ namespace fickcast
                                  "] section: expected one with at least its diffusivity");
             RegionSpec region;
             region.name = layer.name;
-            if (get(section, "diffusivity") == nullptr)
-              missing(section, "diffusivity", "the diffusivity of " + layer.name + ", such as 1e-9 m2/s");
-            region.diffusivity = field(section, "diffusivity");
+            const auto *diffusivity = get(section, "diffusivity");
+            const auto *prefactor = get(section, "diffusivity_prefactor");
+            const auto *activation = get(section, "activation_energy");
+            if (diffusivity && prefactor)
+              fail(*prefactor, "expected either diffusivity or diffusivity_prefactor with activation_energy, "
+                               "found both (diffusivity at " + diffusivity->origin + ")");
+            if (prefactor && !activation)
+              missing(section, "activation_energy", "the activation energy that goes with diffusivity_prefactor, "
+                                                    "such as 3.46 eV");
+            if (activation && !prefactor)
+              fail(*activation, "expected diffusivity_prefactor with activation_energy, found no prefactor");
+            if (!diffusivity && !prefactor)
+              missing(section, "diffusivity", "the diffusivity of " + layer.name +
+                                                ", such as 1e-9 m2/s (or diffusivity_prefactor and activation_energy)");
+            if (diffusivity)
+              region.diffusivity = diffusivity->field;
+            else
+              {
+                region.arrhenius = true;
+                region.prefactor = prefactor->si;
+                region.activation_energy = activation->si;
+              }
             region.porosity = quantity(section, "porosity", 1);
             region.tortuosity = quantity(section, "tortuosity", 1);
-            region.retardation = quantity(section, "retardation", 1);
+            const std::string law = text(section, "porosity_law");
+            const auto *exponent = get(section, "archie_exponent");
+            if (law != "none" && get(section, "tortuosity"))
+              fail(*get(section, "tortuosity"), "expected either tortuosity or porosity_law, found both");
+            if (law == "archie")
+              {
+                if (!exponent)
+                  missing(section, "archie_exponent", "Archie's exponent m for porosity_law = archie, such as 2");
+                region.porosity_law = PorosityLaw::archie;
+                region.archie_exponent = exponent->si;
+                region.tortuosity = std::pow(region.porosity, exponent->si - 1.0);
+              }
+            else if (exponent)
+              fail(*exponent, "only used with porosity_law = archie");
+            if (law == "millington_quirk")
+              {
+                region.porosity_law = PorosityLaw::millington_quirk;
+                region.tortuosity = std::cbrt(region.porosity);
+              }
+            const auto *retardation = get(section, "retardation");
+            const auto *density = get(section, "bulk_density");
+            const auto *kd = get(section, "distribution_coefficient");
+            if (retardation && (density || kd))
+              fail(*retardation, "expected either retardation or bulk_density with distribution_coefficient, "
+                                 "found both");
+            if ((density != nullptr) != (kd != nullptr))
+              fail(density ? *density : *kd, "expected bulk_density and distribution_coefficient together "
+                                             "(R = 1 + rho_b Kd / theta), found only one");
+            region.retardation = retardation ? retardation->si
+                                 : density  ? 1.0 + density->si * kd->si / region.porosity
+                                            : 1.0;
             region.partition = quantity(section, "partition", 1);
             const auto *rate = get(section, "decay_rate");
             const auto *half_life = get(section, "half_life");
             if (rate && half_life)
-              fail(*half_life,
-                   "expected either decay_rate or half_life, found both (decay_rate at " + rate->origin + ")");
+              fail(*half_life, "expected either decay_rate or half_life, found both (decay_rate at " + rate->origin + ")");
             region.decay_rate = rate ? rate->si : half_life ? std::log(2.0) / half_life->si : 0.0;
+            region.decay_dissolved_only = text(section, "decay_applies_to") == "dissolved";
+            const auto *loading = get(section, "loading");
+            const auto *solubility = get(section, "solubility");
+            if (loading && !solubility)
+              fail(*loading, "expected a solubility with the loading (the content above it stays undissolved)");
+            if (solubility)
+              {
+                region.solubility = solubility->si;
+                region.loading = loading ? loading->si : 0.0;
+                if (get(section, "initial") && loading)
+                  fail(*loading, "expected either loading (total content) or initial (dissolved concentration), "
+                                 "found both");
+              }
             region.source = field(section, "source");
             if (const auto *initial = get(section, "initial"))
               region.initial = initial->field;
@@ -188,79 +252,206 @@ namespace fickcast
       {
         const auto faces = builtin_face_names(dimension);
         for (const auto &name : settings.names_of("boundary"))
-          if (std::find(faces.begin(), faces.end(), name) == faces.end())
-            {
-              std::string list;
-              for (const auto &f : faces)
-                list += (list.empty() ? "" : ", ") + f;
-              const std::string suggestion = nearest(name, faces);
-              throw InputError(where("boundary." + name), "boundary." + name,
-                               "unknown boundary of the built-in " + std::to_string(dimension) +
-                                 "-D geometry (boundaries: " + list + ")" +
-                                 (suggestion.empty() ? "" : "; did you mean [boundary." + suggestion + "]?"));
-            }
+          check_face_name(name, "boundary." + name, where("boundary." + name));
         for (const auto &face : faces)
+          c.boundaries.push_back(build_boundary(c, face, ""));
+      }
+
+      void check_face_name(const std::string &name, const std::string &key, const std::string &origin) const
+      {
+        const auto faces = builtin_face_names(dimension);
+        if (std::find(faces.begin(), faces.end(), name) != faces.end())
+          return;
+        std::string list;
+        for (const auto &f : faces)
+          list += (list.empty() ? "" : ", ") + f;
+        const std::string suggestion = nearest(name, faces);
+        throw InputError(origin, key,
+                         "unknown boundary of the built-in " + std::to_string(dimension) + "-D geometry (boundaries: " +
+                           list + ")" + (suggestion.empty() ? "" : "; did you mean '" + suggestion + "'?"));
+      }
+
+      /// The boundary @p face, from [boundary.FACE], or in stage @p stage_section (`stage.NAME`):
+      /// if the stage gives boundary.FACE.type its keys define the face alone, otherwise they
+      /// override the [boundary.FACE] keys one by one.
+      BoundarySpec build_boundary(const CaseDescription &c, const std::string &face,
+                                  const std::string &stage_section) const
+      {
+        const std::string base = "boundary." + face;
+        const bool stage_defines = !stage_section.empty() && get(stage_section, base + ".type") != nullptr;
+        auto key = [&](const std::string &name) -> const SettingValue * {
+          if (!stage_section.empty())
+            if (const auto *v = get(stage_section, base + "." + name))
+              return v;
+          return stage_defines ? nullptr : get(base, name);
+        };
+        const std::string context = stage_section.empty() ? base : stage_section;
+        const std::string key_prefix = stage_section.empty() ? "" : base + ".";
+        BoundarySpec boundary;
+        boundary.name = face;
+        const bool any = key("type") || key("value") || key("ambient") || key("coefficient") || key("volume");
+        if (!any)
+          return boundary; // sealed
+        const auto *type = key("type");
+        if (type == nullptr)
+          missing(context, key_prefix + "type", "one of concentration, flux, transfer, sealed, bath");
+        const auto *value = key("value");
+        const auto *ambient = key("ambient");
+        const auto *coefficient = key("coefficient");
+        const auto *volume = key("volume");
+        const auto *bath_partition = key("partition");
+        const auto *bath_initial = key("initial");
+        auto forbid = [&](const SettingValue *v, const std::string &why) {
+          if (v)
+            fail(*v, "not used with type = " + type->text + " (" + why + ")");
+        };
+        if (type->text != "bath")
           {
-            const std::string section = "boundary." + face;
-            BoundarySpec boundary;
-            boundary.name = face;
-            if (settings.section_origins.count(section) == 0)
+            forbid(volume, "only a bath has a volume");
+            forbid(bath_partition, "only a bath has a partition coefficient here");
+            forbid(bath_initial, "only a bath has an initial concentration here");
+          }
+        if (type->text == "concentration")
+          {
+            boundary.kind = BoundaryKind::concentration;
+            forbid(coefficient, "the concentration is imposed");
+            if (value && ambient)
+              fail(*ambient, "expected either value (inside the material) or ambient (outside, "
+                             "reference phase), found both (value at " + value->origin + ")");
+            if (!value && !ambient)
+              missing(context, key_prefix + "value", "the concentration at the face, such as 250 mg/L");
+            boundary.value_is_ambient = ambient != nullptr;
+            boundary.value = value ? value->field : ambient->field;
+            if (ambient)
+              boundary.ambient = ambient->field;
+            check_unambiguous_phase(c, boundary, value);
+          }
+        else if (type->text == "flux")
+          {
+            boundary.kind = BoundaryKind::flux;
+            forbid(coefficient, "the flux is imposed");
+            forbid(ambient, "the flux is imposed");
+            if (!value)
+              missing(context, key_prefix + "value", "the inward flux, such as 1e-6 kg/(m2 s)");
+            boundary.value = value->field;
+          }
+        else if (type->text == "transfer")
+          {
+            boundary.kind = BoundaryKind::transfer;
+            forbid(value, "give ambient for the outside concentration and coefficient for h");
+            if (!coefficient)
+              missing(context, key_prefix + "coefficient", "the transfer coefficient h, such as 1e-7 m/s");
+            boundary.coefficient = coefficient->si;
+            boundary.ambient = ambient ? ambient->field : ScalarField::constant(0);
+          }
+        else if (type->text == "bath")
+          {
+            boundary.kind = BoundaryKind::bath;
+            forbid(value, "the bath concentration follows from what crosses the face; give initial");
+            forbid(ambient, "the bath concentration follows from what crosses the face; give initial");
+            forbid(coefficient, "the bath is well stirred and in equilibrium with the face");
+            if (!volume)
+              missing(context, key_prefix + "volume", "the bath volume (" + describe_dim(Dim::bath_volume) + ")");
+            boundary.volume = volume->si;
+            boundary.bath_partition = bath_partition ? bath_partition->si : 1.0;
+            boundary.bath_initial = bath_initial ? bath_initial->si : 0.0;
+          }
+        else
+          {
+            boundary.kind = BoundaryKind::sealed;
+            forbid(value, "a sealed face has no value");
+            forbid(ambient, "a sealed face has no value");
+            forbid(coefficient, "a sealed face has no value");
+          }
+        return boundary;
+      }
+
+      void build_stages(CaseDescription &c) const
+      {
+        const auto names = settings.names_of("stage");
+        const auto *end = get("time", "end");
+        if (names.empty())
+          {
+            if (end == nullptr)
+              missing("time", "end", "the end time of the run, such as 60 yr");
+            StageSpec stage;
+            stage.name = "run";
+            stage.duration = end->si;
+            stage.boundaries = c.boundaries;
+            c.stages.push_back(stage);
+            return;
+          }
+        double start = 0;
+        for (const auto &name : names)
+          {
+            const std::string section = "stage." + name;
+            const auto *duration = get(section, "duration");
+            if (duration == nullptr)
+              missing(section, "duration", "the duration of stage " + name + ", such as 30 min");
+            for (const auto &v : settings.all())
+              if (v.section == section && v.key.rfind("boundary.", 0) == 0)
+                {
+                  const auto dot = v.key.find('.', 9);
+                  check_face_name(v.key.substr(9, dot - 9), v.full_key(), v.origin);
+                }
+            StageSpec stage;
+            stage.name = name;
+            stage.start = start;
+            stage.duration = duration->si;
+            for (const auto &face : builtin_face_names(dimension))
+              stage.boundaries.push_back(build_boundary(c, face, section));
+            start += stage.duration;
+            c.stages.push_back(stage);
+          }
+        if (end && std::abs(end->si - start) > 1e-9 * start)
+          fail(*end, "expected the end time to equal the sum of the stage durations (" + format_si(start, "s") +
+                       ") or to be left out, found '" + end->written + "'");
+      }
+
+      void build_temperature(CaseDescription &c) const
+      {
+        const auto *global = get("temperature", "schedule");
+        bool any_stage = false;
+        for (const auto &stage : c.stages)
+          any_stage = any_stage || get("stage." + stage.name, "temperature") != nullptr;
+        if (global && any_stage)
+          fail(*global, "expected the temperature either in [temperature] or in the stages, found both");
+        if (global)
+          c.temperature = global->schedule;
+        else if (any_stage)
+          {
+            double last = -1;
+            for (const auto &stage : c.stages)
               {
-                c.boundaries.push_back(boundary); // sealed
-                continue;
+                const auto *own = get("stage." + stage.name, "temperature");
+                if (own)
+                  {
+                    c.temperature.append(own->schedule, stage.start);
+                    last = own->schedule.temperatures.back();
+                  }
+                else if (last < 0)
+                  throw InputError(where("stage." + stage.name), "stage." + stage.name + ".temperature",
+                                   "missing: the first stage with a temperature must be the first stage, so that "
+                                   "the temperature is known from the start");
+                else
+                  {
+                    TemperatureSchedule hold;
+                    hold.times = {0.0, stage.duration};
+                    hold.temperatures = {last, last};
+                    c.temperature.append(hold, stage.start);
+                  }
               }
-            const auto *type = get(section, "type");
-            if (type == nullptr)
-              missing(section, "type", "one of concentration, flux, transfer, sealed");
-            const auto *value = get(section, "value");
-            const auto *ambient = get(section, "ambient");
-            const auto *coefficient = get(section, "coefficient");
-            auto forbid = [&](const SettingValue *v, const std::string &why) {
-              if (v)
-                fail(*v, "not used with type = " + type->text + " (" + why + ")");
-            };
-            if (type->text == "concentration")
-              {
-                boundary.kind = BoundaryKind::concentration;
-                forbid(coefficient, "the concentration is imposed");
-                if (value && ambient)
-                  fail(*ambient, "expected either value (inside the material) or ambient (outside, "
-                                 "reference phase), found both (value at " +
-                                   value->origin + ")");
-                if (!value && !ambient)
-                  missing(section, "value", "the concentration at the face, such as 250 mg/L");
-                boundary.value_is_ambient = ambient != nullptr;
-                boundary.value = value ? value->field : ambient->field;
-                if (ambient)
-                  boundary.ambient = ambient->field;
-                check_unambiguous_phase(c, boundary, value);
-              }
-            else if (type->text == "flux")
-              {
-                boundary.kind = BoundaryKind::flux;
-                forbid(coefficient, "the flux is imposed");
-                forbid(ambient, "the flux is imposed");
-                if (!value)
-                  missing(section, "value", "the inward flux, such as 1e-6 kg/(m2 s)");
-                boundary.value = value->field;
-              }
-            else if (type->text == "transfer")
-              {
-                boundary.kind = BoundaryKind::transfer;
-                forbid(value, "give ambient for the outside concentration and coefficient for h");
-                if (!coefficient)
-                  missing(section, "coefficient", "the transfer coefficient h, such as 1e-7 m/s");
-                boundary.coefficient = coefficient->si;
-                boundary.ambient = ambient ? ambient->field : ScalarField::constant(0);
-              }
-            else
-              {
-                boundary.kind = BoundaryKind::sealed;
-                forbid(value, "a sealed face has no value");
-                forbid(ambient, "a sealed face has no value");
-                forbid(coefficient, "a sealed face has no value");
-              }
-            c.boundaries.push_back(boundary);
+          }
+        for (const auto &region : c.regions)
+          {
+            bool uses_temperature = region.arrhenius;
+            if (!region.diffusivity.expression.empty())
+              uses_temperature = uses_temperature ||
+                                 Expression(region.diffusivity.expression, {"x", "y", "z", "t", "T", "c"}).uses("T");
+            if (uses_temperature && c.temperature.empty())
+              throw InputError(where("region." + region.name), "region." + region.name + ".diffusivity",
+                               "depends on temperature, but no temperature is given: expected [temperature] "
+                               "schedule = ... or a temperature in each stage");
           }
       }
 
@@ -288,10 +479,7 @@ namespace fickcast
 
       void build_time(CaseDescription &c) const
       {
-        const auto *end = get("time", "end");
-        if (end == nullptr)
-          missing("time", "end", "the end time of the run, such as 60 yr");
-        c.time.end = end->si;
+        c.time.end = c.stages.back().end();
         const auto *step = get("time", "step");
         c.time.adaptive = step == nullptr || step->is_auto;
         c.time.step = c.time.adaptive ? 0 : step->si;
@@ -319,6 +507,10 @@ namespace fickcast
                                    : solver == "iterative" ? LinearSolverKind::iterative
                                                            : LinearSolverKind::automatic;
         c.numerics.solver_tolerance = quantity("numerics", "solver_tolerance", 1e-12);
+        c.numerics.newton = text("numerics", "nonlinear_solver") == "newton";
+        c.numerics.nonlinear_tolerance = quantity("numerics", "nonlinear_tolerance", 1e-8);
+        c.numerics.max_nonlinear_iterations =
+          static_cast<unsigned int>(quantity("numerics", "max_nonlinear_iterations", 30));
       }
 
       void build_output(CaseDescription &c) const
@@ -353,6 +545,16 @@ namespace fickcast
               {
                 ProbeSpec probe;
                 probe.name = name;
+                probe.region = value.text;
+                if (!probe.region.empty() && c.find_region(probe.region) == nullptr)
+                  {
+                    std::vector<std::string> regions;
+                    for (const auto &r : c.regions)
+                      regions.push_back(r.name);
+                    const std::string suggestion = nearest(probe.region, regions);
+                    fail(value, "expected '... in REGION' to name a region, found '" + probe.region + "'" +
+                                  (suggestion.empty() ? "" : " (did you mean '" + suggestion + "'?)"));
+                  }
                 for (unsigned int d = 0; d < dimension; ++d)
                   probe.point[d] = value.list[d];
                 const double extent[3] = {dimension == 1 ? total : c.geometry.width,
@@ -428,6 +630,10 @@ namespace fickcast
           for (const auto &key_spec : key_schema())
             if (key_spec.section == "region")
               add_record(c, "region." + region.name, key_spec);
+        for (const auto &stage : c.stages)
+          for (const auto &v : settings.all())
+            if (v.section == "stage." + stage.name)
+              c.settings.push_back(SettingRecord{v.full_key(), v.written, v.si_text(), v.origin});
         for (const auto &boundary : c.boundaries)
           {
             const std::string section = "boundary." + boundary.name;

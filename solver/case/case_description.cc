@@ -18,6 +18,14 @@ namespace fickcast
     return nullptr;
   }
 
+  const BoundarySpec *StageSpec::find_boundary(const std::string &boundary) const
+  {
+    for (const auto &b : boundaries)
+      if (b.name == boundary)
+        return &b;
+    return nullptr;
+  }
+
   std::vector<std::string> builtin_face_names(const unsigned int dimension)
   {
     switch (dimension)

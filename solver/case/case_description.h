@@ -1,6 +1,9 @@
 // The validated, SI-valued description of one case: what the rest of fickcast works from.
 #pragma once
 
+#include "case/temperature_schedule.h"
+#include "case/time_table.h"
+
 #include <array>
 #include <optional>
 #include <string>
@@ -9,18 +12,20 @@
 namespace fickcast
 {
   /**
-   * A scalar given either as a constant (SI) or as an expression in SI variables
-   * (x, y, z in m, t in s), evaluated with deal.II's muparser-based FunctionParser. The
-   * expression's result is in the unit that was written after it; @p scale converts it to SI.
+   * A scalar given as a constant (SI), as an expression in SI variables (x, y, z in m, t in s,
+   * T in K, c in the case's concentration unit) evaluated with muparser, or as a table of values
+   * against time read from a CSV file. An expression's result is in the unit written after it;
+   * @p scale and @p offset convert it to SI.
    */
   struct ScalarField
   {
-    double value = 0;       ///< the constant, SI (used when expression is empty)
+    double value = 0;       ///< the constant, SI (used when expression and table are empty)
     std::string expression; ///< muparser expression, empty for a constant
     double scale = 1;       ///< SI value of one unit of the expression's result
     double offset = 0;      ///< SI offset (temperatures in degC)
+    TimeTable table;        ///< value against time (file:NAME.csv), SI
 
-    bool is_constant() const { return expression.empty(); }
+    bool is_constant() const { return expression.empty() && table.empty(); }
     static ScalarField constant(double si_value)
     {
       ScalarField field;
@@ -64,24 +69,44 @@ namespace fickcast
     }
   };
 
+  /// Empirical laws giving the tortuosity factor from the porosity.
+  enum class PorosityLaw
+  {
+    none,            ///< tortuosity given directly (default 1)
+    archie,          ///< tau = theta^(m - 1), i.e. D_eff theta = D theta^m (Archie, exponent m)
+    millington_quirk ///< tau = theta^(1/3), i.e. D_eff theta = D theta^(4/3) (saturated form)
+  };
+
   /// One material zone (a layer, later a mesh group) and its coefficients, SI.
   struct RegionSpec
   {
     std::string name;
-    ScalarField diffusivity;            ///< free diffusivity D, m2/s
-    double porosity = 1;                ///< theta in (0, 1]
-    double tortuosity = 1;              ///< factor tau in (0, 1]: D_eff = tau * D
-    double retardation = 1;             ///< R >= 1 (linear sorption)
-    double partition = 1;               ///< K > 0: phase concentration c = K u
-    double decay_rate = 0;              ///< lambda >= 0, 1/s, acting on dissolved and sorbed amounts
-    ScalarField source;                 ///< volumetric source, concentration units per second, per bulk volume
+    ScalarField diffusivity;      ///< free diffusivity D, m2/s (x, y, z, t, T, c allowed)
+    bool arrhenius = false;       ///< D = prefactor exp(-activation_energy / (k_B T))
+    double prefactor = 0;         ///< D0, m2/s
+    double activation_energy = 0; ///< J per particle
+    double porosity = 1;          ///< theta in (0, 1]
+    double tortuosity = 1;        ///< factor tau in (0, 1]: D_eff = tau * D (from the law if one is named)
+    PorosityLaw porosity_law = PorosityLaw::none;
+    double archie_exponent = 0;
+    double retardation = 1;            ///< R >= 1 (linear sorption), given or 1 + rho_b Kd / theta
+    double partition = 1;              ///< K > 0: phase concentration c = K u
+    double decay_rate = 0;             ///< lambda >= 0, 1/s
+    bool decay_dissolved_only = false; ///< decay acts on the dissolved phase only (not the sorbed)
+    ScalarField source;                ///< volumetric source, concentration units per second, per bulk volume
     std::optional<ScalarField> initial; ///< phase concentration, overrides [initial] value
-    double cell_size = 0;               ///< m; 0: the geometry's
+    double loading = 0;    ///< total initial content per bulk volume (with a dispersed phase); 0: none
+    double solubility = 0; ///< phase concentration at saturation; 0: unlimited
+    double cell_size = 0;  ///< m; 0: the geometry's
 
     /// Storage capacity C = theta R K (multiplies du/dt).
     double capacity() const { return porosity * retardation * partition; }
     /// Conductance factor G / D = theta tau K (multiplies D grad u).
     double conductance_factor() const { return porosity * tortuosity * partition; }
+    /// Decay coefficient on u: lambda C, or lambda theta K when only the dissolved part decays.
+    double reaction() const { return decay_rate * porosity * partition * (decay_dissolved_only ? 1.0 : retardation); }
+    /// Whether part of the content may be undissolved (solid above solubility).
+    bool has_dispersed_phase() const { return solubility > 0; }
   };
 
   enum class BoundaryKind
@@ -89,7 +114,8 @@ namespace fickcast
     concentration, ///< fixed concentration
     flux,          ///< prescribed inward flux
     transfer,      ///< outward flux = h (c_face - K c_ambient)
-    sealed         ///< zero flux (also symmetry)
+    sealed,        ///< zero flux (also symmetry)
+    bath           ///< a finite well-stirred bath of given volume
   };
 
   /**
@@ -106,6 +132,22 @@ namespace fickcast
     bool value_is_ambient = false; ///< concentration kind given through `ambient` instead of `value`
     ScalarField ambient;           ///< outside concentration, reference phase (transfer, or concentration)
     double coefficient = 0;        ///< transfer coefficient h, m/s
+    double volume = 0;             ///< bath volume (per unit area in 1-D, per unit length in 2-D)
+    double bath_partition = 1;     ///< K of the bath liquid against the reference phase
+    double bath_initial = 0;       ///< initial concentration in the bath (bath phase)
+  };
+
+  /// One stage of a process: its duration, its boundary conditions (the temperature is chained
+  /// into CaseDescription::temperature).
+  struct StageSpec
+  {
+    std::string name;
+    double start = 0;                     ///< s, from the start of the run
+    double duration = 0;                  ///< s
+    std::vector<BoundarySpec> boundaries; ///< every face, as in this stage
+
+    double end() const { return start + duration; }
+    const BoundarySpec *find_boundary(const std::string &boundary) const;
   };
 
   enum class TimeScheme
@@ -139,12 +181,16 @@ namespace fickcast
     unsigned int degree = 2;
     LinearSolverKind linear_solver = LinearSolverKind::automatic;
     double solver_tolerance = 1e-12; ///< relative residual of the iterative solver
+    bool newton = true;              ///< Newton (else Picard) for concentration-dependent D
+    double nonlinear_tolerance = 1e-8; ///< change per iteration relative to the concentration scale
+    unsigned int max_nonlinear_iterations = 30;
   };
 
   struct ProbeSpec
   {
     std::string name;
     std::array<double, 3> point{{0, 0, 0}}; ///< m
+    std::string region; ///< side to read at an interface (`... in REGION`); empty: any
   };
 
   /// A named level: first time the probe of the same name reaches it (threshold), or the
@@ -194,6 +240,8 @@ namespace fickcast
     GeometrySpec geometry;
     std::vector<RegionSpec> regions;
     std::vector<BoundarySpec> boundaries; ///< every face of the geometry, sealed unless given
+    std::vector<StageSpec> stages;        ///< at least one; without [stage.*], one over the whole run
+    TemperatureSchedule temperature;      ///< over the whole run (stages chained); empty: none given
     ScalarField initial;                  ///< phase concentration, SI
     TimeSpec time;
     NumericsSpec numerics;

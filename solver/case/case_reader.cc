@@ -6,11 +6,14 @@
 #include "case/input_error.h"
 #include "case/quantity_text.h"
 #include "case/settings.h"
+#include "case/temperature_schedule.h"
+#include "case/time_table.h"
 #include "case/units.h"
 
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <filesystem>
 #include <fstream>
 #include <regex>
 #include <set>
@@ -38,6 +41,9 @@ namespace fickcast
         case ValueKind::integer:
           return std::to_string(static_cast<long>(si));
         case ValueKind::field:
+          if (!field.table.empty())
+            return "table " + field.table.file + " (" + std::to_string(field.table.times.size()) + " rows, " + si_unit +
+                   ")";
           if (field.is_constant())
             return format_si(field.value, si_unit);
           return "{" + field.expression + "}" +
@@ -46,6 +52,13 @@ namespace fickcast
         case ValueKind::quantity_list:
         case ValueKind::point:
           {
+            if (!text.empty())
+              {
+                std::string joined;
+                for (const double item : list)
+                  joined += (joined.empty() ? "" : ", ") + format_si(item, "");
+                return joined + " " + si_unit + " in " + text;
+              }
             std::string joined;
             for (const double item : list)
               joined += (joined.empty() ? "" : ", ") + format_si(item, "");
@@ -60,6 +73,14 @@ namespace fickcast
           }
         case ValueKind::flag:
           return flag ? "true" : "false";
+        case ValueKind::schedule:
+          {
+            std::string joined;
+            for (std::size_t i = 0; i < schedule.times.size(); ++i)
+              joined += (joined.empty() ? "" : ", ") + format_si(schedule.times[i], "s") + " " +
+                        format_si(schedule.temperatures[i], "K");
+            return joined;
+          }
         case ValueKind::text:
         case ValueKind::choice:
           return text;
@@ -96,10 +117,18 @@ namespace fickcast
     const std::vector<std::string> flux_bases = {"kg/(m2 s)", "mol/(m2 s)", "1/(m2 s)", "m/s"};
     const std::vector<std::string> source_bases = {"kg/(m3 s)", "mol/(m3 s)", "1/(m3 s)", "1/s"};
 
-    std::string si_unit_of(const Dim dim, const ConcentrationUnits &units)
+    std::string si_unit_of(const Dim dim, const ConcentrationUnits &units, const unsigned int dimension = 1)
     {
       switch (dim)
         {
+          case Dim::density:
+            return "kg/m3";
+          case Dim::specific_volume:
+            return "m3/kg";
+          case Dim::activation_energy:
+            return "J";
+          case Dim::bath_volume:
+            return dimension == 1 ? "m" : dimension == 2 ? "m2" : "m3";
           case Dim::dimensionless:
             return "1";
           case Dim::length:
@@ -178,9 +207,45 @@ namespace fickcast
                          (suggestion.empty() ? "" : " (did you mean [" + suggestion + "]?)"));
     }
 
+    /// The key spec of a stage's `boundary.NAME.KEY`: that of KEY in [boundary.NAME].
+    const KeySpec *stage_boundary_key(const std::string &key)
+    {
+      if (key.rfind("boundary.", 0) != 0)
+        return nullptr;
+      const auto dot = key.find('.', 9);
+      if (dot == std::string::npos || dot == 9)
+        return nullptr;
+      return find_key("boundary", key.substr(dot + 1));
+    }
+
+    /// Section and key of the boundary a key refers to: [boundary.top] itself, or a stage's
+    /// boundary.top.KEY.
+    std::pair<std::string, std::string> boundary_of(const IniEntry &entry)
+    {
+      if (section_kind(entry.section) == "stage")
+        {
+          const auto dot = entry.key.find('.', 9);
+          return {entry.key.substr(0, dot), entry.key.substr(dot + 1)};
+        }
+      return {entry.section, entry.key};
+    }
+
     const KeySpec &lookup_key(const IniEntry &entry)
     {
       const std::string kind = section_kind(entry.section);
+      if (kind == "stage" && entry.key.rfind("boundary.", 0) == 0)
+        {
+          if (const KeySpec *spec = stage_boundary_key(entry.key))
+            return *spec;
+          std::string suggestion;
+          const auto dot = entry.key.find('.', 9);
+          if (dot != std::string::npos)
+            suggestion = nearest(entry.key.substr(dot + 1), keys_of("boundary"));
+          throw InputError(entry.origin(), entry.full_key(),
+                           "expected boundary.NAME.KEY with a key of [boundary.NAME] (type, value, ambient, "
+                           "coefficient, volume, partition, initial)" +
+                             (suggestion.empty() ? "" : "; did you mean '" + suggestion + "'?"));
+        }
       if (const KeySpec *spec = find_key(kind, entry.key))
         return *spec;
       const auto keys = keys_of(kind);
@@ -251,19 +316,43 @@ namespace fickcast
         }
     }
 
+    /// Avogadro constant, exact (SI Brochure, 9th ed., 2019).
+    constexpr double avogadro = 6.02214076e23;
+
     struct Parser
     {
       Settings &settings;
       unsigned int dimension = 1;
 
+      /// A path in the case file, relative to the case file's folder.
+      std::string resolve_path(const std::string &path) const
+      {
+        const std::filesystem::path p(path);
+        if (p.is_absolute())
+          return path;
+        return (std::filesystem::path(settings.file).parent_path() / p).lexically_normal().string();
+      }
+
       Dim effective_dim(const KeySpec &spec, const IniEntry &entry, const std::vector<IniEntry> &entries) const
       {
         if (spec.dim != Dim::boundary_value)
           return spec.dim;
+        return boundary_type_of(entry, entries) == "flux" ? Dim::flux : Dim::concentration;
+      }
+
+      /// The type of the boundary @p entry belongs to: the stage's own, else the base section's.
+      static std::string boundary_type_of(const IniEntry &entry, const std::vector<IniEntry> &entries)
+      {
+        const auto [boundary_section, key] = boundary_of(entry);
+        (void)key;
+        if (section_kind(entry.section) == "stage")
+          for (const auto &other : entries)
+            if (other.section == entry.section && other.key == boundary_section + ".type")
+              return other.value;
         for (const auto &other : entries)
-          if (other.section == entry.section && other.key == "type")
-            return other.value == "flux" ? Dim::flux : Dim::concentration;
-        return Dim::concentration;
+          if (other.section == boundary_section && other.key == "type")
+            return other.value;
+        return "";
       }
 
       SettingValue parse(const IniEntry &entry, const KeySpec &spec, const Dim dim)
@@ -274,7 +363,7 @@ namespace fickcast
         value.key = entry.key;
         value.written = entry.value;
         value.origin = entry.origin();
-        value.si_unit = si_unit_of(dim, settings.units);
+        value.si_unit = si_unit_of(dim, settings.units, dimension);
         const std::string &text = entry.value;
         if (text.empty() && spec.kind != ValueKind::text)
           throw InputError(entry.origin(), entry.full_key(),
@@ -320,12 +409,36 @@ namespace fickcast
                 case ValueKind::quantity:
                   {
                     const QuantityText q = split_quantity(text, false);
-                    value.si = to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim, &settings.units);
+                    if (dim == Dim::activation_energy && !q.unit.empty() &&
+                        UnitSystem::instance().convertible(q.unit, "J/mol"))
+                      value.si = UnitSystem::instance().to_si(q.number, q.unit, "J/mol") / avogadro;
+                    else
+                      value.si = to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim, &settings.units);
                     check_bounds(spec, value.si, entry, value.si_unit);
                     break;
                   }
+                case ValueKind::schedule:
+                  value.schedule = parse_temperature_schedule(text);
+                  break;
                 case ValueKind::field:
                   {
+                    if (text.rfind("file:", 0) == 0)
+                      {
+                        if (std::find(spec.variables.begin(), spec.variables.end(), "t") == spec.variables.end())
+                          throw InputError(entry.origin(), entry.full_key(),
+                                           "expected a value or an expression here; a table against time "
+                                           "(file:NAME.csv) is not allowed for this key");
+                        try
+                          {
+                            value.field.table = read_time_table(resolve_path(text.substr(5)), value.si_unit);
+                          }
+                        catch (const InputError &error)
+                          {
+                            throw InputError(error.where(), entry.full_key() + " (" + entry.origin() + ")",
+                                             error.message());
+                          }
+                        break;
+                      }
                     const QuantityText q = split_quantity(text, true);
                     if (!q.is_expression())
                       {
@@ -360,7 +473,14 @@ namespace fickcast
                   break;
                 case ValueKind::point:
                   {
-                    const auto items = split_list(text);
+                    std::string coordinates = text;
+                    if (const auto in = text.rfind(" in "); in != std::string::npos)
+                      {
+                        value.text = text.substr(in + 4);
+                        value.text.erase(0, value.text.find_first_not_of(' '));
+                        coordinates = text.substr(0, in);
+                      }
+                    const auto items = split_list(coordinates);
                     if (items.size() != dimension)
                       throw InputError(entry.origin(), entry.full_key(),
                                        "expected " + std::to_string(dimension) + " coordinate" +
@@ -477,17 +597,13 @@ namespace fickcast
       for (int pass = 0; pass < 3 && basis == concentration_bases.size(); ++pass)
         for (const auto &entry : entries)
           {
-            const KeySpec *spec = find_key(section_kind(entry.section), entry.key);
+            const KeySpec *spec = section_kind(entry.section) == "stage" ? stage_boundary_key(entry.key)
+                                                                         : find_key(section_kind(entry.section), entry.key);
             if (spec == nullptr || (spec->kind != ValueKind::quantity && spec->kind != ValueKind::field))
               continue;
             Dim dim = spec->dim;
             if (dim == Dim::boundary_value)
-              {
-                dim = Dim::concentration;
-                for (const auto &other : entries)
-                  if (other.section == entry.section && other.key == "type" && other.value == "flux")
-                    dim = Dim::flux;
-              }
+              dim = Parser::boundary_type_of(entry, entries) == "flux" ? Dim::flux : Dim::concentration;
             const std::vector<std::string> *candidates = nullptr;
             if (pass == 0 && dim == Dim::concentration)
               candidates = &concentration_bases;

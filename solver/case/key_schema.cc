@@ -80,18 +80,36 @@ namespace fickcast
                                "size ratio of neighbouring cells away from grade_toward"),
                           1, false, 2, false));
       // [region.NAME]
-      s.push_back(required(variables(positive(make("region", "diffusivity", K::field, Dim::diffusivity, "",
-                                                   "free diffusivity D (constant or {expression of x, y, z, t})")),
-                                     {"x", "y", "z", "t"})));
+      s.push_back(variables(positive(make("region", "diffusivity", K::field, Dim::diffusivity, "",
+                                          "free diffusivity D: constant, {expression of x, y, z, t, T, c} or "
+                                          "file:TABLE.csv; required unless diffusivity_prefactor is given")),
+                            {"x", "y", "z", "t", "T", "c"}));
+      s.push_back(positive(make("region", "diffusivity_prefactor", K::quantity, Dim::diffusivity, "",
+                                "Arrhenius prefactor D0: D = D0 exp(-Ea / (k_B T)) with the temperature schedule")));
+      s.push_back(bounded(make("region", "activation_energy", K::quantity, Dim::activation_energy, "",
+                               "Arrhenius activation energy Ea, per particle (eV) or per mole (kJ/mol)"),
+                          0, false));
       s.push_back(bounded(
         make("region", "porosity", K::quantity, Dim::dimensionless, "1", "porosity theta in (0, 1]; 1 for a solid"), 0,
         true, 1, false));
       s.push_back(bounded(make("region", "tortuosity", K::quantity, Dim::dimensionless, "1",
                                "tortuosity factor tau in (0, 1]: D_eff = tau D"),
                           0, true, 1, false));
+      s.push_back(choices(make("region", "porosity_law", K::choice, Dim::none, "none",
+                               "tortuosity from porosity: none, archie (tau = theta^(m-1)), "
+                               "millington_quirk (tau = theta^(1/3))"),
+                          {"none", "archie", "millington_quirk"}));
+      s.push_back(bounded(make("region", "archie_exponent", K::quantity, Dim::dimensionless, "",
+                               "Archie's exponent m (porosity_law = archie), typically 1.3 to 2.5"),
+                          1, false, 5, false));
       s.push_back(bounded(make("region", "retardation", K::quantity, Dim::dimensionless, "1",
                                "retardation factor R >= 1 (linear sorption)"),
                           1, false));
+      s.push_back(positive(make("region", "bulk_density", K::quantity, Dim::density, "",
+                                "dry bulk density rho_b; with distribution_coefficient: R = 1 + rho_b Kd / theta")));
+      s.push_back(bounded(make("region", "distribution_coefficient", K::quantity, Dim::specific_volume, "",
+                               "linear sorption coefficient Kd (with bulk_density)"),
+                          0, false));
       s.push_back(positive(make("region", "partition", K::quantity, Dim::dimensionless, "1",
                                 "partition coefficient K: phase concentration = K x reference phase")));
       s.push_back(bounded(make("region", "decay_rate", K::quantity, Dim::rate, "0",
@@ -99,6 +117,14 @@ namespace fickcast
                           0, false));
       s.push_back(positive(make("region", "half_life", K::quantity, Dim::time, "",
                                 "first-order half-life; sets decay_rate = ln 2 / half_life")));
+      s.push_back(choices(make("region", "decay_applies_to", K::choice, Dim::none, "total",
+                               "total (dissolved and sorbed decay) or dissolved (sorbed amount is stable)"),
+                          {"total", "dissolved"}));
+      s.push_back(bounded(make("region", "loading", K::quantity, Dim::concentration, "",
+                               "total initial content per bulk volume, dissolved and undissolved (with solubility)"),
+                          0, false));
+      s.push_back(positive(make("region", "solubility", K::quantity, Dim::concentration, "",
+                                "saturation concentration (phase); content above it stays undissolved")));
       s.push_back(variables(make("region", "source", K::field, Dim::source, "0",
                                  "volumetric source per bulk volume ({expression of x, y, z, t} allowed)"),
                             {"x", "y", "z", "t"}));
@@ -109,8 +135,9 @@ namespace fickcast
                                 "cell size in this layer (overrides geometry.cell_size)")));
       // [boundary.NAME]
       s.push_back(
-        required(choices(make("boundary", "type", K::choice, Dim::none, "", "concentration, flux, transfer or sealed"),
-                         {"concentration", "flux", "transfer", "sealed"})));
+        required(choices(make("boundary", "type", K::choice, Dim::none, "",
+                              "concentration, flux, transfer, sealed or bath"),
+                         {"concentration", "flux", "transfer", "sealed", "bath"})));
       s.push_back(variables(make("boundary", "value", K::field, Dim::boundary_value, "",
                                  "concentration inside the material at the face (type concentration) "
                                  "or inward flux (type flux); {expression of x, y, z, t} allowed"),
@@ -121,12 +148,20 @@ namespace fickcast
                             {"x", "y", "z", "t"}));
       s.push_back(positive(make("boundary", "coefficient", K::quantity, Dim::velocity, "",
                                 "transfer coefficient h: outward flux = h (c_face - K ambient)")));
+      s.push_back(positive(make("boundary", "volume", K::quantity, Dim::bath_volume, "",
+                                "bath volume (type bath): m3 in 3-D, per unit length (m2) in 2-D, "
+                                "per unit area (m) in 1-D")));
+      s.push_back(positive(make("boundary", "partition", K::quantity, Dim::dimensionless, "",
+                                "bath liquid's partition coefficient against the reference phase (type bath)")));
+      s.push_back(bounded(make("boundary", "initial", K::quantity, Dim::concentration, "",
+                               "initial concentration in the bath (type bath)"), 0, false));
       // [initial]
       s.push_back(variables(make("initial", "value", K::field, Dim::concentration, "0",
                                  "initial concentration ({expression of x, y, z} allowed)"),
                             {"x", "y", "z"}));
       // [time]
-      s.push_back(required(positive(make("time", "end", K::quantity, Dim::time, "", "end time of the run"))));
+      s.push_back(positive(make("time", "end", K::quantity, Dim::time, "",
+                                "end time of the run (required unless stages give it)")));
       s.push_back(with_auto(positive(
         make("time", "step", K::quantity, Dim::time, "", "fixed time step, or auto for error-controlled steps"))));
       s.push_back(bounded(make("time", "tolerance", K::quantity, Dim::dimensionless, "1e-4",
@@ -152,6 +187,26 @@ namespace fickcast
       s.push_back(bounded(make("numerics", "solver_tolerance", K::quantity, Dim::dimensionless, "1e-12",
                                "relative residual reduction of the iterative solver"),
                           0, true, 1e-3, false));
+      s.push_back(choices(make("numerics", "nonlinear_solver", K::choice, Dim::none, "newton",
+                               "newton or picard, for a concentration-dependent diffusivity"),
+                          {"newton", "picard"}));
+      s.push_back(bounded(make("numerics", "nonlinear_tolerance", K::quantity, Dim::dimensionless, "1e-8",
+                               "largest change per iteration relative to the concentration scale"),
+                          0, true, 1e-2, false));
+      s.push_back(bounded(make("numerics", "max_nonlinear_iterations", K::integer, Dim::none, "30",
+                               "iterations before a step is retried smaller or the run fails"),
+                          1, false, 1000, false));
+      // [temperature]
+      s.push_back(make("temperature", "schedule", K::schedule, Dim::temperature, "",
+                       "temperature history: '1050 degC', or '800 degC, ramp 10 degC/min to 1100 degC, hold 1 h, "
+                       "ramp to 800 degC in 2 h'"));
+      // [stage.NAME]
+      s.push_back(required(positive(make("stage", "duration", K::quantity, Dim::time, "", "duration of the stage"))));
+      s.push_back(make("stage", "temperature", K::schedule, Dim::temperature, "",
+                       "temperature during the stage (times from the stage start); default: the previous stage's "
+                       "last temperature"));
+      s.push_back(make("stage", "boundary.*", K::text, Dim::none, "",
+                       "boundary condition during the stage: boundary.NAME.KEY with the keys of [boundary.NAME]"));
       // [output]
       s.push_back(make("output", "folder", K::text, Dim::none, "",
                        "results folder (relative to the working directory); default results/CASE"));
@@ -188,13 +243,14 @@ namespace fickcast
 
   const std::vector<std::string> &fixed_sections()
   {
-    static const std::vector<std::string> names = {"case", "geometry", "initial", "time", "numerics", "output"};
+    static const std::vector<std::string> names = {"case",     "geometry", "initial",    "time",
+                                                   "numerics", "output",   "temperature"};
     return names;
   }
 
   const std::vector<std::string> &named_section_kinds()
   {
-    static const std::vector<std::string> names = {"region", "boundary"};
+    static const std::vector<std::string> names = {"region", "boundary", "stage"};
     return names;
   }
 
@@ -247,6 +303,14 @@ namespace fickcast
           return "a flux such as 1e-6 kg/(m2 s)";
         case Dim::source:
           return "a source such as 1e-3 kg/(m3 s)";
+        case Dim::density:
+          return "a density such as 1.6 g/cm3";
+        case Dim::specific_volume:
+          return "a distribution coefficient such as 0.5 mL/g";
+        case Dim::activation_energy:
+          return "an activation energy such as 3.46 eV or 148 kJ/mol";
+        case Dim::bath_volume:
+          return "a bath volume (m3 in 3-D, m2 per unit length in 2-D, m per unit area in 1-D)";
         case Dim::boundary_value:
           return "a concentration or a flux";
         case Dim::none:

@@ -17,8 +17,9 @@ namespace fickcast
     quantity,      ///< number with unit (or `auto` where allowed)
     field,         ///< number with unit, or `{expression} unit`
     quantity_list, ///< comma-separated quantities of one dimension
-    point,         ///< comma-separated coordinates, one per axis, each a length
-    layers         ///< `name thickness unit, name thickness unit, ...`
+    point,         ///< comma-separated coordinates, one per axis, each a length; `... in REGION`
+    layers,        ///< `name thickness unit, name thickness unit, ...`
+    schedule       ///< temperature: `800 degC, ramp 10 degC/min to 1100 degC, hold 1 h`
   };
 
   /// Physical dimension of a quantity key; concentration-derived ones follow the case's
@@ -36,7 +37,11 @@ namespace fickcast
     concentration,
     flux,
     source,
-    boundary_value ///< concentration or flux, decided by the boundary type
+    density,           ///< kg/m3 (bulk density)
+    specific_volume,   ///< m3/kg (distribution coefficient)
+    activation_energy, ///< J (per particle, e.g. eV) or J/mol (e.g. kJ/mol)
+    bath_volume,       ///< m3 in 3-D; per unit length (m2) in 2-D; per unit area (m) in 1-D
+    boundary_value     ///< concentration or flux, decided by the boundary type
   };
 
   struct KeySpec

@@ -26,6 +26,7 @@ namespace fickcast
     std::vector<LayerSpec> layers; ///< layers kind
     std::string text;              ///< text and choice kinds
     bool flag = false;             ///< flag kind
+    TemperatureSchedule schedule;  ///< schedule kind
 
     std::string full_key() const { return section + "." + key; }
     /// The SI reading for `fickcast check`: `1.9e-09 m2/s`, `{expr} x 0.001 kg/m3`, ...

@@ -1,0 +1,100 @@
+#include "case/time_table.h"
+
+#include "case/input_error.h"
+#include "case/quantity_text.h"
+#include "case/units.h"
+
+#include <algorithm>
+#include <cmath>
+#include <fstream>
+#include <regex>
+
+namespace fickcast
+{
+  double TimeTable::at(const double t) const
+  {
+    if (times.empty())
+      return 0;
+    if (t <= times.front())
+      return values.front();
+    if (t >= times.back())
+      return values.back();
+    const auto upper = std::upper_bound(times.begin(), times.end(), t);
+    const std::size_t k = static_cast<std::size_t>(upper - times.begin());
+    const double fraction = (t - times[k - 1]) / (times[k] - times[k - 1]);
+    return values[k - 1] + fraction * (values[k] - values[k - 1]);
+  }
+
+  TimeTable read_time_table(const std::string &path, const std::string &si_unit)
+  {
+    std::ifstream in(path);
+    if (!in)
+      throw InputError(path, "", "cannot open the table (expected a CSV file 'time [unit], value [unit]')");
+    TimeTable table;
+    table.file = path;
+    std::string line;
+    unsigned int number = 0;
+    double time_scale = 1, time_offset = 0, value_scale = 1, value_offset = 0;
+    bool header = false;
+    static const std::regex column(R"(^\s*([^\[]*?)\s*\[([^\]]*)\]\s*$)");
+    while (std::getline(in, line))
+      {
+        ++number;
+        const std::string where = path + ":" + std::to_string(number);
+        if (const auto hash = line.find('#'); hash != std::string::npos)
+          line.erase(hash);
+        if (line.find_first_not_of(" \t\r") == std::string::npos)
+          continue;
+        if (!line.empty() && line.back() == '\r')
+          line.pop_back();
+        const auto cells = split_list(line);
+        if (cells.size() != 2)
+          throw InputError(where, "", "expected two comma-separated columns, found " + std::to_string(cells.size()));
+        if (!header)
+          {
+            std::smatch time_match, value_match;
+            if (!std::regex_match(cells[0], time_match, column) || !std::regex_match(cells[1], value_match, column))
+              throw InputError(where, "",
+                               "expected a header 'time [unit], value [unit]' such as 'time [h], value [mg/L]', "
+                               "found '" + line + "'");
+            try
+              {
+                const UnitSystem &units = UnitSystem::instance();
+                time_offset = units.to_si(0, time_match[2].str(), "s");
+                time_scale = units.to_si(1, time_match[2].str(), "s") - time_offset;
+                value_offset = units.to_si(0, value_match[2].str(), si_unit);
+                value_scale = units.to_si(1, value_match[2].str(), si_unit) - value_offset;
+              }
+            catch (const UnitError &error)
+              {
+                throw InputError(where, "", error.what());
+              }
+            header = true;
+            continue;
+          }
+        double t = 0, v = 0;
+        try
+          {
+            const QuantityText qt = split_quantity(cells[0], false), qv = split_quantity(cells[1], false);
+            if (!qt.unit.empty() || !qv.unit.empty())
+              throw UnitError("expected plain numbers (units belong in the header), found '" + line + "'");
+            t = qt.number * time_scale + time_offset;
+            v = qv.number * value_scale + value_offset;
+          }
+        catch (const UnitError &error)
+          {
+            throw InputError(where, "", error.what());
+          }
+        if (!table.times.empty() && !(t > table.times.back()))
+          throw InputError(where, "", "expected times that increase from row to row, found " +
+                                        std::to_string(t) + " s after " + std::to_string(table.times.back()) + " s");
+        table.times.push_back(t);
+        table.values.push_back(v);
+      }
+    if (!header)
+      throw InputError(path, "", "the table is empty: expected a header 'time [unit], value [unit]' and rows");
+    if (table.times.size() < 2)
+      throw InputError(path, "", "expected at least two rows, found " + std::to_string(table.times.size()));
+    return table;
+  }
+} // namespace fickcast
