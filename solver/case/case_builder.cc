@@ -170,15 +170,18 @@ namespace fickcast
             const auto *activation = get(section, "activation_energy");
             if (diffusivity && prefactor)
               fail(*prefactor, "expected either diffusivity or diffusivity_prefactor with activation_energy, "
-                               "found both (diffusivity at " + diffusivity->origin + ")");
+                               "found both (diffusivity at " +
+                                 diffusivity->origin + ")");
             if (prefactor && !activation)
-              missing(section, "activation_energy", "the activation energy that goes with diffusivity_prefactor, "
-                                                    "such as 3.46 eV");
+              missing(section, "activation_energy",
+                      "the activation energy that goes with diffusivity_prefactor, "
+                      "such as 3.46 eV");
             if (activation && !prefactor)
               fail(*activation, "expected diffusivity_prefactor with activation_energy, found no prefactor");
             if (!diffusivity && !prefactor)
-              missing(section, "diffusivity", "the diffusivity of " + layer.name +
-                                                ", such as 1e-9 m2/s (or diffusivity_prefactor and activation_energy)");
+              missing(section, "diffusivity",
+                      "the diffusivity of " + layer.name +
+                        ", such as 1e-9 m2/s (or diffusivity_prefactor and activation_energy)");
             if (diffusivity)
               region.diffusivity = diffusivity->field;
             else
@@ -218,13 +221,14 @@ namespace fickcast
               fail(density ? *density : *kd, "expected bulk_density and distribution_coefficient together "
                                              "(R = 1 + rho_b Kd / theta), found only one");
             region.retardation = retardation ? retardation->si
-                                 : density  ? 1.0 + density->si * kd->si / region.porosity
-                                            : 1.0;
+                                 : density   ? 1.0 + density->si * kd->si / region.porosity
+                                             : 1.0;
             region.partition = quantity(section, "partition", 1);
             const auto *rate = get(section, "decay_rate");
             const auto *half_life = get(section, "half_life");
             if (rate && half_life)
-              fail(*half_life, "expected either decay_rate or half_life, found both (decay_rate at " + rate->origin + ")");
+              fail(*half_life,
+                   "expected either decay_rate or half_life, found both (decay_rate at " + rate->origin + ")");
             region.decay_rate = rate ? rate->si : half_life ? std::log(2.0) / half_life->si : 0.0;
             region.decay_dissolved_only = text(section, "decay_applies_to") == "dissolved";
             const auto *loading = get(section, "loading");
@@ -317,7 +321,8 @@ namespace fickcast
             forbid(coefficient, "the concentration is imposed");
             if (value && ambient)
               fail(*ambient, "expected either value (inside the material) or ambient (outside, "
-                             "reference phase), found both (value at " + value->origin + ")");
+                             "reference phase), found both (value at " +
+                               value->origin + ")");
             if (!value && !ambient)
               missing(context, key_prefix + "value", "the concentration at the face, such as 250 mg/L");
             boundary.value_is_ambient = ambient != nullptr;
@@ -446,8 +451,8 @@ namespace fickcast
           {
             bool uses_temperature = region.arrhenius;
             if (!region.diffusivity.expression.empty())
-              uses_temperature = uses_temperature ||
-                                 Expression(region.diffusivity.expression, {"x", "y", "z", "t", "T", "c"}).uses("T");
+              uses_temperature =
+                uses_temperature || Expression(region.diffusivity.expression, {"x", "y", "z", "t", "T", "c"}).uses("T");
             if (uses_temperature && c.temperature.empty())
               throw InputError(where("region." + region.name), "region." + region.name + ".diffusivity",
                                "depends on temperature, but no temperature is given: expected [temperature] "

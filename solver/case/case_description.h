@@ -89,15 +89,15 @@ namespace fickcast
     double tortuosity = 1;        ///< factor tau in (0, 1]: D_eff = tau * D (from the law if one is named)
     PorosityLaw porosity_law = PorosityLaw::none;
     double archie_exponent = 0;
-    double retardation = 1;            ///< R >= 1 (linear sorption), given or 1 + rho_b Kd / theta
-    double partition = 1;              ///< K > 0: phase concentration c = K u
-    double decay_rate = 0;             ///< lambda >= 0, 1/s
-    bool decay_dissolved_only = false; ///< decay acts on the dissolved phase only (not the sorbed)
-    ScalarField source;                ///< volumetric source, concentration units per second, per bulk volume
+    double retardation = 1;             ///< R >= 1 (linear sorption), given or 1 + rho_b Kd / theta
+    double partition = 1;               ///< K > 0: phase concentration c = K u
+    double decay_rate = 0;              ///< lambda >= 0, 1/s
+    bool decay_dissolved_only = false;  ///< decay acts on the dissolved phase only (not the sorbed)
+    ScalarField source;                 ///< volumetric source, concentration units per second, per bulk volume
     std::optional<ScalarField> initial; ///< phase concentration, overrides [initial] value
-    double loading = 0;    ///< total initial content per bulk volume (with a dispersed phase); 0: none
-    double solubility = 0; ///< phase concentration at saturation; 0: unlimited
-    double cell_size = 0;  ///< m; 0: the geometry's
+    double loading = 0;                 ///< total initial content per bulk volume (with a dispersed phase); 0: none
+    double solubility = 0;              ///< phase concentration at saturation; 0: unlimited
+    double cell_size = 0;               ///< m; 0: the geometry's
 
     /// Storage capacity C = theta R K (multiplies du/dt).
     double capacity() const { return porosity * retardation * partition; }
@@ -180,8 +180,8 @@ namespace fickcast
   {
     unsigned int degree = 2;
     LinearSolverKind linear_solver = LinearSolverKind::automatic;
-    double solver_tolerance = 1e-12; ///< relative residual of the iterative solver
-    bool newton = true;              ///< Newton (else Picard) for concentration-dependent D
+    double solver_tolerance = 1e-12;   ///< relative residual of the iterative solver
+    bool newton = true;                ///< Newton (else Picard) for concentration-dependent D
     double nonlinear_tolerance = 1e-8; ///< change per iteration relative to the concentration scale
     unsigned int max_nonlinear_iterations = 30;
   };
@@ -190,7 +190,7 @@ namespace fickcast
   {
     std::string name;
     std::array<double, 3> point{{0, 0, 0}}; ///< m
-    std::string region; ///< side to read at an interface (`... in REGION`); empty: any
+    std::string region;                     ///< side to read at an interface (`... in REGION`); empty: any
   };
 
   /// A named level: first time the probe of the same name reaches it (threshold), or the

@@ -597,8 +597,9 @@ namespace fickcast
       for (int pass = 0; pass < 3 && basis == concentration_bases.size(); ++pass)
         for (const auto &entry : entries)
           {
-            const KeySpec *spec = section_kind(entry.section) == "stage" ? stage_boundary_key(entry.key)
-                                                                         : find_key(section_kind(entry.section), entry.key);
+            const KeySpec *spec = section_kind(entry.section) == "stage"
+                                    ? stage_boundary_key(entry.key)
+                                    : find_key(section_kind(entry.section), entry.key);
             if (spec == nullptr || (spec->kind != ValueKind::quantity && spec->kind != ValueKind::field))
               continue;
             Dim dim = spec->dim;

@@ -134,10 +134,9 @@ namespace fickcast
       s.push_back(positive(make("region", "cell_size", K::quantity, Dim::length, "",
                                 "cell size in this layer (overrides geometry.cell_size)")));
       // [boundary.NAME]
-      s.push_back(
-        required(choices(make("boundary", "type", K::choice, Dim::none, "",
-                              "concentration, flux, transfer, sealed or bath"),
-                         {"concentration", "flux", "transfer", "sealed", "bath"})));
+      s.push_back(required(
+        choices(make("boundary", "type", K::choice, Dim::none, "", "concentration, flux, transfer, sealed or bath"),
+                {"concentration", "flux", "transfer", "sealed", "bath"})));
       s.push_back(variables(make("boundary", "value", K::field, Dim::boundary_value, "",
                                  "concentration inside the material at the face (type concentration) "
                                  "or inward flux (type flux); {expression of x, y, z, t} allowed"),
@@ -154,14 +153,15 @@ namespace fickcast
       s.push_back(positive(make("boundary", "partition", K::quantity, Dim::dimensionless, "",
                                 "bath liquid's partition coefficient against the reference phase (type bath)")));
       s.push_back(bounded(make("boundary", "initial", K::quantity, Dim::concentration, "",
-                               "initial concentration in the bath (type bath)"), 0, false));
+                               "initial concentration in the bath (type bath)"),
+                          0, false));
       // [initial]
       s.push_back(variables(make("initial", "value", K::field, Dim::concentration, "0",
                                  "initial concentration ({expression of x, y, z} allowed)"),
                             {"x", "y", "z"}));
       // [time]
-      s.push_back(positive(make("time", "end", K::quantity, Dim::time, "",
-                                "end time of the run (required unless stages give it)")));
+      s.push_back(positive(
+        make("time", "end", K::quantity, Dim::time, "", "end time of the run (required unless stages give it)")));
       s.push_back(with_auto(positive(
         make("time", "step", K::quantity, Dim::time, "", "fixed time step, or auto for error-controlled steps"))));
       s.push_back(bounded(make("time", "tolerance", K::quantity, Dim::dimensionless, "1e-4",

@@ -56,7 +56,8 @@ namespace fickcast
             if (!std::regex_match(cells[0], time_match, column) || !std::regex_match(cells[1], value_match, column))
               throw InputError(where, "",
                                "expected a header 'time [unit], value [unit]' such as 'time [h], value [mg/L]', "
-                               "found '" + line + "'");
+                               "found '" +
+                                 line + "'");
             try
               {
                 const UnitSystem &units = UnitSystem::instance();
@@ -86,8 +87,9 @@ namespace fickcast
             throw InputError(where, "", error.what());
           }
         if (!table.times.empty() && !(t > table.times.back()))
-          throw InputError(where, "", "expected times that increase from row to row, found " +
-                                        std::to_string(t) + " s after " + std::to_string(table.times.back()) + " s");
+          throw InputError(where, "",
+                           "expected times that increase from row to row, found " + std::to_string(t) + " s after " +
+                             std::to_string(table.times.back()) + " s");
         table.times.push_back(t);
         table.values.push_back(v);
       }

@@ -1,8 +1,9 @@
-// The finite-element discretisation of C du/dt = div(G grad u) - lambda C u + s on one mesh.
+// The finite-element discretisation of C du/dt = div(G grad u) - k u + s on one mesh.
 #pragma once
 
 #include "case/case_description.h"
 #include "geometry/layered_mesh.h"
+#include "model/diffusivity.h"
 #include "model/scalar_function.h"
 #include "numerics/linear_solver.h"
 #include "numerics/phase_timer.h"
@@ -22,30 +23,35 @@
 
 namespace fickcast
 {
-  /// How one step is taken: the theta scheme (implicit Euler theta = 1, Crank-Nicolson 1/2) or
-  /// variable-step BDF2 with coefficients alpha (alpha0 u1 + alpha1 u0 + alpha2 u_prev).
+  /**
+   * One step written as
+   *
+   *   M (a0 u1 + a1 u0 + a2 u_prev) + w1 (L1 u1 - F1) + w0 (L0 u0 - F0) = R
+   *
+   * with L the operator and F the forcing at the two ends of the step and R the reactions of
+   * fixed unknowns (amounts entering through concentration boundaries and baths). Implicit Euler:
+   * a = (1, -1, 0), w1 = dt; Crank-Nicolson: w1 = w0 = dt/2; BDF2: a from the step ratio, w1 = dt,
+   * w0 = 0. With a clock tau (temperature schedules) dt is the clock step divided by its rate.
+   */
   struct StepPlan
   {
-    double t0 = 0;
-    double t1 = 0;
-    bool bdf2 = false;
-    double theta = 1;
-    double alpha0 = 1, alpha1 = -1, alpha2 = 0;
-    double dt() const { return t1 - t0; }
+    double t0 = 0, t1 = 0;
+    double a0 = 1, a1 = -1, a2 = 0;
+    double w1 = 0, w0 = 0;
   };
 
   /// What a step gives besides the new state.
   struct StepResult
   {
-    /// Per boundary (index = boundary id): the amount entering through it in the step
-    /// (theta scheme), or dt times the inward rate at t1 (BDF2); nonzero only on
-    /// concentration boundaries, from the residual of the discrete equations.
-    std::vector<double> dirichlet_terms;
+    /// Per boundary id: R summed over its fixed unknowns (concentration and bath boundaries).
+    std::vector<double> reactions;
     unsigned int linear_iterations = 0;
-    bool matrix_rebuilt = false;
+    unsigned int nonlinear_iterations = 0;
+    unsigned int active_set_iterations = 0;
+    bool converged = true; ///< the nonlinear iteration met its tolerance
   };
 
-  /// Instantaneous rates of the terms that are not reactions (SI amount per time).
+  /// Instantaneous rates (amount per time) of the terms that are not reactions.
   struct TermRates
   {
     std::vector<double> boundary_inflow; ///< per boundary id: flux and transfer boundaries
@@ -54,17 +60,21 @@ namespace fickcast
   };
 
   /**
-   * Owns the mesh, the finite element space, and the operators of the model of DESIGN.md
-   * section 2, in the capacity/conductance form with u the reference-phase concentration
-   * (continuous) and c = K u the phase concentration of each region:
+   * Owns the mesh, the finite element space and the operators of the model of DESIGN.md
+   * section 2 in the capacity/conductance form. The unknown u is the reference-phase
+   * concentration (continuous across interfaces); each region's phase concentration is c = K u.
    *
-   *   M = int C phi_i phi_j,  L = int G grad phi_i . grad phi_j + int lambda C phi_i phi_j
-   *       + sum_transfer int h K phi_i phi_j,  C = theta R K,  G = theta tau K D.
+   *   M = int C phi_i phi_j,   C = theta R K
+   *   L = int G grad phi_i . grad phi_j + int k phi_i phi_j + sum_transfer int h K phi_i phi_j,
+   *   G = theta tau K D,  k = lambda theta K (R if sorbed amounts decay too)
    *
-   * Concentration boundaries are imposed by lifting: the constrained copies of M and L (rows
-   * and columns of the fixed unknowns removed) form the symmetric step matrix; the unconstrained
-   * ones give the residual whose rows at fixed unknowns are the boundary reactions (fluxes).
-   * Operators are assembled once and reassembled only when D depends on time.
+   * L is kept in parts: a static part (constant coefficients, decay, transfer), one unit-D matrix
+   * per region whose D depends on time only (rescaled per step instead of reassembled), and a
+   * dynamic part reassembled when D depends on position and time or on the concentration.
+   * Concentration and bath boundaries are fixed unknowns imposed by lifting; the unconstrained
+   * residual at them gives the reactions (boundary fluxes). A bath's value follows from its mass
+   * balance by superposition. Undissolved content (loading above solubility) sits in a nodal
+   * reserve; nodes holding reserve stay at saturation (an active set).
    * Distributed over MPI ranks in 2-D and 3-D (p4est); 1-D runs on one rank.
    */
   template <int dim>
@@ -76,10 +86,11 @@ namespace fickcast
     DiffusionProblem(const CaseDescription &description, MPI_Comm communicator);
     ~DiffusionProblem();
 
-    /// Builds the mesh and the space, assembles the time-independent operators.
+    /// Builds the mesh, the space and the models; applies the first stage.
     void setup();
-    /// Wall time per phase so far (set-up, assembly, matrix set-up, solve).
-    PhaseTimer &timer() const { return timer_; }
+    /// Applies the boundary conditions of stage @p stage (rebuilds constraints and operators).
+    void set_stage(unsigned int stage);
+    unsigned int stage() const { return stage_; }
 
     // --- the discretisation
     const dealii::DoFHandler<dim> &dof_handler() const { return dof_handler_; }
@@ -92,65 +103,89 @@ namespace fickcast
     dealii::types::global_dof_index n_dofs() const { return dof_handler_.n_dofs(); }
     unsigned int degree() const { return fe_.degree; }
     bool uses_direct_solver() const;
+    PhaseTimer &timer() const { return timer_; }
+    unsigned int n_matrix_setups() const { return solver_ ? solver_->n_setups() : 0; }
 
-    // --- coefficients
-    double partition(dealii::types::material_id region) const;
-    double capacity(dealii::types::material_id region) const;
-    /// Conductance G = theta tau K D at a point and time.
-    double conductance(dealii::types::material_id region, const dealii::Point<dim> &point, double t) const;
-    /// Effective diffusivity tau D at a point and time.
-    double effective_diffusivity(dealii::types::material_id region, const dealii::Point<dim> &point, double t) const;
-    /// Throws InputError on every rank if any rank met a non-physical coefficient (collective).
-    void check_coefficients() const;
+    // --- the model
+    double partition(dealii::types::material_id region) const { return regions_[region]->partition; }
+    double capacity(dealii::types::material_id region) const { return regions_[region]->capacity(); }
+    /// Effective diffusivity tau D at a point, time and phase concentration.
+    double effective_diffusivity(dealii::types::material_id region, const dealii::Point<dim> &point, double t,
+                                 double c = 0) const;
+    /// Conductance G = theta tau K D.
+    double conductance(dealii::types::material_id region, const dealii::Point<dim> &point, double t,
+                       double c = 0) const;
     /// Weight of the coordinate system at a point (1 for Cartesian).
     double coordinate_weight(const dealii::Point<dim> &point) const;
+    /// Throws InputError on every rank if any rank met a non-physical coefficient (collective).
+    void check_coefficients() const;
+    /// The rate of the integration clock: the relative diffusivity of the region whose D changes
+    /// in time only (1 if none), so that stepping in tau = int rate dt is exact for it.
+    double clock_rate(double t) const;
+    bool has_clock() const { return clock_region_ >= 0; }
+    bool is_nonlinear() const { return nonlinear_; }
+    bool has_dispersed_phase() const { return dispersed_; }
 
     // --- state
     Vector make_vector() const;
     Vector make_ghosted(const Vector &owned) const;
-    /// u at t = 0: the initial phase concentration divided by each region's partition.
-    void initial_state(Vector &u) const;
+    /// u at t = 0: the initial phase concentration over the partition (saturation where a loading
+    /// exceeds the solubility); fills the undissolved reserve and the bath values.
+    void initial_state(Vector &u);
+    /// A scale for u: the largest initial and boundary value magnitude (collective, > 0 if any).
+    double concentration_scale() const;
+    /// Zeroes the fixed unknowns of @p v (concentration boundaries and baths).
+    void zero_fixed(Vector &v) const;
 
-    /// Takes one step; @p u_prev is the state before u0 (BDF2 only). @p u1 holds an initial
-    /// guess on entry (iterative solver). Throws RunFailure.
+    /// Takes one step from @p u0 (and @p u_prev for BDF2); @p u1 holds an initial guess.
+    /// Updates bath values and reserves; keeps the previous ones for accept_step / reject_step.
     StepResult advance(const StepPlan &plan, const Vector &u0, const Vector *u_prev, Vector &u1);
+    /// Makes the last step's bath values and reserves the current ones.
+    void accept_step();
 
     // --- observables (collective)
-    /// Amount in each region (index = material id): int C u, dissolved and sorbed.
+    /// Dissolved and sorbed amount in each region (index = material id), int C u.
     std::vector<double> region_amounts(const Vector &u) const;
-    /// Rates of the non-reaction terms at state @p u and time @p t.
+    /// Undissolved amount (reserve) in total.
+    double undissolved_amount() const;
+    /// Rates of the non-reaction terms at @p u and @p t.
     TermRates rates(const Vector &u, double t) const;
-    /// Kind of each boundary (index = boundary id).
-    BoundaryKind boundary_kind(unsigned int boundary) const { return boundary_kinds_[boundary]; }
-    /// A scale for the concentration u: the largest initial and boundary value magnitude (> 0).
-    double concentration_scale() const;
-    /// Sets the entries of fixed (concentration-boundary) unknowns of @p v to zero.
-    void zero_fixed(Vector &v) const;
-    /// Factorisations or multigrid set-ups so far.
-    unsigned int n_matrix_setups() const { return solver_ ? solver_->n_setups() : 0; }
-    /// Unknown (reference-phase) value imposed on concentration boundary @p boundary at a point.
-    double dirichlet_value(unsigned int boundary, const dealii::Point<dim> &point, double t) const;
+    BoundaryKind boundary_kind(unsigned int boundary) const { return boundary_specs_[boundary]->kind; }
+    /// Concentration in the bath on boundary @p boundary (bath phase; NaN if not a bath).
+    double bath_concentration(unsigned int boundary) const;
+    /// Amount held by the bath on @p boundary (0 if not a bath).
+    double bath_amount(unsigned int boundary) const;
 
   private:
-    struct Operator
+    struct MatrixPair
     {
-      dealii::TrilinosWrappers::SparseMatrix full;        ///< L, unconstrained
-      dealii::TrilinosWrappers::SparseMatrix constrained; ///< L with fixed rows/columns removed
-      double time = -1;
-      unsigned long version = 0;
+      dealii::TrilinosWrappers::SparseMatrix full;        ///< unconstrained
+      dealii::TrilinosWrappers::SparseMatrix constrained; ///< fixed rows and columns removed
     };
 
+    // Set-up (diffusion_problem.cc).
     void make_mesh();
     void setup_dofs();
-    void assemble_constant_parts();
+    void setup_fixed_unknowns();
+    void reinit(MatrixPair &pair);
+
+    // Assembly (operator_assembly.cc).
     unsigned int quadrature_points_per_axis() const;
-    void assemble_operator(double t, Operator &op);
+    void assemble_constant_parts();
+    void assemble_dynamic(double t, const Vector *u_ghosted, bool with_jacobian);
+    void apply_operator(double t, const Vector &u, Vector &out) const;
+    void apply_dynamic(double t, const Vector &u_ghosted, Vector &out) const;
     void forcing(double t, Vector &f) const;
     void sources(double t, Vector &f) const;
-    /// Inward rate through flux or transfer boundary @p b from its given value (flux) or ambient
-    /// (transfer) at time t; adds the load vector to @p f when given.
     double boundary_forcing(unsigned int b, double t, Vector *f) const;
-    const Operator &operator_at(double t, bool trial);
+
+    // Steps (step_solve.cc).
+    void build_system(const StepPlan &plan, bool jacobian);
+    void apply_frozen(double t, const Vector &x, Vector &out) const;
+    void solve_fixed(const StepPlan &plan, const Vector &rhs, Vector &u1, Vector &rhs_used, StepResult &result);
+    void newton(const StepPlan &plan, const Vector &rhs, Vector &u1, StepResult &result);
+    void solve_linear(const dealii::TrilinosWrappers::SparseMatrix *modified, Vector &x, const Vector &b,
+                      StepResult &result);
 
     const CaseDescription &description_;
     MPI_Comm communicator_;
@@ -161,34 +196,53 @@ namespace fickcast
     dealii::DoFHandler<dim> dof_handler_;
     dealii::IndexSet owned_, relevant_;
     dealii::AffineConstraints<double> constraints_;
+    unsigned int stage_ = 0;
 
-    // Model, indexed by material id and boundary id.
-    std::vector<ScalarFunction> diffusivity_, source_;
-    std::vector<BoundaryKind> boundary_kinds_;
+    // Model by material id and boundary id.
+    std::vector<const RegionSpec *> regions_;
+    std::vector<Diffusivity> diffusivity_;
+    std::vector<ScalarFunction> source_;
+    std::vector<int> unit_index_; ///< per region: index into unit_ (D uniform, time-dependent), or -1
+    std::vector<bool> dynamic_;   ///< per region: assembled per time or iterate
+    int clock_region_ = -1;
+    double clock_reference_ = 1;
+    bool nonlinear_ = false, dispersed_ = false;
     std::vector<const BoundarySpec *> boundary_specs_;
     std::vector<ScalarFunction> boundary_value_, boundary_ambient_;
     std::vector<double> boundary_partition_; ///< K of the region touching each boundary
-    bool operator_depends_on_time_ = false;
     bool source_depends_on_space_ = false;
 
     // Operators and weights.
-    dealii::TrilinosWrappers::SparseMatrix mass_, mass_constrained_, system_;
-    Operator current_, trial_;
-    unsigned long operator_versions_ = 0;
-    std::vector<Vector> region_mass_;         ///< M_r 1 per region
-    std::vector<Vector> region_load_;         ///< int phi w per region (constant sources)
-    Vector decay_weights_;                    ///< R 1
-    std::vector<double> boundary_load_total_; ///< sum of boundary_load_ entries
-    std::vector<double> region_load_total_;   ///< sum of region_load_ entries (region measure)
-    std::vector<Vector> transfer_rowsum_;     ///< B_b 1 per boundary
-    std::vector<Vector> boundary_load_;       ///< int phi w over boundary b (times h K for transfer)
-    std::vector<std::pair<dealii::types::global_dof_index, unsigned int>> fixed_dofs_; ///< owned
-    std::vector<dealii::Point<dim>> fixed_points_; ///< support point of each entry of fixed_dofs_
-    double system_a_ = -1, system_b_ = -1;
-    double hierarchy_b_over_a_ = -1; ///< b / a of the matrix the preconditioner was built for
-    unsigned long system_version_ = 0;
+    MatrixPair mass_, static_, dynamic_matrices_;
+    std::vector<MatrixPair> unit_;
+    dealii::TrilinosWrappers::SparseMatrix system_, modified_;
+    std::vector<double> system_key_;    ///< coefficients the system matrix was built with
+    std::vector<double> hierarchy_key_; ///< coefficients of the matrix the preconditioner was built on
+    double dynamic_time_ = -1;
+    bool dynamic_valid_ = false;
+    bool dynamic_is_jacobian_ = false;
+    unsigned long dynamic_version_ = 0;
+    std::vector<Vector> region_mass_; ///< M_r 1 per region
+    std::vector<Vector> region_load_; ///< int phi w per region
+    std::vector<double> region_load_total_;
+    Vector decay_weights_;                ///< (k-part of L) 1
+    std::vector<Vector> transfer_rowsum_; ///< B_b 1 per boundary
+    std::vector<Vector> boundary_load_;   ///< int phi w over boundary b (times h K for transfer)
+    std::vector<double> boundary_load_total_;
+
+    // Fixed unknowns: concentration boundaries and baths (owned entries).
+    std::vector<std::pair<dealii::types::global_dof_index, unsigned int>> fixed_dofs_;
+    std::vector<dealii::Point<dim>> fixed_points_;
+    std::vector<unsigned int> baths_; ///< boundary ids of baths in this stage
+    /// u on each bath (per boundary id): accepted, the one before (BDF2), and the trial step's.
+    std::vector<double> bath_value_, bath_value_prev_, bath_trial_;
+
+    // Undissolved reserve (amount per node): accepted and trial; saturation value of u per node.
+    Vector reserve_, reserve_trial_, saturation_;
+    std::vector<bool> dispersed_node_; ///< per owned dof (local index): in a region with a solubility
+
     std::unique_ptr<LinearSolver> solver_;
-    mutable std::string bad_coefficient_; ///< first non-physical coefficient met on this rank
+    mutable std::string bad_coefficient_;
     mutable PhaseTimer timer_;
   };
 } // namespace fickcast

@@ -31,11 +31,16 @@ namespace fickcast
      * one still converges (both are symmetric positive definite), and a set-up costs several
      * solves. The hierarchy is rebuilt when the step changed by more than a factor of 3.
      */
-    void set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix, double change = 0);
+    void set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix, double change = 0, bool symmetric = true);
 
     /// Solves matrix x = b; @p x is the initial guess on entry. Returns the iteration count
     /// (1 for the direct solver). Throws RunFailure if CG does not converge.
     unsigned int solve(dealii::TrilinosWrappers::MPI::Vector &x, const dealii::TrilinosWrappers::MPI::Vector &b);
+
+    /// Solves with another matrix close to the current one (rows replaced, a Jacobian): a fresh
+    /// factorisation (direct), or GMRES preconditioned with the current multigrid (iterative).
+    unsigned int solve_other(const dealii::TrilinosWrappers::SparseMatrix &matrix,
+                             dealii::TrilinosWrappers::MPI::Vector &x, const dealii::TrilinosWrappers::MPI::Vector &b);
 
     bool is_direct() const { return direct_; }
     /// Number of factorisations or multigrid set-ups so far.
@@ -43,6 +48,7 @@ namespace fickcast
 
   private:
     bool direct_;
+    bool symmetric_ = true;
     double tolerance_;
     bool higher_order_;
     const dealii::TrilinosWrappers::SparseMatrix *matrix_ = nullptr;

@@ -27,6 +27,12 @@ namespace fickcast
     std::vector<double> depths; ///< m from the top face; NaN where c never falls below the level
   };
 
+  struct StageRecord
+  {
+    std::string name;
+    double start = 0, end = 0; ///< s
+  };
+
   struct RunRecord
   {
     std::string status = "completed"; ///< completed, failed
@@ -41,10 +47,14 @@ namespace fickcast
     unsigned int steps_accepted = 0;
     unsigned int steps_rejected = 0;
     unsigned long linear_iterations = 0;
+    unsigned long nonlinear_iterations = 0;
     unsigned int matrix_setups = 0;
     double wall_time = 0; ///< s
     std::vector<std::string> regions, boundaries;
     std::vector<double> initial_region_amounts, final_region_amounts;
+    double initial_undissolved = 0, final_undissolved = 0; ///< content above solubility
+    std::vector<double> bath_final; ///< per boundary: final bath concentration (NaN if not a bath)
+    std::vector<StageRecord> stages;
     std::vector<double> boundary_entered; ///< cumulative amount in through each boundary
     double source_total = 0;
     double decayed_total = 0;

@@ -1,6 +1,7 @@
 #include "numerics/simulation.h"
 
 #include "case/input_error.h"
+#include "model/clock.h"
 #include "numerics/diffusion_problem.h"
 #include "numerics/step_controller.h"
 #include "results/csv_writer.h"
@@ -39,10 +40,25 @@ namespace fickcast
       return unique;
     }
 
-    /// One remembered state for error estimation and BDF2.
+    /// Times a step must land on: output times and stage ends.
+    std::vector<double> hard_times(const CaseDescription &c, const std::vector<double> &outputs)
+    {
+      std::vector<double> times = outputs;
+      for (const auto &stage : c.stages)
+        times.push_back(stage.end());
+      std::sort(times.begin(), times.end());
+      std::vector<double> unique;
+      for (const double t : times)
+        if (t > 0 && (unique.empty() || t - unique.back() > 1e-12 * c.time.end))
+          unique.push_back(t);
+      return unique;
+    }
+
+    /// One remembered state: clock reading, time and u.
     template <typename Vector>
     struct Snapshot
     {
+      double clock;
       double time;
       Vector state;
     };
@@ -80,15 +96,19 @@ namespace fickcast
     record.boundaries = problem.names().boundaries;
     const unsigned int n_boundaries = record.boundaries.size();
     record.boundary_entered.assign(n_boundaries, 0.0);
+    for (const auto &stage : c.stages)
+      record.stages.push_back({stage.name, stage.start, stage.end()});
 
     // Probes, thresholds, depths.
     std::vector<Point<dim>> probe_points;
+    std::vector<std::string> probe_regions;
     for (const auto &probe : c.output.probes)
       {
         Point<dim> p;
         for (int d = 0; d < dim; ++d)
           p[d] = probe.point[d];
         probe_points.push_back(p);
+        probe_regions.push_back(probe.region);
         ProbeRecord probe_record;
         probe_record.name = probe.name;
         for (const auto &threshold : c.output.thresholds)
@@ -96,7 +116,7 @@ namespace fickcast
             probe_record.threshold = threshold.level;
         record.probes.push_back(probe_record);
       }
-    const PointEvaluator<dim> probes(problem, probe_points, "output.probe");
+    const PointEvaluator<dim> probes(problem, probe_points, "output.probe", probe_regions);
 
     const double total_thickness = c.geometry.total_thickness();
     std::vector<Point<dim>> line_points;
@@ -120,20 +140,41 @@ namespace fickcast
     for (const auto &depth : c.output.depths)
       record.depths.push_back(DepthRecord{depth.name, depth.level, {}, {}});
 
+    // Which boundaries are ever active, and which are ever baths.
+    std::vector<bool> active_boundary(n_boundaries, false), bath_boundary(n_boundaries, false);
+    for (const auto &stage : c.stages)
+      for (unsigned int b = 0; b < n_boundaries; ++b)
+        {
+          const BoundarySpec *spec = stage.find_boundary(record.boundaries[b]);
+          if (spec && spec->kind != BoundaryKind::sealed)
+            active_boundary[b] = true;
+          if (spec && spec->kind == BoundaryKind::bath)
+            bath_boundary[b] = true;
+        }
+    record.bath_final.assign(n_boundaries, not_a_number);
+
     // Series columns.
     const std::string amount_unit = c.units.amount;
     const std::string rate_unit = c.units.amount + "/s";
-    std::vector<Column> columns{{"time", "s"}, {"step", ""}, {"dt", "s"}, {"amount.total", amount_unit}};
+    std::vector<Column> columns{{"time", "s"}, {"step", ""}, {"dt", "s"}};
+    if (c.stages.size() > 1)
+      columns.push_back({"stage", ""});
+    if (!c.temperature.empty())
+      columns.push_back({"temperature", "K"});
+    columns.push_back({"amount.total", amount_unit});
     for (const auto &r : record.regions)
       columns.push_back({"amount." + r, amount_unit});
-    std::vector<unsigned int> active_boundaries;
+    if (problem.has_dispersed_phase())
+      columns.push_back({"undissolved.total", amount_unit});
     for (unsigned int b = 0; b < n_boundaries; ++b)
-      if (problem.boundary_kind(b) != BoundaryKind::sealed)
+      if (active_boundary[b])
         {
-          active_boundaries.push_back(b);
           columns.push_back({"flux_in." + record.boundaries[b], rate_unit});
           columns.push_back({"amount_in." + record.boundaries[b], amount_unit});
         }
+    for (unsigned int b = 0; b < n_boundaries; ++b)
+      if (bath_boundary[b])
+        columns.push_back({"bath." + record.boundaries[b], c.units.concentration});
     bool has_source = false, has_decay = false;
     for (const auto &r : c.regions)
       {
@@ -148,6 +189,8 @@ namespace fickcast
     for (const auto &probe : c.output.probes)
       columns.push_back({"probe." + probe.name, c.units.concentration});
     columns.push_back({"linear_iterations", ""});
+    if (problem.is_nonlinear())
+      columns.push_back({"nonlinear_iterations", ""});
     CsvWriter series;
     if (root)
       series.open(folder + "/series.csv", columns);
@@ -156,21 +199,32 @@ namespace fickcast
     if (c.output.write_fields)
       fields = std::make_unique<FieldWriter<dim>>(problem, folder + "/fields");
 
+    // The clock: tau = int phi dt when a region's D changes in time only (temperature schedules).
+    Clock clock;
+    if (problem.has_clock())
+      {
+        std::vector<double> breaks = c.temperature.times;
+        for (const auto &stage : c.stages)
+          breaks.push_back(stage.start);
+        clock = Clock([&problem](double t) { return problem.clock_rate(t); }, breaks, c.time.end);
+      }
+
     // Initial state.
     Vector u = problem.make_vector();
     problem.initial_state(u);
-    std::deque<Snapshot<Vector>> history; // newest first: (t0,u0), (t-1,u-1), (t-2,u-2)
-    history.push_front({0.0, u});
+    std::deque<Snapshot<Vector>> history; // newest first
+    history.push_front({0.0, 0.0, u});
     record.initial_region_amounts = problem.region_amounts(u);
-    double reference_amount = 0;
+    record.initial_undissolved = problem.undissolved_amount();
+    double reference_amount = std::abs(record.initial_undissolved);
     for (const double a : record.initial_region_amounts)
       reference_amount += std::abs(a);
 
     TermRates rates_old = problem.rates(u, 0.0);
-    std::vector<double> dirichlet_rate_old(n_boundaries, not_a_number);
-    std::vector<double> amounts_prev(n_boundaries + 2, 0.0); // per boundary, source, decay (BDF2 recursion)
+    std::vector<double> reaction_rate_old(n_boundaries, not_a_number);
+    std::vector<double> amounts_prev(n_boundaries + 2, 0.0); // per boundary, source, decay
     double source_total = 0, decayed_total = 0, balance = 0;
-    unsigned int last_iterations = 0;
+    unsigned int last_iterations = 0, last_nonlinear = 0;
     std::vector<double> probe_values = probes.concentrations(problem.make_ghosted(u));
     for (std::size_t k = 0; k < record.probes.size(); ++k)
       if (std::isfinite(record.probes[k].threshold) && probe_values[k] >= record.probes[k].threshold)
@@ -179,16 +233,28 @@ namespace fickcast
     auto write_row = [&](const double t, const unsigned int step, const double dt, const Vector &state,
                          const std::vector<double> &boundary_rates) {
       const auto amounts = problem.region_amounts(state);
-      double total = 0;
+      const double undissolved = problem.undissolved_amount();
+      double total = undissolved;
       for (const double a : amounts)
         total += a;
-      std::vector<double> row{t, static_cast<double>(step), dt, total};
+      std::vector<double> row{t, static_cast<double>(step), dt};
+      if (c.stages.size() > 1)
+        row.push_back(problem.stage());
+      if (!c.temperature.empty())
+        row.push_back(c.temperature.at(t));
+      row.push_back(total);
       row.insert(row.end(), amounts.begin(), amounts.end());
-      for (const unsigned int b : active_boundaries)
-        {
-          row.push_back(boundary_rates[b]);
-          row.push_back(record.boundary_entered[b]);
-        }
+      if (problem.has_dispersed_phase())
+        row.push_back(undissolved);
+      for (unsigned int b = 0; b < n_boundaries; ++b)
+        if (active_boundary[b])
+          {
+            row.push_back(boundary_rates[b]);
+            row.push_back(record.boundary_entered[b]);
+          }
+      for (unsigned int b = 0; b < n_boundaries; ++b)
+        if (bath_boundary[b])
+          row.push_back(problem.bath_concentration(b));
       if (has_source)
         row.push_back(source_total);
       if (has_decay)
@@ -196,6 +262,8 @@ namespace fickcast
       row.push_back(balance);
       row.insert(row.end(), probe_values.begin(), probe_values.end());
       row.push_back(last_iterations);
+      if (problem.is_nonlinear())
+        row.push_back(last_nonlinear);
       if (root)
         series.write(row);
     };
@@ -234,66 +302,94 @@ namespace fickcast
     {
       std::vector<double> initial_rates = rates_old.boundary_inflow;
       for (unsigned int b = 0; b < n_boundaries; ++b)
-        if (problem.boundary_kind(b) == BoundaryKind::concentration)
+        if (problem.boundary_kind(b) == BoundaryKind::concentration || problem.boundary_kind(b) == BoundaryKind::bath)
           initial_rates[b] = not_a_number; // undefined at the instant the condition starts
       write_row(0.0, 0, 0.0, u, initial_rates);
       output_fields(0.0, u);
     }
 
-    const std::vector<double> schedule = output_schedule(c);
-    StepController controller(c.time, c.time.end);
+    const std::vector<double> outputs = output_schedule(c);
+    const std::vector<double> hard = hard_times(c, outputs);
+    const double clock_end = clock.tau(c.time.end);
+    TimeSpec steps = c.time;
+    if (!clock.is_identity() && steps.adaptive)
+      {
+        // Step limits are given in time; the controller works on the clock.
+        const double ratio = clock_end / c.time.end;
+        steps.initial_step *= ratio;
+        steps.max_step *= ratio;
+      }
+    StepController controller(steps, clock_end);
     const double scale = std::max(problem.concentration_scale(), 1e-300);
-    double t = 0;
+    const bool dispersed = problem.has_dispersed_phase();
+    double t = 0, s = 0;
     unsigned int step = 0, steps_since_restart = 0;
-    std::size_t next_output = 0;
-    double previous_dt = 0;
+    std::size_t next_hard = 0, next_output = 0;
+    double previous_ds = 0;
     Vector u_new = problem.make_vector();
 
     try
       {
-        while (next_output < schedule.size())
+        while (next_hard < hard.size())
           {
             if (stop_requested())
               throw RunFailure("interrupted by a signal at t = " + std::to_string(t) + " s");
-            const double hard = schedule[next_output];
-            double dt = controller.step_from(t, hard, previous_dt);
-            if (dt < controller.min_step())
+            const double hard_t = hard[next_hard];
+            const double hard_s = clock.tau(hard_t);
+            double ds = 0, t1 = 0;
+            bool landing = false;
+            if (controller.adaptive())
+              {
+                ds = controller.step_from(s, hard_s, previous_ds);
+                landing = std::abs(s + ds - hard_s) <= 1e-12 * clock_end || ds >= hard_s - s;
+                t1 = landing ? hard_t : clock.time(s + ds);
+                if (landing)
+                  ds = hard_s - s;
+              }
+            else
+              {
+                const double dt_fixed = std::min(c.time.step, hard_t - t);
+                landing = t + dt_fixed >= hard_t * (1 - 1e-12) || hard_t - (t + dt_fixed) < 1e-9 * c.time.step;
+                t1 = landing ? hard_t : t + dt_fixed;
+                ds = clock.tau(t1) - s;
+              }
+            if (ds < controller.min_step())
               throw RunFailure("the time step fell below " + std::to_string(controller.min_step()) +
                                " s at t = " + std::to_string(t) + " s");
-            const bool landing = std::abs(t + dt - hard) <= 1e-12 * c.time.end + 1e-300 || dt >= hard - t;
-            const double t1 = landing ? hard : t + dt;
-            dt = t1 - t;
-            const bool shortened = dt < controller.proposal() * (1 - 1e-9);
+            const bool shortened = ds < controller.proposal() * (1 - 1e-9);
+            const double phi0 = clock.rate(t), phi1 = clock.rate(t1);
 
-            // Scheme for this step.
+            // Scheme for this step (BDF2 is not used with an undissolved reserve).
             StepPlan plan;
             plan.t0 = t;
             plan.t1 = t1;
             unsigned int order = 1;
+            bool bdf2 = false;
             const TimeScheme scheme = c.time.scheme;
-            if (scheme == TimeScheme::bdf2 && steps_since_restart >= 1 && history.size() >= 2)
+            if (scheme == TimeScheme::bdf2 && !dispersed && steps_since_restart >= 1 && history.size() >= 2)
               {
-                const double omega = dt / (history[0].time - history[1].time);
-                plan.bdf2 = true;
-                plan.alpha0 = (1 + 2 * omega) / (1 + omega);
-                plan.alpha1 = -(1 + omega);
-                plan.alpha2 = omega * omega / (1 + omega);
+                const double omega = ds / (history[0].clock - history[1].clock);
+                plan.a0 = (1 + 2 * omega) / (1 + omega);
+                plan.a1 = -(1 + omega);
+                plan.a2 = omega * omega / (1 + omega);
+                plan.w1 = ds / phi1;
+                bdf2 = true;
                 order = 2;
               }
             else if (scheme == TimeScheme::crank_nicolson && steps_since_restart >= c.time.start_steps)
               {
-                plan.theta = 0.5;
+                plan.w1 = 0.5 * ds / phi1;
+                plan.w0 = 0.5 * ds / phi0;
                 order = 2;
               }
             else
-              plan.theta = 1.0;
+              plan.w1 = ds / phi1;
 
-            const Vector *u_prev = plan.bdf2 ? &history[1].state : nullptr;
-            // Initial guess for an iterative solver: linear extrapolation of the last two states.
+            const Vector *u_prev = bdf2 ? &history[1].state : nullptr;
             u_new = u;
-            if (history.size() >= 2)
+            if (history.size() >= 2 && steps_since_restart >= 1)
               {
-                const double ratio = dt / (history[0].time - history[1].time);
+                const double ratio = ds / (history[0].clock - history[1].clock);
                 u_new.sadd(1 + ratio, -ratio, history[1].state);
               }
             const auto step_start = std::chrono::steady_clock::now();
@@ -302,50 +398,64 @@ namespace fickcast
                                 std::chrono::duration<double>(std::chrono::steady_clock::now() - step_start).count());
             record.linear_iterations += result.linear_iterations;
             last_iterations = result.linear_iterations;
+            last_nonlinear = result.nonlinear_iterations;
+            record.nonlinear_iterations += result.nonlinear_iterations;
 
-            // Local error estimate from extrapolating the history (free unknowns carry it all).
+            if (!result.converged)
+              {
+                ++record.steps_rejected;
+                if (!controller.adaptive())
+                  throw RunFailure("the nonlinear iteration did not converge within " +
+                                   std::to_string(c.numerics.max_nonlinear_iterations) + " iterations at t = " +
+                                   std::to_string(t1) + " s (a fixed step cannot be reduced; try step = auto)");
+                controller.judge(ds, 1e6, order, false);
+                if (controller.proposal() < controller.min_step())
+                  throw RunFailure("the nonlinear iteration did not converge within " +
+                                   std::to_string(c.numerics.max_nonlinear_iterations) +
+                                   " iterations, even with the smallest step, at t = " + std::to_string(t) + " s");
+                continue;
+              }
+
+            // Local error estimate from extrapolating the history (in the clock variable).
             bool accepted = true;
             if (controller.adaptive())
               {
                 const unsigned int points = std::min<std::size_t>(history.size(), order + 1);
-                if (points < 2)
-                  controller.accept_unjudged(dt, shortened);
+                if (points < 2 || steps_since_restart == 0)
+                  controller.accept_unjudged(ds, shortened);
                 else
                   {
-                    const unsigned int q = points - 1; // order of the estimate actually possible
+                    const unsigned int q = points - 1;
+                    const double s1 = s + ds;
                     Vector predicted = problem.make_vector();
                     double factor = 0;
                     if (q == 1)
                       {
-                        const double h1 = history[0].time - history[1].time;
-                        predicted.equ(1 + dt / h1, history[0].state);
-                        predicted.add(-dt / h1, history[1].state);
-                        factor = dt / (dt + h1);
-                        if (order == 2)
-                          factor *= 0.5; // a second-order step judged with a first-order estimate
+                        const double h1 = history[0].clock - history[1].clock;
+                        predicted.equ(1 + ds / h1, history[0].state);
+                        predicted.add(-ds / h1, history[1].state);
+                        factor = ds / (ds + h1) * (order == 2 ? 0.5 : 1.0);
                       }
                     else
                       {
-                        const double ta = history[0].time, tb = history[1].time, tc = history[2].time;
-                        const double la = (t1 - tb) * (t1 - tc) / ((ta - tb) * (ta - tc));
-                        const double lb = (t1 - ta) * (t1 - tc) / ((tb - ta) * (tb - tc));
-                        const double lc = (t1 - ta) * (t1 - tb) / ((tc - ta) * (tc - tb));
+                        const double ta = history[0].clock, tb = history[1].clock, tc = history[2].clock;
+                        const double la = (s1 - tb) * (s1 - tc) / ((ta - tb) * (ta - tc));
+                        const double lb = (s1 - ta) * (s1 - tc) / ((tb - ta) * (tb - tc));
+                        const double lc = (s1 - ta) * (s1 - tb) / ((tc - ta) * (tc - tb));
                         predicted.equ(la, history[0].state);
                         predicted.add(lb, history[1].state);
                         predicted.add(lc, history[2].state);
                         const double h1 = ta - tb, h2 = tb - tc;
-                        const double spread = (dt + h1) * (dt + h1 + h2);
-                        factor = plan.bdf2 ? (4.0 / 3.0) * dt * dt / spread : 0.5 * dt * dt / spread;
+                        const double spread = (ds + h1) * (ds + h1 + h2);
+                        factor = bdf2 ? (4.0 / 3.0) * ds * ds / spread : 0.5 * ds * ds / spread;
                       }
                     predicted -= u_new;
                     problem.zero_fixed(predicted);
                     const double error =
                       factor * predicted.linfty_norm() / (c.time.tolerance * std::max(scale, u_new.linfty_norm()));
-                    accepted = controller.judge(dt, error, order, shortened);
+                    accepted = controller.judge(ds, error, order, shortened);
                   }
               }
-            else
-              controller.accept_unjudged(dt, shortened);
             if (!accepted)
               {
                 ++record.steps_rejected;
@@ -354,46 +464,36 @@ namespace fickcast
 
             // Amounts moved in this step, consistent with the scheme (they close the balance).
             const TermRates rates_new = problem.rates(u_new, t1);
+            const double undissolved_before = problem.undissolved_amount();
+            problem.accept_step();
             std::vector<double> amounts(n_boundaries + 2, 0.0);
             std::vector<double> boundary_rates(n_boundaries, 0.0);
             for (unsigned int b = 0; b < n_boundaries; ++b)
               {
-                if (problem.boundary_kind(b) == BoundaryKind::concentration)
+                const BoundaryKind kind = problem.boundary_kind(b);
+                if (kind == BoundaryKind::concentration || kind == BoundaryKind::bath)
                   {
-                    if (plan.bdf2)
-                      {
-                        amounts[b] = result.dirichlet_terms[b];
-                        boundary_rates[b] = result.dirichlet_terms[b] / dt;
-                      }
+                    amounts[b] = result.reactions[b];
+                    if (plan.w0 == 0 || !std::isfinite(reaction_rate_old[b]))
+                      boundary_rates[b] = result.reactions[b] / (plan.w1 + plan.w0);
                     else
-                      {
-                        amounts[b] = result.dirichlet_terms[b];
-                        boundary_rates[b] = plan.theta == 1.0 || !std::isfinite(dirichlet_rate_old[b])
-                                              ? result.dirichlet_terms[b] / dt
-                                              : 2 * result.dirichlet_terms[b] / dt - dirichlet_rate_old[b];
-                      }
+                      boundary_rates[b] = (result.reactions[b] - plan.w0 * reaction_rate_old[b]) / plan.w1;
                   }
                 else
                   {
-                    amounts[b] = plan.bdf2 ? dt * rates_new.boundary_inflow[b]
-                                           : dt * (plan.theta * rates_new.boundary_inflow[b] +
-                                                   (1 - plan.theta) * rates_old.boundary_inflow[b]);
+                    amounts[b] = plan.w1 * rates_new.boundary_inflow[b] + plan.w0 * rates_old.boundary_inflow[b];
                     boundary_rates[b] = rates_new.boundary_inflow[b];
                   }
               }
-            amounts[n_boundaries] = plan.bdf2
-                                      ? dt * rates_new.source
-                                      : dt * (plan.theta * rates_new.source + (1 - plan.theta) * rates_old.source);
-            amounts[n_boundaries + 1] = plan.bdf2
-                                          ? dt * rates_new.decay
-                                          : dt * (plan.theta * rates_new.decay + (1 - plan.theta) * rates_old.decay);
-            if (plan.bdf2)
+            amounts[n_boundaries] = plan.w1 * rates_new.source + plan.w0 * rates_old.source;
+            amounts[n_boundaries + 1] = plan.w1 * rates_new.decay + plan.w0 * rates_old.decay;
+            if (bdf2)
               for (std::size_t k = 0; k < amounts.size(); ++k)
-                amounts[k] = (amounts[k] + plan.alpha2 * amounts_prev[k]) / plan.alpha0;
+                amounts[k] = (amounts[k] + plan.a2 * amounts_prev[k]) / plan.a0;
 
             const auto before = problem.region_amounts(u);
             const auto after = problem.region_amounts(u_new);
-            double storage_change = 0;
+            double storage_change = problem.undissolved_amount() - undissolved_before;
             for (std::size_t r = 0; r < before.size(); ++r)
               storage_change += after[r] - before[r];
             double net = amounts[n_boundaries] - amounts[n_boundaries + 1];
@@ -407,17 +507,17 @@ namespace fickcast
             balance += storage_change - net;
             amounts_prev = amounts;
             for (unsigned int b = 0; b < n_boundaries; ++b)
-              if (problem.boundary_kind(b) == BoundaryKind::concentration)
-                dirichlet_rate_old[b] = boundary_rates[b];
+              reaction_rate_old[b] = boundary_rates[b];
             rates_old = rates_new;
 
             // Advance.
-            history.push_front({t1, u_new});
+            history.push_front({s + ds, t1, u_new});
             if (history.size() > 3)
               history.pop_back();
             u = u_new;
-            previous_dt = dt;
+            previous_ds = ds;
             t = t1;
+            s += ds;
             ++step;
             ++steps_since_restart;
             ++record.steps_accepted;
@@ -429,14 +529,31 @@ namespace fickcast
                 const double v0 = probe_values[k], v1 = new_values[k];
                 if (std::isfinite(p.threshold) && !std::isfinite(p.threshold_time) && v0 < p.threshold &&
                     v1 >= p.threshold)
-                  p.threshold_time = t - dt + (p.threshold - v0) / (v1 - v0) * dt; // linear within the step
+                  p.threshold_time = t - (t1 - plan.t0) + (p.threshold - v0) / (v1 - v0) * (t1 - plan.t0);
               }
             probe_values = new_values;
-            write_row(t, step, dt, u, boundary_rates);
+            write_row(t, step, t1 - plan.t0, u, boundary_rates);
             if (landing)
               {
-                output_fields(t, u);
-                ++next_output;
+                if (next_output < outputs.size() && std::abs(outputs[next_output] - t) <= 1e-12 * c.time.end)
+                  {
+                    output_fields(t, u);
+                    ++next_output;
+                  }
+                ++next_hard;
+                // A stage ends here: the next one's conditions start, the history restarts.
+                const unsigned int stage = problem.stage();
+                if (stage + 1 < c.stages.size() && t >= c.stages[stage].end() * (1 - 1e-12))
+                  {
+                    problem.set_stage(stage + 1);
+                    history.clear();
+                    history.push_front({s, t, u});
+                    steps_since_restart = 0;
+                    previous_ds = 0;
+                    std::fill(amounts_prev.begin(), amounts_prev.end(), 0.0);
+                    std::fill(reaction_rate_old.begin(), reaction_rate_old.end(), not_a_number);
+                    rates_old = problem.rates(u, t);
+                  }
               }
             if (progress)
               progress(t, c.time.end, step);
@@ -455,6 +572,10 @@ namespace fickcast
       series.close();
     record.end_time = t;
     record.final_region_amounts = problem.region_amounts(u);
+    record.final_undissolved = problem.undissolved_amount();
+    for (unsigned int b = 0; b < n_boundaries; ++b)
+      if (bath_boundary[b])
+        record.bath_final[b] = problem.bath_concentration(b);
     record.source_total = source_total;
     record.decayed_total = decayed_total;
     record.balance_error = balance;

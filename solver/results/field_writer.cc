@@ -36,7 +36,7 @@ namespace fickcast
             const double u = inputs.solution_values[q];
             computed[q](0) = k * u;
             computed[q](1) = c * u;
-            const double g = problem_.conductance(region, inputs.evaluation_points[q], time_);
+            const double g = problem_.conductance(region, inputs.evaluation_points[q], time_, k * u);
             for (int d = 0; d < dim; ++d)
               computed[q](2 + d) = -g * inputs.solution_gradients[q][d];
           }

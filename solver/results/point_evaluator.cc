@@ -5,6 +5,7 @@
 #include <deal.II/base/mpi.h>
 #include <deal.II/grid/grid_tools.h>
 
+#include <algorithm>
 #include <limits>
 
 namespace fickcast
@@ -13,7 +14,7 @@ namespace fickcast
 
   template <int dim>
   PointEvaluator<dim>::PointEvaluator(const DiffusionProblem<dim> &problem, const std::vector<Point<dim>> &points,
-                                      const std::string &what)
+                                      const std::string &what, const std::vector<std::string> &regions)
     : communicator_(problem.communicator())
     , n_points_(points.size())
   {
@@ -28,11 +29,33 @@ namespace fickcast
           {
             const auto found =
               GridTools::find_active_cell_around_point(problem.mapping(), problem.dof_handler(), points[i]);
-            if (found.first.state() == IteratorState::valid && found.first->is_locally_owned())
+            if (found.first.state() != IteratorState::valid)
+              continue;
+            auto chosen = found;
+            if (i < regions.size() && !regions[i].empty())
+              {
+                // At an interface: the cell on the side of the region asked for.
+                const auto &names = problem.names().regions;
+                const auto wanted =
+                  static_cast<types::material_id>(std::find(names.begin(), names.end(), regions[i]) - names.begin());
+                bool matched = found.first->material_id() == wanted;
+                if (!matched)
+                  for (const auto &candidate : GridTools::find_all_active_cells_around_point(
+                         problem.mapping(), problem.dof_handler(), points[i], 1e-10, found))
+                    if (candidate.first->material_id() == wanted)
+                      {
+                        chosen = candidate;
+                        matched = true;
+                        break;
+                      }
+                if (!matched)
+                  continue;
+              }
+            if (chosen.first->is_locally_owned())
               {
                 claim[i] = rank;
-                cells[i] = found.first;
-                unit[i] = GeometryInfo<dim>::project_to_unit_cell(found.second);
+                cells[i] = chosen.first;
+                unit[i] = GeometryInfo<dim>::project_to_unit_cell(chosen.second);
               }
           }
         catch (...)
@@ -51,8 +74,11 @@ namespace fickcast
             std::string coordinates;
             for (int d = 0; d < dim; ++d)
               coordinates += (d ? ", " : "") + std::to_string(points[i][d]);
+            const bool in_region = i < regions.size() && !regions[i].empty();
             throw InputError(problem.description().file, what,
-                             "expected a point inside the mesh, found (" + coordinates + ") m outside it");
+                             "expected a point inside the mesh" +
+                               (in_region ? " and on the side of region " + regions[i] : std::string()) + ", found (" +
+                               coordinates + ") m outside it");
           }
         if (owner[i] != rank)
           continue;

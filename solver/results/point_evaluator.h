@@ -22,9 +22,10 @@ namespace fickcast
   public:
     using Vector = typename DiffusionProblem<dim>::Vector;
 
-    /// Throws InputError naming @p what if a point lies outside the mesh.
+    /// Throws InputError naming @p what if a point lies outside the mesh (or outside the region
+    /// named for it in @p regions, where one is: the side to read at an interface).
     PointEvaluator(const DiffusionProblem<dim> &problem, const std::vector<dealii::Point<dim>> &points,
-                   const std::string &what);
+                   const std::string &what, const std::vector<std::string> &regions = {});
 
     /// Phase concentrations at the points for the ghosted state @p u.
     std::vector<double> concentrations(const Vector &u) const;

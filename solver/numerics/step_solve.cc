@@ -1,0 +1,423 @@
+// DiffusionProblem: one time step. Lifting of fixed unknowns, bath balances by superposition,
+// the undissolved reserve as an active set, and Newton or Picard iterations for a
+// concentration-dependent diffusivity.
+#include "numerics/diffusion_problem.h"
+
+#include "case/input_error.h"
+
+#include <deal.II/base/mpi.h>
+#include <deal.II/lac/full_matrix.h>
+#include <deal.II/lac/vector.h>
+
+#include <algorithm>
+#include <cmath>
+
+namespace fickcast
+{
+  using namespace dealii;
+
+  template <int dim>
+  void DiffusionProblem<dim>::build_system(const StepPlan &plan, const bool jacobian)
+  {
+    std::vector<double> key{plan.a0, plan.w1};
+    for (unsigned int r = 0; r < unit_index_.size(); ++r)
+      if (unit_index_[r] >= 0)
+        key.push_back(plan.w1 * diffusivity_[r](0, 0, 0, plan.t1, 0));
+    if (dynamic_matrices_.full.m() != 0)
+      key.push_back(static_cast<double>(dynamic_version_));
+    key.push_back(jacobian ? 1.0 : 0.0);
+    if (key == system_key_)
+      return;
+    PhaseTimer::Scope scope(timer_, "matrix setup");
+    system_.copy_from(mass_.constrained);
+    system_ *= plan.a0;
+    system_.add(plan.w1, static_.constrained);
+    for (unsigned int r = 0; r < unit_index_.size(); ++r)
+      if (unit_index_[r] >= 0)
+        system_.add(plan.w1 * diffusivity_[r](0, 0, 0, plan.t1, 0),
+                    unit_[static_cast<std::size_t>(unit_index_[r])].constrained);
+    if (dynamic_matrices_.full.m() != 0)
+      system_.add(plan.w1, dynamic_matrices_.constrained);
+
+    // Keep the preconditioner while the weights relative to the mass stay within a factor 3 and
+    // nothing assembled anew (dynamic parts, Jacobians) entered the matrix.
+    double change = 0;
+    const bool comparable =
+      !hierarchy_key_.empty() && hierarchy_key_.size() == key.size() && dynamic_matrices_.full.m() == 0 && !jacobian;
+    if (comparable)
+      {
+        change = 1;
+        for (std::size_t i = 1; i + 1 < key.size(); ++i)
+          {
+            const double now = key[i] / key[0], then = hierarchy_key_[i] / hierarchy_key_[0];
+            if (!(now > 0 && then > 0))
+              {
+                change = 0;
+                break;
+              }
+            const double ratio = now / then;
+            change = std::max(change, std::max(ratio, 1 / ratio));
+          }
+      }
+    const unsigned int before = solver_->n_setups();
+    solver_->set_matrix(system_, change, !jacobian);
+    if (solver_->n_setups() != before)
+      hierarchy_key_ = key;
+    system_key_ = key;
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::apply_frozen(const double t, const Vector &x, Vector &out) const
+  {
+    // The operator with coefficients as last assembled (linear in x).
+    static_.full.vmult(out, x);
+    Vector tmp = make_vector();
+    for (unsigned int r = 0; r < unit_index_.size(); ++r)
+      if (unit_index_[r] >= 0)
+        {
+          unit_[static_cast<std::size_t>(unit_index_[r])].full.vmult(tmp, x);
+          out.add(diffusivity_[r](0, 0, 0, t, 0), tmp);
+        }
+    if (dynamic_matrices_.full.m() != 0 && dynamic_valid_ && !dynamic_is_jacobian_)
+      {
+        dynamic_matrices_.full.vmult(tmp, x);
+        out += tmp;
+      }
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::solve_linear(const TrilinosWrappers::SparseMatrix *modified, Vector &x, const Vector &b,
+                                           StepResult &result)
+  {
+    PhaseTimer::Scope scope(timer_, "linear solve");
+    result.linear_iterations += modified ? solver_->solve_other(*modified, x, b) : solver_->solve(x, b);
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::solve_fixed(const StepPlan &plan, const Vector &rhs, Vector &u1, Vector &rhs_used,
+                                          StepResult &result)
+  {
+    auto apply_system = [&](const Vector &x, Vector &out) {
+      mass_.full.vmult(out, x);
+      out *= plan.a0;
+      Vector tmp = make_vector();
+      apply_frozen(plan.t1, x, tmp);
+      out.add(plan.w1, tmp);
+    };
+    auto zero_rows = [&](Vector &v, const std::vector<types::global_dof_index> &rows) {
+      for (const auto row : rows)
+        v[row] = 0;
+      v.compress(VectorOperation::insert);
+    };
+
+    // Unknowns held fixed in the solve: boundary dofs (known values, or baths by superposition)
+    // and saturated nodes of the undissolved reserve (the active set).
+    std::vector<bool> is_fixed(owned_.n_elements(), false);
+    for (const auto &[dof, b] : fixed_dofs_)
+      {
+        (void)b;
+        is_fixed[owned_.index_within_set(dof)] = true;
+      }
+    std::vector<types::global_dof_index> active;
+    if (dispersed_)
+      for (const auto dof : owned_)
+        {
+          const auto local = owned_.index_within_set(dof);
+          if (dispersed_node_[local] && !is_fixed[local] && reserve_[dof] > 0)
+            active.push_back(dof);
+        }
+
+    for (unsigned int pass = 0;; ++pass)
+      {
+        if (pass > 200)
+          throw RunFailure("the saturated zone of the undissolved content did not settle within a step at t = " +
+                           std::to_string(plan.t1) + " s");
+        // Right-hand side: reserve of nodes that are not saturated dissolves completely.
+        rhs_used = rhs;
+        if (dispersed_)
+          {
+            for (const auto dof : owned_)
+              if (reserve_[dof] > 0 && std::find(active.begin(), active.end(), dof) == active.end())
+                rhs_used[dof] += reserve_[dof];
+            rhs_used.compress(VectorOperation::insert);
+          }
+        std::vector<types::global_dof_index> held = active;
+        for (const auto &[dof, b] : fixed_dofs_)
+          {
+            (void)b;
+            held.push_back(dof);
+          }
+
+        // Lifting of the known values.
+        Vector lifted = make_vector();
+        for (std::size_t k = 0; k < fixed_dofs_.size(); ++k)
+          {
+            const unsigned int b = fixed_dofs_[k].second;
+            if (boundary_specs_[b]->kind != BoundaryKind::concentration)
+              continue;
+            const Point<dim> &p = fixed_points_[k];
+            const double x = p[0], y = dim > 1 ? p[1] : 0.0, z = dim > 2 ? p[2] : 0.0;
+            lifted[fixed_dofs_[k].first] = boundary_specs_[b]->value_is_ambient
+                                             ? boundary_ambient_[b](x, y, z, plan.t1)
+                                             : boundary_value_[b](x, y, z, plan.t1) / boundary_partition_[b];
+          }
+        for (const auto dof : active)
+          lifted[dof] = saturation_[dof];
+        lifted.compress(VectorOperation::insert);
+
+        const TrilinosWrappers::SparseMatrix *matrix = nullptr;
+        if (Utilities::MPI::sum(active.size(), communicator_) > 0)
+          {
+            modified_.copy_from(system_);
+            modified_.clear_rows(active, 1.0);
+            matrix = &modified_;
+          }
+
+        Vector lifted_image = make_vector(), b = make_vector();
+        apply_system(lifted, lifted_image);
+        b = rhs_used;
+        b -= lifted_image;
+        zero_rows(b, held);
+        Vector w = u1;
+        w -= lifted;
+        zero_rows(w, held);
+        solve_linear(matrix, w, b, result);
+        zero_rows(w, held);
+        u1 = w;
+        u1 += lifted;
+
+        // Baths: u1 = x0 + sum_j psi_j y_j with y_j the response to a unit value on bath j.
+        if (!baths_.empty())
+          {
+            const std::size_t n = baths_.size();
+            std::vector<Vector> responses;
+            FullMatrix<double> system(n, n);
+            dealii::Vector<double> right(n), psi(n);
+            Vector residual = make_vector();
+            apply_system(u1, residual);
+            residual -= rhs_used;
+            auto bath_sum = [&](const Vector &v, const unsigned int bath) {
+              double sum = 0;
+              for (const auto &[dof, b] : fixed_dofs_)
+                if (b == bath)
+                  sum += v[dof];
+              return Utilities::MPI::sum(sum, communicator_);
+            };
+            for (std::size_t j = 0; j < n; ++j)
+              {
+                Vector unit = make_vector();
+                for (const auto &[dof, b] : fixed_dofs_)
+                  if (b == baths_[j])
+                    unit[dof] = 1.0;
+                unit.compress(VectorOperation::insert);
+                Vector image = make_vector(), response = make_vector(), right_side = make_vector();
+                apply_system(unit, image);
+                right_side.equ(-1.0, image);
+                zero_rows(right_side, held);
+                solve_linear(matrix, response, right_side, result);
+                zero_rows(response, held);
+                response += unit;
+                apply_system(response, image);
+                for (std::size_t k = 0; k < n; ++k)
+                  system(k, j) = bath_sum(image, baths_[k]);
+                responses.push_back(response);
+              }
+            for (std::size_t k = 0; k < n; ++k)
+              {
+                const BoundarySpec &spec = *boundary_specs_[baths_[k]];
+                const double capacity = spec.volume * spec.bath_partition;
+                system(k, k) += capacity * plan.a0;
+                right(k) = -capacity * (plan.a1 * bath_value_[baths_[k]] + plan.a2 * bath_value_prev_[baths_[k]]) -
+                           bath_sum(residual, baths_[k]);
+              }
+            system.gauss_jordan();
+            system.vmult(psi, right);
+            for (std::size_t j = 0; j < n; ++j)
+              {
+                u1.add(psi(j), responses[j]);
+                bath_trial_[baths_[j]] = psi(j);
+              }
+          }
+
+        if (!dispersed_)
+          return;
+
+        // Active set: saturated nodes keep their reserve while it lasts; others dissolve it all.
+        Vector residual = make_vector();
+        apply_system(u1, residual);
+        residual -= rhs_used;
+        reserve_trial_ = 0;
+        // The saturated set only shrinks within a step: a node whose reserve would be overdrawn
+        // dissolves it completely and is solved for freely in the next pass.
+        std::vector<types::global_dof_index> next;
+        for (const auto dof : active)
+          {
+            const double left = reserve_[dof] - residual[dof];
+            if (left > 0)
+              {
+                next.push_back(dof);
+                reserve_trial_[dof] = left;
+              }
+          }
+        reserve_trial_.compress(VectorOperation::insert);
+        const bool changed = Utilities::MPI::max(next == active ? 0 : 1, communicator_) != 0;
+        ++result.active_set_iterations;
+        if (!changed)
+          return;
+        active = next;
+      }
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::newton(const StepPlan &plan, const Vector &rhs, Vector &u1, StepResult &result)
+  {
+    // Fixed unknowns at their values at t1, then increments that keep them.
+    for (std::size_t k = 0; k < fixed_dofs_.size(); ++k)
+      {
+        const unsigned int b = fixed_dofs_[k].second;
+        const Point<dim> &p = fixed_points_[k];
+        const double x = p[0], y = dim > 1 ? p[1] : 0.0, z = dim > 2 ? p[2] : 0.0;
+        u1[fixed_dofs_[k].first] = boundary_specs_[b]->value_is_ambient
+                                     ? boundary_ambient_[b](x, y, z, plan.t1)
+                                     : boundary_value_[b](x, y, z, plan.t1) / boundary_partition_[b];
+      }
+    u1.compress(VectorOperation::insert);
+    const double scale = std::max(concentration_scale(), 1e-300);
+    result.converged = false;
+    for (unsigned int iteration = 0; iteration < description_.numerics.max_nonlinear_iterations; ++iteration)
+      {
+        ++result.nonlinear_iterations;
+        const Vector ghosted = make_ghosted(u1);
+        assemble_dynamic(plan.t1, &ghosted, true);
+        build_system(plan, true);
+        Vector residual = make_vector(), tmp = make_vector();
+        mass_.full.vmult(residual, u1);
+        residual *= plan.a0;
+        apply_operator(plan.t1, u1, tmp);
+        residual.add(plan.w1, tmp);
+        residual -= rhs;
+        zero_fixed(residual);
+        residual *= -1.0;
+        Vector increment = make_vector();
+        solve_linear(nullptr, increment, residual, result);
+        zero_fixed(increment);
+        u1 += increment;
+        if (increment.linfty_norm() <= description_.numerics.nonlinear_tolerance * scale)
+          {
+            result.converged = true;
+            return;
+          }
+      }
+  }
+
+  template <int dim>
+  StepResult DiffusionProblem<dim>::advance(const StepPlan &plan, const Vector &u0, const Vector *u_prev, Vector &u1)
+  {
+    StepResult result;
+    // Right-hand side without reactions: -M (a1 u0 + a2 u_prev) + w1 F1 - w0 (L0 u0 - F0).
+    Vector rhs = make_vector(), tmp = make_vector(), f = make_vector();
+    tmp.equ(plan.a1, u0);
+    if (plan.a2 != 0)
+      {
+        Assert(u_prev != nullptr, ExcMessage("BDF2 needs the previous state"));
+        tmp.add(plan.a2, *u_prev);
+      }
+    mass_.full.vmult(rhs, tmp);
+    rhs *= -1.0;
+    forcing(plan.t1, f);
+    rhs.add(plan.w1, f);
+    if (plan.w0 != 0)
+      {
+        if (dynamic_matrices_.full.m() != 0 && !nonlinear_)
+          assemble_dynamic(plan.t0, nullptr, false);
+        apply_operator(plan.t0, u0, tmp);
+        rhs.add(-plan.w0, tmp);
+        forcing(plan.t0, f);
+        rhs.add(plan.w0, f);
+      }
+
+    Vector rhs_used = rhs;
+    const bool use_newton = nonlinear_ && description_.numerics.newton && baths_.empty() && !dispersed_;
+    if (use_newton)
+      newton(plan, rhs, u1, result);
+    else
+      {
+        if (dynamic_matrices_.full.m() != 0 && !nonlinear_ && (!dynamic_valid_ || dynamic_time_ != plan.t1))
+          assemble_dynamic(plan.t1, nullptr, false);
+        const double scale = std::max(concentration_scale(), 1e-300);
+        result.converged = !nonlinear_;
+        const unsigned int passes = nonlinear_ ? description_.numerics.max_nonlinear_iterations : 1;
+        for (unsigned int iteration = 0; iteration < passes; ++iteration)
+          {
+            Vector previous = u1;
+            if (nonlinear_)
+              {
+                ++result.nonlinear_iterations;
+                const Vector ghosted = make_ghosted(u1);
+                assemble_dynamic(plan.t1, &ghosted, false);
+              }
+            build_system(plan, false);
+            solve_fixed(plan, rhs, u1, rhs_used, result);
+            if (!nonlinear_)
+              break;
+            previous -= u1;
+            zero_fixed(previous);
+            if (previous.linfty_norm() <= description_.numerics.nonlinear_tolerance * scale)
+              {
+                result.converged = true;
+                break;
+              }
+          }
+      }
+
+    // Reactions: residual of the unconstrained equations at the fixed unknowns.
+    Vector residual = make_vector();
+    mass_.full.vmult(residual, u1);
+    residual *= plan.a0;
+    apply_operator(plan.t1, u1, tmp);
+    residual.add(plan.w1, tmp);
+    residual -= rhs_used;
+    result.reactions.assign(boundary_specs_.size(), 0.0);
+    for (const auto &[dof, boundary] : fixed_dofs_)
+      result.reactions[boundary] += residual[dof];
+    Utilities::MPI::sum(result.reactions, communicator_, result.reactions);
+    return result;
+  }
+
+  template void DiffusionProblem<1>::build_system(const StepPlan &, bool);
+  template void DiffusionProblem<2>::build_system(const StepPlan &, bool);
+  template void DiffusionProblem<3>::build_system(const StepPlan &, bool);
+  template void DiffusionProblem<1>::apply_frozen(double, const DiffusionProblem<1>::Vector &,
+                                                  DiffusionProblem<1>::Vector &) const;
+  template void DiffusionProblem<2>::apply_frozen(double, const DiffusionProblem<2>::Vector &,
+                                                  DiffusionProblem<2>::Vector &) const;
+  template void DiffusionProblem<3>::apply_frozen(double, const DiffusionProblem<3>::Vector &,
+                                                  DiffusionProblem<3>::Vector &) const;
+  template void DiffusionProblem<1>::solve_linear(const TrilinosWrappers::SparseMatrix *, DiffusionProblem<1>::Vector &,
+                                                  const DiffusionProblem<1>::Vector &, StepResult &);
+  template void DiffusionProblem<2>::solve_linear(const TrilinosWrappers::SparseMatrix *, DiffusionProblem<2>::Vector &,
+                                                  const DiffusionProblem<2>::Vector &, StepResult &);
+  template void DiffusionProblem<3>::solve_linear(const TrilinosWrappers::SparseMatrix *, DiffusionProblem<3>::Vector &,
+                                                  const DiffusionProblem<3>::Vector &, StepResult &);
+  template void DiffusionProblem<1>::solve_fixed(const StepPlan &, const DiffusionProblem<1>::Vector &,
+                                                 DiffusionProblem<1>::Vector &, DiffusionProblem<1>::Vector &,
+                                                 StepResult &);
+  template void DiffusionProblem<2>::solve_fixed(const StepPlan &, const DiffusionProblem<2>::Vector &,
+                                                 DiffusionProblem<2>::Vector &, DiffusionProblem<2>::Vector &,
+                                                 StepResult &);
+  template void DiffusionProblem<3>::solve_fixed(const StepPlan &, const DiffusionProblem<3>::Vector &,
+                                                 DiffusionProblem<3>::Vector &, DiffusionProblem<3>::Vector &,
+                                                 StepResult &);
+  template void DiffusionProblem<1>::newton(const StepPlan &, const DiffusionProblem<1>::Vector &,
+                                            DiffusionProblem<1>::Vector &, StepResult &);
+  template void DiffusionProblem<2>::newton(const StepPlan &, const DiffusionProblem<2>::Vector &,
+                                            DiffusionProblem<2>::Vector &, StepResult &);
+  template void DiffusionProblem<3>::newton(const StepPlan &, const DiffusionProblem<3>::Vector &,
+                                            DiffusionProblem<3>::Vector &, StepResult &);
+  template StepResult DiffusionProblem<1>::advance(const StepPlan &, const DiffusionProblem<1>::Vector &,
+                                                   const DiffusionProblem<1>::Vector *, DiffusionProblem<1>::Vector &);
+  template StepResult DiffusionProblem<2>::advance(const StepPlan &, const DiffusionProblem<2>::Vector &,
+                                                   const DiffusionProblem<2>::Vector *, DiffusionProblem<2>::Vector &);
+  template StepResult DiffusionProblem<3>::advance(const StepPlan &, const DiffusionProblem<3>::Vector &,
+                                                   const DiffusionProblem<3>::Vector *, DiffusionProblem<3>::Vector &);
+} // namespace fickcast
