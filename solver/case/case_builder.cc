@@ -431,8 +431,19 @@ namespace fickcast
                 const auto *own = get("stage." + stage.name, "temperature");
                 if (own)
                   {
-                    c.temperature.append(own->schedule, stage.start);
-                    last = own->schedule.temperatures.back();
+                    // The stage's schedule, then a hold at its last temperature to the stage end.
+                    TemperatureSchedule within = own->schedule;
+                    if (within.times.back() < stage.duration)
+                      {
+                        within.times.push_back(stage.duration);
+                        within.temperatures.push_back(within.temperatures.back());
+                      }
+                    else if (within.times.back() > stage.duration * (1 + 1e-12))
+                      fail(*own, "expected a temperature schedule within the stage duration (" +
+                                   format_si(stage.duration, "s") + "), found one lasting " +
+                                   format_si(within.times.back(), "s"));
+                    c.temperature.append(within, stage.start);
+                    last = within.temperatures.back();
                   }
                 else if (last < 0)
                   throw InputError(where("stage." + stage.name), "stage." + stage.name + ".temperature",

@@ -350,6 +350,20 @@ namespace fickcast
   }
 
   template <int dim>
+  bool DiffusionProblem<dim>::depleted_in_last_step() const
+  {
+    return Utilities::MPI::sum(depleted_.size(), communicator_) > 0;
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::zero_depleted(Vector &v) const
+  {
+    for (const auto dof : depleted_)
+      v[dof] = 0;
+    v.compress(VectorOperation::insert);
+  }
+
+  template <int dim>
   double DiffusionProblem<dim>::concentration_scale() const
   {
     double scale = 0;

@@ -136,6 +136,11 @@ namespace fickcast
     double concentration_scale() const;
     /// Zeroes the fixed unknowns of @p v (concentration boundaries and baths).
     void zero_fixed(Vector &v) const;
+    /// Zeroes the nodes whose undissolved reserve ran out in the last step: their history has a
+    /// kink there, which a local error estimate from extrapolation would mistake for error.
+    void zero_depleted(Vector &v) const;
+    /// Whether some node's reserve ran out in the last step (collective).
+    bool depleted_in_last_step() const;
 
     /// Takes one step from @p u0 (and @p u_prev for BDF2); @p u1 holds an initial guess.
     /// Updates bath values and reserves; keeps the previous ones for accept_step / reject_step.
@@ -240,6 +245,7 @@ namespace fickcast
     // Undissolved reserve (amount per node): accepted and trial; saturation value of u per node.
     Vector reserve_, reserve_trial_, saturation_;
     std::vector<bool> dispersed_node_; ///< per owned dof (local index): in a region with a solubility
+    std::vector<dealii::types::global_dof_index> depleted_; ///< reserve ran out in the last step
 
     std::unique_ptr<LinearSolver> solver_;
     mutable std::string bad_coefficient_;

@@ -451,8 +451,13 @@ namespace fickcast
                       }
                     predicted -= u_new;
                     problem.zero_fixed(predicted);
-                    const double error =
-                      factor * predicted.linfty_norm() / (c.time.tolerance * std::max(scale, u_new.linfty_norm()));
+                    problem.zero_depleted(predicted);
+                    // Largest local error; with an undissolved reserve the root mean square, because
+                    // every node the dissolution front passes has a kink in its history.
+                    const double size = dispersed
+                                          ? predicted.l2_norm() / std::sqrt(static_cast<double>(predicted.size()))
+                                          : predicted.linfty_norm();
+                    const double error = factor * size / (c.time.tolerance * std::max(scale, u_new.linfty_norm()));
                     accepted = controller.judge(ds, error, order, shortened);
                   }
               }
@@ -510,7 +515,12 @@ namespace fickcast
               reaction_rate_old[b] = boundary_rates[b];
             rates_old = rates_new;
 
-            // Advance.
+            // Advance. Where the dissolution front passed a node the history has a kink: restart it.
+            if (dispersed && problem.depleted_in_last_step())
+              {
+                history.clear();
+                steps_since_restart = 0;
+              }
             history.push_front({s + ds, t1, u_new});
             if (history.size() > 3)
               history.pop_back();

@@ -263,7 +263,13 @@ namespace fickcast
         const bool changed = Utilities::MPI::max(next == active ? 0 : 1, communicator_) != 0;
         ++result.active_set_iterations;
         if (!changed)
-          return;
+          {
+            depleted_.clear();
+            for (const auto dof : owned_)
+              if (reserve_[dof] > 0 && reserve_trial_[dof] <= 0)
+                depleted_.push_back(dof);
+            return;
+          }
         active = next;
       }
   }

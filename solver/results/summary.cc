@@ -3,6 +3,7 @@
 #include "case/input_error.h"
 
 #include <chrono>
+#include <cmath>
 #include <ctime>
 #include <fstream>
 
@@ -109,10 +110,21 @@ namespace fickcast
     time["adaptive"] = c.time.adaptive;
     time["steps_accepted"] = r.steps_accepted;
     time["steps_rejected"] = r.steps_rejected;
+    Json stages = Json::array();
+    for (const auto &stage : r.stages)
+      {
+        Json item = Json::object();
+        item["name"] = stage.name;
+        item["start"] = stage.start;
+        item["end"] = stage.end;
+        stages.push_back(item);
+      }
+    time["stages"] = stages;
 
     Json &solver = s["solver"];
     solver["linear_solver"] = r.linear_solver;
     solver["linear_iterations"] = r.linear_iterations;
+    solver["nonlinear_iterations"] = r.nonlinear_iterations;
     solver["matrix_setups"] = r.matrix_setups;
     solver["ranks"] = r.ranks;
 
@@ -126,7 +138,7 @@ namespace fickcast
     run["wall_time_by_phase_s"] = timing;
 
     Json &amounts = s["amounts"];
-    double initial = 0, final = 0;
+    double initial = r.initial_undissolved, final = r.final_undissolved;
     Json initial_regions = Json::object(), final_regions = Json::object(), entered = Json::object();
     for (std::size_t i = 0; i < r.regions.size(); ++i)
       {
@@ -143,6 +155,13 @@ namespace fickcast
     amounts["final_total"] = final;
     amounts["final_by_region"] = final_regions;
     amounts["entered_by_boundary"] = entered;
+    amounts["undissolved_initial"] = r.initial_undissolved;
+    amounts["undissolved_final"] = r.final_undissolved;
+    Json baths = Json::object();
+    for (std::size_t b = 0; b < r.boundaries.size() && b < r.bath_final.size(); ++b)
+      if (std::isfinite(r.bath_final[b]))
+        baths[r.boundaries[b]] = r.bath_final[b];
+    amounts["bath_final_concentration"] = baths;
     amounts["source_total"] = r.source_total;
     amounts["decayed_total"] = r.decayed_total;
 
