@@ -617,7 +617,15 @@ namespace fickcast
             QuantityText q;
             try
               {
-                q = split_quantity(entry.value, true);
+                if (entry.value.rfind("file:", 0) == 0)
+                  {
+                    std::filesystem::path table(entry.value.substr(5));
+                    if (table.is_relative() && entry.line != 0)
+                      table = std::filesystem::path(entry.file).parent_path() / table;
+                    q.unit = time_table_value_unit(table.string());
+                  }
+                else
+                  q = split_quantity(entry.value, true);
               }
             catch (const UnitError &)
               {

@@ -25,6 +25,26 @@ namespace fickcast
     return values[k - 1] + fraction * (values[k] - values[k - 1]);
   }
 
+  std::string time_table_value_unit(const std::string &path)
+  {
+    std::ifstream in(path);
+    std::string line;
+    static const std::regex column(R"(^\s*([^\[]*?)\s*\[([^\]]*)\]\s*$)");
+    while (std::getline(in, line))
+      {
+        if (const auto hash = line.find('#'); hash != std::string::npos)
+          line.erase(hash);
+        if (line.find_first_not_of(" \t\r") == std::string::npos)
+          continue;
+        const auto cells = split_list(line);
+        std::smatch match;
+        if (cells.size() == 2 && std::regex_match(cells[1], match, column))
+          return match[2].str();
+        return "";
+      }
+    return "";
+  }
+
   TimeTable read_time_table(const std::string &path, const std::string &si_unit)
   {
     std::ifstream in(path);

@@ -23,4 +23,8 @@ namespace fickcast
    * rows. Values are converted to @p si_unit. Throws InputError naming `path:line`.
    */
   TimeTable read_time_table(const std::string &path, const std::string &si_unit);
+
+  /// The unit of the value column written in the header of @p path, or empty if unreadable
+  /// (used to decide a case's concentration family before the table is read in full).
+  std::string time_table_value_unit(const std::string &path);
 } // namespace fickcast

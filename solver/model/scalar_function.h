@@ -9,7 +9,8 @@
 namespace fickcast
 {
   /**
-   * Evaluates a ScalarField (constant or `{expression} unit`) in SI at a point and a time.
+   * Evaluates a ScalarField (constant, `{expression} unit` or a table against time) in SI at a
+   * point and a time.
    * The expression sees x, y, z in m and t in s; its result is scaled to SI.
    * Not thread-safe (one muparser instance); copy it per thread if ever needed.
    */
@@ -25,8 +26,8 @@ namespace fickcast
     /// Value for a field that depends on time only (boundary values).
     double at_time(double t) const { return (*this)(0, 0, 0, t); }
 
-    bool is_constant() const { return !expression_; }
-    bool depends_on_time() const { return expression_ && expression_->uses("t"); }
+    bool is_constant() const { return !expression_ && !table_; }
+    bool depends_on_time() const { return table_ || (expression_ && expression_->uses("t")); }
     bool depends_on_space() const
     {
       return expression_ && (expression_->uses("x") || expression_->uses("y") || expression_->uses("z"));
@@ -37,5 +38,6 @@ namespace fickcast
     double scale_ = 1;
     double offset_ = 0;
     std::shared_ptr<Expression> expression_;
+    std::shared_ptr<TimeTable> table_;
   };
 } // namespace fickcast

@@ -55,5 +55,28 @@ expect_code 0 "run --overwrite --quiet" "$fickcast" run "$case_file" --output "$
 [ -f "$results/marker" ] && fail "--overwrite kept the old folder content"
 ls "$scratch" | grep -q "partial" && fail "a partial folder was left behind"
 
+# A numerical failure: exit 1, and the results folder written with the last good state.
+cat >"$scratch/stiff.ini" <<'CASE'
+[case]
+title = nonlinear case that cannot converge in one iteration
+[geometry]
+layers = slab 1 m
+cell_size = 5 cm
+[region.slab]
+diffusivity = {exp(8*c)} m2/s
+[boundary.top]
+type = concentration
+value = 1 mol/m3
+[time]
+end = 1 s
+step = 0.1 s
+[numerics]
+max_nonlinear_iterations = 1
+CASE
+expect_code 1 "a run that does not converge" "$fickcast" run "$scratch/stiff.ini" --output "$scratch/stiff"
+grep -q '"status": "failed"' "$scratch/stiff/summary.json" 2>/dev/null || fail "a failed run left no summary saying so"
+[ -f "$scratch/stiff/fields/fields.pvd" ] || fail "a failed run did not write its last good state"
+grep -q "did not converge" "$scratch/err.txt" || fail "a failed run does not say what failed"
+
 if [ "$failures" -ne 0 ]; then echo "$failures failure(s)"; exit 1; fi
 echo "all command-line checks passed"

@@ -125,6 +125,58 @@ threshold.base = 250 mg/L
               std::string::npos);
   }
 
+  // The elementary charge and the Avogadro constant are exact (SI Brochure, 9th ed., 2019): 1 eV per
+  // particle is e N_A = 96.48533212... kJ/mol.
+  TEST(CaseReader, ActivationEnergyPerParticleOrPerMole)
+  {
+    std::string text = minimal;
+    text.replace(text.find("diffusivity = 1.9e-9 m2/s"), 25, "diffusivity_prefactor = 0.76 cm2/s");
+    const CaseDescription a =
+      read_case_text(text, "case.ini", {"region.clay.activation_energy=3.46 eV", "temperature.schedule=1000 degC"});
+    EXPECT_TRUE(a.regions[0].arrhenius);
+    EXPECT_DOUBLE_EQ(a.regions[0].activation_energy, 3.46 * 1.602176634e-19);
+    EXPECT_DOUBLE_EQ(a.regions[0].prefactor, 0.76e-4);
+    const CaseDescription b = read_case_text(
+      text, "case.ini", {"region.clay.activation_energy=96.48533212 kJ/mol", "temperature.schedule=1000 degC"});
+    EXPECT_NEAR(b.regions[0].activation_energy / 1.602176634e-19, 1.0, 1e-9);
+  }
+
+  TEST(CaseReader, PorousMediaRelations)
+  {
+    std::string text = minimal;
+    text.replace(text.find("tortuosity = 0.33\n"), 18, "");
+    const CaseDescription c =
+      read_case_text(text, "case.ini",
+                     {"region.clay.porosity_law=archie", "region.clay.archie_exponent=2", "region.sand.porosity=0.4",
+                      "region.sand.bulk_density=1.6 g/cm3", "region.sand.distribution_coefficient=0.5 mL/g"});
+    EXPECT_DOUBLE_EQ(c.regions[0].tortuosity, 0.38); // theta^(m-1)
+    EXPECT_DOUBLE_EQ(c.regions[1].retardation, 3.0); // 1 + 1.6e3 * 0.5e-3 / 0.4
+  }
+
+  TEST(CaseReader, StagesChainTemperaturesAndBoundaries)
+  {
+    const std::string staged = minimal + R"(
+[stage.soak]
+duration = 2 h
+temperature = 900 degC
+[stage.cool]
+duration = 1 h
+temperature = 900 degC, ramp to 700 degC in 30 min
+boundary.top.type = sealed
+)";
+    std::string text = staged;
+    text.replace(text.find("end = 60 yr\n"), 12, "");
+    const CaseDescription c = read_case_text(text, "case.ini");
+    ASSERT_EQ(c.stages.size(), 2u);
+    EXPECT_DOUBLE_EQ(c.time.end, 3 * 3600.0);
+    EXPECT_DOUBLE_EQ(c.stages[1].start, 7200.0);
+    EXPECT_EQ(c.stages[0].find_boundary("top")->kind, BoundaryKind::concentration);
+    EXPECT_EQ(c.stages[1].find_boundary("top")->kind, BoundaryKind::sealed);
+    EXPECT_DOUBLE_EQ(c.temperature.at(3600.0), 1173.15);
+    EXPECT_DOUBLE_EQ(c.temperature.at(7200.0 + 900.0), 1073.15);
+    EXPECT_DOUBLE_EQ(c.temperature.at(7200.0 + 3000.0), 973.15); // held after the ramp
+  }
+
   TEST(CaseReader, LayersWithoutCommas)
   {
     const CaseDescription c = read_case_text(minimal, "case.ini", {"geometry.layers=clay 0.6 m sand 0.3 m"});

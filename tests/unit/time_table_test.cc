@@ -1,0 +1,53 @@
+#include "case/input_error.h"
+#include "case/time_table.h"
+
+#include <gtest/gtest.h>
+
+#include <filesystem>
+#include <fstream>
+
+namespace fickcast
+{
+  namespace
+  {
+    std::string write(const std::string &name, const std::string &text)
+    {
+      const std::string path = (std::filesystem::temp_directory_path() / name).string();
+      std::ofstream(path) << text;
+      return path;
+    }
+  } // namespace
+
+  TEST(TimeTable, ReadsUnitsAndInterpolates)
+  {
+    const std::string path = write("fickcast_table.csv", "# inflow (invented)\ntime [h], value [mg/L]\n0, 100\n"
+                                                         "2, 300\n\n4, 300\n");
+    const TimeTable table = read_time_table(path, "kg/m3");
+    ASSERT_EQ(table.times.size(), 3u);
+    EXPECT_DOUBLE_EQ(table.times[1], 7200.0);
+    EXPECT_DOUBLE_EQ(table.values[0], 0.1);
+    EXPECT_DOUBLE_EQ(table.at(3600.0), 0.2); // halfway up the ramp
+    EXPECT_DOUBLE_EQ(table.at(-5.0), 0.1);   // constant before the first row
+    EXPECT_DOUBLE_EQ(table.at(1e9), 0.3);    // and after the last
+  }
+
+  TEST(TimeTable, MistakesNameTheLine)
+  {
+    auto message = [](const std::string &text) {
+      try
+        {
+          read_time_table(write("fickcast_bad_table.csv", text), "kg/m3");
+        }
+      catch (const InputError &error)
+        {
+          return std::string(error.what());
+        }
+      return std::string();
+    };
+    EXPECT_NE(message("time, value\n0, 1\n1, 2\n").find(":1"), std::string::npos);
+    EXPECT_NE(message("time [h], value [mg/L]\n0, 1\n0, 2\n").find(":3"), std::string::npos);
+    EXPECT_NE(message("time [h], value [mg/L]\n0, 1\n1, abc\n").find(":3"), std::string::npos);
+    EXPECT_NE(message("time [h], value [m]\n0, 1\n1, 2\n").find("kg/m3"), std::string::npos);
+    EXPECT_NE(message("time [h], value [mg/L]\n0, 1\n").find("at least two rows"), std::string::npos);
+  }
+} // namespace fickcast
