@@ -2,11 +2,13 @@
 
 #include "case/expression.h"
 #include "case/input_error.h"
+#include "case/mesh_file.h"
 #include "case/quantity_text.h"
 
 #include <algorithm>
 #include <cmath>
 #include <filesystem>
+#include <set>
 
 namespace fickcast
 {
@@ -44,6 +46,8 @@ namespace fickcast
     private:
       const Settings &settings;
       const unsigned int dimension;
+      mutable std::vector<std::string> faces_; ///< boundary names of the geometry, by id
+      mutable std::string settings_mesh_;      ///< the mesh file, if any (for messages)
 
       const SettingValue *get(const std::string &section, const std::string &key) const
       {
@@ -109,62 +113,164 @@ namespace fickcast
 
       void build_geometry(CaseDescription &c) const
       {
+        GeometrySpec &g = c.geometry;
+        const std::string coordinates = text("case", "coordinates");
+        g.coordinates = coordinates == "cylinder"       ? Coordinates::cylinder
+                        : coordinates == "sphere"       ? Coordinates::sphere
+                        : coordinates == "axisymmetric" ? Coordinates::axisymmetric
+                                                        : Coordinates::cartesian;
+        const unsigned int needed = g.radial() ? 1u : g.coordinates == Coordinates::axisymmetric ? 2u : 0u;
+        if (needed != 0 && dimension != needed)
+          fail(*get("case", "dimension"), "expected dimension = " + std::to_string(needed) + " with coordinates = " +
+                                            coordinates + ", found " + std::to_string(dimension));
+        auto forbid = [&](const char *key, const std::string &why) {
+          if (const auto *v = get("geometry", key))
+            fail(*v, "not used " + why + ", found '" + v->written + "'");
+        };
+        g.refine = static_cast<unsigned int>(quantity("geometry", "refine", 0));
+        if (const auto *mesh = get("geometry", "mesh"))
+          {
+            for (const char *key : {"layers", "width", "length", "radius", "inner_radius", "side_coating",
+                                    "grade_toward", "grading", "cell_size"})
+              forbid(key, "with geometry.mesh (the mesh file sets the shape and the cells; use geometry.refine)");
+            build_mesh_geometry(c, *mesh);
+            return;
+          }
         const auto *layers = get("geometry", "layers");
         if (layers == nullptr)
-          missing("geometry", "layers", "the layers from the top face inward, such as 'clay 0.9 m, sand 0.3 m'");
-        c.geometry.layers = layers->layers;
-        const double total = c.geometry.total_thickness();
-        c.geometry.cell_size = quantity("geometry", "cell_size", total / 100.0);
-        if (dimension >= 2)
+          missing("geometry", "layers",
+                  "the layers from the top face inward, such as 'clay 0.9 m, sand 0.3 m' "
+                  "(or geometry.mesh = FILE.msh)");
+        g.layers = layers->layers;
+        const double total = g.total_thickness();
+        g.cell_size = quantity("geometry", "cell_size", total / 100.0);
+        const bool cartesian = g.coordinates == Coordinates::cartesian;
+        if (cartesian && dimension >= 2)
           {
             if (!is_set("geometry", "width"))
               missing("geometry", "width", "the extent along x of this " + std::to_string(dimension) + "-D case");
-            c.geometry.width = quantity("geometry", "width", 0);
+            g.width = quantity("geometry", "width", 0);
           }
-        else if (const auto *w = get("geometry", "width"))
-          fail(*w, "expected no width in a 1-D case (it is used in 2-D and 3-D), found '" + w->written + "'");
-        if (dimension == 3)
+        else
+          forbid("width", cartesian ? "in a 1-D case (it is the extent along x in 2-D and 3-D)"
+                                    : "with coordinates = " + coordinates + " (axisymmetric cases give radius)");
+        if (cartesian && dimension == 3)
           {
             if (!is_set("geometry", "length"))
               missing("geometry", "length", "the extent along y of this 3-D case");
-            c.geometry.length = quantity("geometry", "length", 0);
+            g.length = quantity("geometry", "length", 0);
           }
-        else if (const auto *l = get("geometry", "length"))
-          fail(*l, "expected no length in a " + std::to_string(dimension) +
-                     "-D case (it is the extent along y in 3-D), found '" + l->written + "'");
+        else
+          forbid("length", "except in 3-D Cartesian cases (it is the extent along y)");
+        if (g.coordinates == Coordinates::axisymmetric)
+          {
+            if (!is_set("geometry", "radius"))
+              missing("geometry", "radius", "the outer radius of the layers of this axisymmetric case");
+            g.radius = quantity("geometry", "radius", 0);
+          }
+        else
+          forbid("radius", "except with coordinates = axisymmetric (radial cases list their layers outward)");
+        if (cartesian)
+          forbid("inner_radius", "in Cartesian cases");
+        g.inner_radius = quantity("geometry", "inner_radius", 0);
+        if (g.coordinates == Coordinates::axisymmetric && g.inner_radius >= g.radius)
+          fail(*get("geometry", "inner_radius"),
+               "expected an inner radius below the radius (" + format_si(g.radius, "m") + ")");
+        if (const auto *coating = get("geometry", "side_coating"))
+          {
+            if (g.coordinates != Coordinates::axisymmetric)
+              fail(*coating, "only used with coordinates = axisymmetric (a band around the layers)");
+            if (coating->layers.size() != 1)
+              fail(*coating, "expected one 'name thickness unit', found " + std::to_string(coating->layers.size()));
+            g.side_coating = coating->layers.front();
+          }
         const std::string grade = text("geometry", "grade_toward");
-        c.geometry.grade_toward = grade == "top" ? Face::top : grade == "bottom" ? Face::bottom : Face::none;
-        c.geometry.grading = quantity("geometry", "grading", 1.0);
-        if (c.geometry.grade_toward == Face::none && c.geometry.grading != 1.0)
-          fail(*get("geometry", "grading"), "expected grade_toward = top or bottom with a grading other than 1, "
+        // Radial cases list layers from the centre outward: the outer surface ends the stack.
+        if (g.radial() && (grade == "top" || grade == "bottom"))
+          fail(*get("geometry", "grade_toward"), "expected outer or inner (centre) in a radial case, found " + grade);
+        if (!g.radial() && (grade == "outer" || grade == "inner" || grade == "centre"))
+          fail(*get("geometry", "grade_toward"),
+               "expected top or bottom (the faces the layers stack between), found " + grade);
+        g.grade_toward = grade == "top" || grade == "inner" || grade == "centre" ? Face::top
+                         : grade == "bottom" || grade == "outer"                 ? Face::bottom
+                                                                                 : Face::none;
+        g.grading = quantity("geometry", "grading", 1.0);
+        if (g.grade_toward == Face::none && g.grading != 1.0)
+          fail(*get("geometry", "grading"), "expected grade_toward with a grading other than 1, "
                                             "found grade_toward = none");
+      }
+
+      void build_mesh_geometry(CaseDescription &c, const SettingValue &mesh) const
+      {
+        GeometrySpec &g = c.geometry;
+        settings_mesh_ = mesh.text;
+        std::filesystem::path path(mesh.text);
+        if (path.is_relative() && mesh.origin != "--set")
+          path = std::filesystem::path(settings.file).parent_path() / path;
+        g.mesh_file = path.lexically_normal().string();
+        MeshFileInfo info;
+        try
+          {
+            info = read_mesh_file_info(g.mesh_file);
+          }
+        catch (const InputError &error)
+          {
+            throw InputError(error.where(), "geometry.mesh (" + mesh.origin + ")", error.message());
+          }
+        if (info.dimension != static_cast<int>(dimension))
+          fail(mesh, "expected a mesh of dimension " + std::to_string(dimension) +
+                       " (this case's), found one whose "
+                       "physical groups go up to dimension " +
+                       std::to_string(info.dimension) + " in " + g.mesh_file);
+        const std::set<int> quadrilaterals{1, 3, 8, 10, 15, 16}, hexahedra{1, 3, 5, 8, 10, 12, 15, 16, 17};
+        for (const int type : info.element_types)
+          if ((dimension == 2 && !quadrilaterals.count(type)) || (dimension == 3 && !hexahedra.count(type)))
+            fail(mesh, "expected " + std::string(dimension == 2 ? "quadrilateral" : "hexahedral") +
+                         " cells (Recombine the mesh in Gmsh), found element type " + std::to_string(type) + " in " +
+                         g.mesh_file);
+        for (const auto &group : info.groups_of(static_cast<int>(dimension)))
+          {
+            if (std::find(g.mesh_regions.begin(), g.mesh_regions.end(), group.name) != g.mesh_regions.end())
+              fail(mesh, "expected distinct region names in the mesh, found '" + group.name + "' twice");
+            g.mesh_regions.push_back(group.name);
+            g.mesh_region_tags.push_back(group.tag);
+          }
+        if (g.mesh_regions.empty())
+          fail(mesh, "the mesh has no named physical group of dimension " + std::to_string(dimension) +
+                       " (regions) in " + g.mesh_file);
+        for (const auto &group : info.groups_of(static_cast<int>(dimension) - 1))
+          {
+            g.mesh_boundaries.push_back(group.name);
+            g.mesh_boundary_tags.push_back(group.tag);
+          }
       }
 
       void build_regions(CaseDescription &c) const
       {
-        std::vector<std::string> layer_names;
-        for (const auto &layer : c.geometry.layers)
-          layer_names.push_back(layer.name);
+        const bool from_mesh = !c.geometry.mesh_file.empty();
+        const std::vector<std::string> region_names = c.geometry.region_names();
         for (const auto &name : settings.names_of("region"))
-          if (std::find(layer_names.begin(), layer_names.end(), name) == layer_names.end())
+          if (std::find(region_names.begin(), region_names.end(), name) == region_names.end())
             {
               std::string list;
-              for (const auto &n : layer_names)
+              for (const auto &n : region_names)
                 list += (list.empty() ? "" : ", ") + n;
-              const std::string suggestion = nearest(name, layer_names);
-              throw InputError(where("region." + name), "region." + name,
-                               "names no layer of geometry.layers (layers: " + list + ")" +
-                                 (suggestion.empty() ? "" : "; did you mean [region." + suggestion + "]?"));
+              const std::string suggestion = nearest(name, region_names);
+              throw InputError(
+                where("region." + name), "region." + name,
+                (from_mesh ? "the mesh has no region of that name (regions in " + c.geometry.mesh_file + ": "
+                           : "names no layer of geometry.layers (layers: ") +
+                  list + ")" + (suggestion.empty() ? "" : "; did you mean [region." + suggestion + "]?"));
             }
-        for (auto &layer : c.geometry.layers)
+        for (const auto &name : region_names)
           {
-            const std::string section = "region." + layer.name;
+            const std::string section = "region." + name;
             if (settings.section_origins.count(section) == 0)
-              throw InputError(where("geometry"), "geometry.layers",
-                               "layer '" + layer.name + "' has no [" + section +
+              throw InputError(where("geometry"), from_mesh ? "geometry.mesh" : "geometry.layers",
+                               "region '" + name + "' has no [" + section +
                                  "] section: expected one with at least its diffusivity");
             RegionSpec region;
-            region.name = layer.name;
+            region.name = name;
             const auto *diffusivity = get(section, "diffusivity");
             const auto *prefactor = get(section, "diffusivity_prefactor");
             const auto *activation = get(section, "activation_energy");
@@ -180,7 +286,7 @@ namespace fickcast
               fail(*activation, "expected diffusivity_prefactor with activation_energy, found no prefactor");
             if (!diffusivity && !prefactor)
               missing(section, "diffusivity",
-                      "the diffusivity of " + layer.name +
+                      "the diffusivity of " + name +
                         ", such as 1e-9 m2/s (or diffusivity_prefactor and activation_energy)");
             if (diffusivity)
               region.diffusivity = diffusivity->field;
@@ -247,32 +353,46 @@ namespace fickcast
             if (const auto *initial = get(section, "initial"))
               region.initial = initial->field;
             region.cell_size = quantity(section, "cell_size", 0);
-            layer.cell_size = region.cell_size;
+            if (from_mesh && get(section, "cell_size"))
+              fail(*get(section, "cell_size"), "not used with geometry.mesh (set sizes in the .geo, or use "
+                                               "geometry.refine)");
+            for (auto &layer : c.geometry.layers)
+              if (layer.name == name)
+                layer.cell_size = region.cell_size;
             c.regions.push_back(region);
           }
       }
 
       void build_boundaries(CaseDescription &c) const
       {
-        const auto faces = builtin_face_names(dimension);
+        faces_ = c.geometry.face_names(dimension);
         for (const auto &name : settings.names_of("boundary"))
           check_face_name(name, "boundary." + name, where("boundary." + name));
-        for (const auto &face : faces)
+        for (const auto &face : faces_)
           c.boundaries.push_back(build_boundary(c, face, ""));
       }
 
       void check_face_name(const std::string &name, const std::string &key, const std::string &origin) const
       {
-        const auto faces = builtin_face_names(dimension);
-        if (std::find(faces.begin(), faces.end(), name) != faces.end())
+        if (GeometrySpec::is_symmetry_face(name) && std::find(faces_.begin(), faces_.end(), name) != faces_.end())
+          throw InputError(origin, key,
+                           "the " + name + " is a symmetry " + (name == "axis" ? "axis" : "point") +
+                             " with no flux across it; it takes no boundary condition");
+        if (std::find(faces_.begin(), faces_.end(), name) != faces_.end())
           return;
+        std::vector<std::string> settable;
+        for (const auto &f : faces_)
+          if (!GeometrySpec::is_symmetry_face(f))
+            settable.push_back(f);
         std::string list;
-        for (const auto &f : faces)
+        for (const auto &f : settable)
           list += (list.empty() ? "" : ", ") + f;
-        const std::string suggestion = nearest(name, faces);
+        const std::string suggestion = nearest(name, settable);
+        const std::string what = settings_mesh_.empty() ? "the built-in " + std::to_string(dimension) + "-D geometry"
+                                                        : "the mesh " + settings_mesh_;
         throw InputError(origin, key,
-                         "unknown boundary of the built-in " + std::to_string(dimension) + "-D geometry (boundaries: " +
-                           list + ")" + (suggestion.empty() ? "" : "; did you mean '" + suggestion + "'?"));
+                         "unknown boundary of " + what + " (boundaries: " + list + ")" +
+                           (suggestion.empty() ? "" : "; did you mean '" + suggestion + "'?"));
       }
 
       /// The boundary @p face, from [boundary.FACE], or in stage @p stage_section (`stage.NAME`):
@@ -403,7 +523,7 @@ namespace fickcast
             stage.name = name;
             stage.start = start;
             stage.duration = duration->si;
-            for (const auto &face : builtin_face_names(dimension))
+            for (const auto &face : faces_)
               stage.boundaries.push_back(build_boundary(c, face, section));
             start += stage.duration;
             c.stages.push_back(stage);
@@ -476,16 +596,29 @@ namespace fickcast
       void check_unambiguous_phase(const CaseDescription &c, const BoundarySpec &boundary,
                                    const SettingValue *value) const
       {
-        if (value == nullptr)
-          return;
-        std::vector<const RegionSpec *> touching;
-        if (boundary.name == "top")
-          touching.push_back(&c.regions.front());
-        else if (boundary.name == "bottom")
-          touching.push_back(&c.regions.back());
+        if (value == nullptr || !c.geometry.mesh_file.empty())
+          return; // on a mesh file the solver checks the cells along the face
+        const GeometrySpec &g = c.geometry;
+        std::vector<std::string> names;
+        const std::string first = g.layers.front().name, last = g.layers.back().name;
+        const bool coated = g.side_coating.thickness > 0;
+        if ((boundary.name == "top" && !g.radial()) || boundary.name == "inner")
+          names = {first};
+        else if (boundary.name == "bottom" || boundary.name == "outer")
+          names = {last};
+        else if (boundary.name == "side" && coated)
+          names = {g.side_coating.name};
         else
-          for (const auto &r : c.regions)
-            touching.push_back(&r);
+          for (const auto &layer : g.layers)
+            names.push_back(layer.name);
+        if (coated && (boundary.name == "top" || boundary.name == "bottom"))
+          names.push_back(g.side_coating.name);
+        if (boundary.name == "inner" && g.coordinates == Coordinates::axisymmetric)
+          for (const auto &layer : g.layers)
+            names.push_back(layer.name);
+        std::vector<const RegionSpec *> touching;
+        for (const auto &name : names)
+          touching.push_back(c.find_region(name));
         for (const auto *r : touching)
           if (r->partition != touching.front()->partition)
             fail(*value, "ambiguous: the face touches regions with different partition coefficients (" +
@@ -573,14 +706,29 @@ namespace fickcast
                   }
                 for (unsigned int d = 0; d < dimension; ++d)
                   probe.point[d] = value.list[d];
-                const double extent[3] = {dimension == 1 ? total : c.geometry.width,
-                                          dimension == 2 ? total : c.geometry.length, total};
-                const double tolerance = 1e-9 * std::max(total, 1e-30);
-                for (unsigned int d = 0; d < dimension; ++d)
-                  if (probe.point[d] < -tolerance || probe.point[d] > extent[d] + tolerance)
-                    fail(value, "expected a point inside the geometry (axis " + std::string(1, "xyz"[d]) +
-                                  " from 0 to " + format_si(extent[d], "m") + "), found " +
-                                  format_si(probe.point[d], "m") + " (the probe is outside)");
+                const GeometrySpec &g = c.geometry;
+                if (g.mesh_file.empty())
+                  {
+                    // Bounds of the built-in geometry per axis (a mesh file is checked when read).
+                    double low[3] = {0, 0, 0};
+                    double high[3] = {dimension == 1 ? total : g.width, dimension == 2 ? total : g.length, total};
+                    if (g.radial())
+                      {
+                        low[0] = g.inner_radius;
+                        high[0] = g.inner_radius + total;
+                      }
+                    if (g.coordinates == Coordinates::axisymmetric)
+                      {
+                        low[0] = g.inner_radius;
+                        high[0] = g.radius + g.side_coating.thickness;
+                      }
+                    const double tolerance = 1e-9 * std::max(total, 1e-30);
+                    for (unsigned int d = 0; d < dimension; ++d)
+                      if (probe.point[d] < low[d] - tolerance || probe.point[d] > high[d] + tolerance)
+                        fail(value, "expected a point inside the geometry (axis " + std::string(1, "xyz"[d]) +
+                                      " from " + format_si(low[d], "m") + " to " + format_si(high[d], "m") +
+                                      "), found " + format_si(probe.point[d], "m") + " (the probe is outside)");
+                  }
                 c.output.probes.push_back(probe);
               }
           }

@@ -1,5 +1,7 @@
 #include "case/case_description.h"
 
+#include <algorithm>
+
 namespace fickcast
 {
   const RegionSpec *CaseDescription::find_region(const std::string &name) const
@@ -24,6 +26,40 @@ namespace fickcast
       if (b.name == boundary)
         return &b;
     return nullptr;
+  }
+
+  std::vector<std::string> GeometrySpec::region_names() const
+  {
+    if (!mesh_file.empty())
+      return mesh_regions;
+    std::vector<std::string> names;
+    for (const auto &layer : layers)
+      if (std::find(names.begin(), names.end(), layer.name) == names.end())
+        names.push_back(layer.name);
+    if (side_coating.thickness > 0 && std::find(names.begin(), names.end(), side_coating.name) == names.end())
+      names.push_back(side_coating.name);
+    return names;
+  }
+
+  std::vector<std::string> GeometrySpec::face_names(const unsigned int dimension) const
+  {
+    if (!mesh_file.empty())
+      {
+        std::vector<std::string> names = mesh_boundaries;
+        names.push_back("unnamed"); // boundary faces in no named group
+        return names;
+      }
+    switch (coordinates)
+      {
+        case Coordinates::cylinder:
+        case Coordinates::sphere:
+          return {inner_radius > 0 ? "inner" : "centre", "outer"};
+        case Coordinates::axisymmetric:
+          return {inner_radius > 0 ? "inner" : "axis", "side", "top", "bottom"};
+        case Coordinates::cartesian:
+          break;
+      }
+    return builtin_face_names(dimension);
   }
 
   std::vector<std::string> builtin_face_names(const unsigned int dimension)

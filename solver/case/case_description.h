@@ -45,20 +45,48 @@ namespace fickcast
   enum class Face
   {
     none,
-    top,
-    bottom
+    top,   ///< the start of the stack (x = 0 in 1-D; the centre or inner radius in radial cases)
+    bottom ///< the end of the stack (the outer surface in radial cases)
+  };
+
+  /// Coordinate systems: Cartesian 1-D/2-D/3-D; radial 1-D cylinder (amounts per unit length)
+  /// and sphere; axisymmetric 2-D (x = r, y = z). Amounts integrate over the full revolution.
+  enum class Coordinates
+  {
+    cartesian,
+    cylinder,
+    sphere,
+    axisymmetric
   };
 
   /// Built-in geometry: layers stacked along the last axis (x in 1-D, y in 2-D, z in 3-D),
   /// starting at the top face (coordinate 0) and growing into the material.
   struct GeometrySpec
   {
-    std::vector<LayerSpec> layers;
-    double cell_size = 0; ///< m, target cell size along every axis
-    double width = 0;     ///< m, extent along x (2-D and 3-D)
-    double length = 0;    ///< m, extent along y (3-D)
+    Coordinates coordinates = Coordinates::cartesian;
+    std::vector<LayerSpec> layers; ///< a name may repeat: the layers then share one region
+    double cell_size = 0;          ///< m, target cell size along every axis
+    double width = 0;              ///< m, extent along x (2-D and 3-D Cartesian)
+    double length = 0;             ///< m, extent along y (3-D)
+    double radius = 0;             ///< m, outer radius of the layer stack (axisymmetric)
+    double inner_radius = 0;       ///< m, a hollow centre (radial and axisymmetric)
+    LayerSpec side_coating;        ///< axisymmetric: a band around the stack (thickness 0: none)
     Face grade_toward = Face::none;
-    double grading = 1; ///< ratio of neighbouring cell sizes (>= 1) growing away from grade_toward
+    double grading = 1;                    ///< ratio of neighbouring cell sizes (>= 1) growing away from grade_toward
+    std::string mesh_file;                 ///< Gmsh mesh; empty: the built-in layered geometry
+    unsigned int refine = 0;               ///< global refinements of the mesh
+    std::vector<std::string> mesh_regions; ///< physical groups of the mesh's dimension, by id
+    std::vector<int> mesh_region_tags;     ///< their physical tags
+    std::vector<std::string> mesh_boundaries; ///< physical groups one dimension lower, by id
+    std::vector<int> mesh_boundary_tags;
+
+    bool radial() const { return coordinates == Coordinates::cylinder || coordinates == Coordinates::sphere; }
+    /// Region names in material-id order: layers (first appearance) and the side coating, or the mesh's.
+    std::vector<std::string> region_names() const;
+    /// Boundary names in boundary-id order for a @p dimension-D case (symmetry faces included).
+    std::vector<std::string> face_names(unsigned int dimension) const;
+    /// Whether face @p name is a symmetry point or axis (centre, axis): sealed, not settable.
+    static bool is_symmetry_face(const std::string &name) { return name == "centre" || name == "axis"; }
 
     double total_thickness() const
     {
@@ -253,6 +281,6 @@ namespace fickcast
     const BoundarySpec *find_boundary(const std::string &name) const;
   };
 
-  /// Names of the faces of the built-in geometry in @p dimension (top, bottom, left, ...).
+  /// Names of the faces of the built-in Cartesian geometry in @p dimension (top, bottom, left, ...).
   std::vector<std::string> builtin_face_names(unsigned int dimension);
 } // namespace fickcast

@@ -575,10 +575,6 @@ namespace fickcast
             if (!(layer.thickness > 0))
               throw InputError(entry.origin(), entry.full_key(),
                                "expected a layer thickness > 0, found '" + joined + "' (a zero-thickness layer)");
-            for (const auto &other : layers)
-              if (other.name == layer.name)
-                throw InputError(entry.origin(), entry.full_key(),
-                                 "expected distinct layer names, found '" + layer.name + "' twice");
             layers.push_back(layer);
           }
         if (layers.empty())
@@ -589,7 +585,8 @@ namespace fickcast
 
     /// Decides the case's concentration family from the first concentration, flux or source
     /// written with a unit; later ones must agree with it.
-    ConcentrationUnits decide_units(const std::vector<IniEntry> &entries, const unsigned int dimension)
+    ConcentrationUnits decide_units(const std::vector<IniEntry> &entries, const unsigned int dimension,
+                                    const std::string &coordinates)
     {
       const UnitSystem &units = UnitSystem::instance();
       std::size_t basis = concentration_bases.size();
@@ -653,13 +650,20 @@ namespace fickcast
       result.flux = flux_bases[basis];
       result.source = source_bases[basis];
       const std::string n = numerator[basis];
+      // Amounts: per unit area in 1-D, per unit length in 2-D (and for a radial cylinder), whole
+      // amounts in 3-D, for a sphere and for axisymmetric cases (full revolution).
+      unsigned int measure = dimension; // the dimension the amount is integrated over
+      if (coordinates == "cylinder")
+        measure = 2;
+      else if (coordinates == "sphere" || coordinates == "axisymmetric")
+        measure = 3;
       const char *per_length[] = {"", "/m2", "/m", ""};
       if (basis == 3)
-        result.amount = dimension == 1 ? "m" : dimension == 2 ? "m2" : "m3";
-      else if (dimension == 3)
+        result.amount = measure == 1 ? "m" : measure == 2 ? "m2" : "m3";
+      else if (measure == 3)
         result.amount = n;
       else
-        result.amount = n + per_length[dimension];
+        result.amount = n + per_length[measure];
       result.as_written = first_written.empty() ? result.concentration : first_written;
       result.decided_by = first_key;
       return result;
@@ -698,13 +702,24 @@ namespace fickcast
         (void)lookup_key(entry);
       }
 
-    // The dimension first: points depend on it.
+    // The coordinates and the dimension first: points depend on them (axisymmetric cases are 2-D).
     Parser parser{settings};
+    std::string coordinates = "cartesian";
+    bool dimension_given = false;
     for (const auto &entry : entries)
-      if (entry.section == "case" && entry.key == "dimension")
-        parser.dimension = static_cast<unsigned int>(parser.parse(entry, lookup_key(entry), Dim::none).si);
+      {
+        if (entry.section == "case" && entry.key == "dimension")
+          {
+            parser.dimension = static_cast<unsigned int>(parser.parse(entry, lookup_key(entry), Dim::none).si);
+            dimension_given = true;
+          }
+        if (entry.section == "case" && entry.key == "coordinates")
+          coordinates = parser.parse(entry, lookup_key(entry), Dim::none).text;
+      }
+    if (!dimension_given && coordinates == "axisymmetric")
+      parser.dimension = 2;
 
-    settings.units = decide_units(entries, parser.dimension);
+    settings.units = decide_units(entries, parser.dimension, coordinates);
     for (const auto &entry : entries)
       {
         const KeySpec &spec = lookup_key(entry);

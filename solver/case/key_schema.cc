@@ -64,18 +64,36 @@ namespace fickcast
       std::vector<KeySpec> s;
       // [case]
       s.push_back(make("case", "title", K::text, Dim::none, "untitled case", "a title for reports"));
-      s.push_back(bounded(make("case", "dimension", K::integer, Dim::none, "1", "1, 2 or 3 space dimensions"), 1, false,
-                          3, false));
+      s.push_back(bounded(
+        make("case", "dimension", K::integer, Dim::none, "1", "1, 2 or 3 space dimensions (2 for axisymmetric cases)"),
+        1, false, 3, false));
+      s.push_back(choices(make("case", "coordinates", K::choice, Dim::none, "cartesian",
+                               "cartesian, cylinder or sphere (radial 1-D), axisymmetric (2-D r, z)"),
+                          {"cartesian", "cylinder", "sphere", "axisymmetric"}));
       // [geometry]
-      s.push_back(required(make("geometry", "layers", K::layers, Dim::length, "",
-                                "layers from the top face inward: 'name thickness unit, ...'")));
+      s.push_back(make("geometry", "layers", K::layers, Dim::length, "",
+                       "layers from the top face inward (radial: from the centre outward): "
+                       "'name thickness unit, ...'; a name may repeat"));
+      s.push_back(make("geometry", "mesh", K::text, Dim::none, "",
+                       "a Gmsh mesh file (.msh 2.2 or 4.1, quadrilaterals or hexahedra) with named physical "
+                       "groups, instead of layers"));
+      s.push_back(bounded(make("geometry", "refine", K::integer, Dim::none, "0",
+                               "global refinements of the mesh (each halves the cell size)"),
+                          0, false, 8, false));
       s.push_back(with_auto(positive(
         make("geometry", "cell_size", K::quantity, Dim::length, "", "target cell size; auto: total thickness / 100"))));
       s.push_back(positive(make("geometry", "width", K::quantity, Dim::length, "", "extent along x (2-D and 3-D)")));
       s.push_back(positive(make("geometry", "length", K::quantity, Dim::length, "", "extent along y (3-D)")));
+      s.push_back(positive(
+        make("geometry", "radius", K::quantity, Dim::length, "", "outer radius of the layers (axisymmetric)")));
+      s.push_back(bounded(make("geometry", "inner_radius", K::quantity, Dim::length, "",
+                               "radius of a hollow centre (radial and axisymmetric)"),
+                          0, false));
+      s.push_back(make("geometry", "side_coating", K::layers, Dim::length, "",
+                       "axisymmetric: a band 'name thickness unit' around the side of the layers"));
       s.push_back(choices(make("geometry", "grade_toward", K::choice, Dim::none, "none",
-                               "face toward which cells get smaller: none, top or bottom"),
-                          {"none", "top", "bottom"}));
+                               "face toward which cells get smaller: top or bottom (radial: outer or centre)"),
+                          {"none", "top", "bottom", "outer", "inner", "centre"}));
       s.push_back(bounded(make("geometry", "grading", K::quantity, Dim::dimensionless, "1",
                                "size ratio of neighbouring cells away from grade_toward"),
                           1, false, 2, false));

@@ -3,6 +3,7 @@
 #include "numerics/diffusion_problem.h"
 
 #include "case/input_error.h"
+#include "geometry/mesh_import.h"
 
 #include <deal.II/base/quadrature_lib.h>
 #include <deal.II/base/utilities.h>
@@ -71,8 +72,8 @@ namespace fickcast
       triangulation_ = std::make_unique<Triangulation<dim>>();
     else
       triangulation_ = std::make_unique<parallel::distributed::Triangulation<dim>>(communicator_);
-    build_layered_mesh<dim>(*triangulation_, description_.geometry);
-    names_ = layered_mesh_names(description_.geometry, dim);
+    fickcast::make_mesh<dim>(*triangulation_, description_.geometry);
+    names_ = mesh_names(description_.geometry, dim);
   }
 
   template <int dim>
@@ -311,8 +312,21 @@ namespace fickcast
   }
 
   template <int dim>
-  double DiffusionProblem<dim>::coordinate_weight(const Point<dim> &) const
+  double DiffusionProblem<dim>::coordinate_weight(const Point<dim> &point) const
   {
+    // Amounts over the full revolution: 2 pi r per unit length (cylinder), 4 pi r^2 (sphere),
+    // 2 pi r (axisymmetric, r = x).
+    constexpr double two_pi = 2 * M_PI;
+    switch (description_.geometry.coordinates)
+      {
+        case Coordinates::cylinder:
+        case Coordinates::axisymmetric:
+          return two_pi * point[0];
+        case Coordinates::sphere:
+          return 2 * two_pi * point[0] * point[0];
+        case Coordinates::cartesian:
+          break;
+      }
     return 1.0;
   }
 

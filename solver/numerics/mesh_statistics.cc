@@ -1,6 +1,6 @@
 #include "numerics/mesh_statistics.h"
 
-#include "geometry/layered_mesh.h"
+#include "geometry/mesh_import.h"
 
 #include <deal.II/base/mpi.h>
 #include <deal.II/distributed/tria.h>
@@ -21,7 +21,7 @@ namespace fickcast
         triangulation = std::make_unique<dealii::Triangulation<dim>>();
       else
         triangulation = std::make_unique<dealii::parallel::distributed::Triangulation<dim>>(communicator);
-      build_layered_mesh<dim>(*triangulation, c.geometry);
+      make_mesh<dim>(*triangulation, c.geometry);
       const dealii::FE_Q<dim> fe(c.numerics.degree);
       dealii::DoFHandler<dim> dofs(*triangulation);
       dofs.distribute_dofs(fe);

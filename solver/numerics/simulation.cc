@@ -118,22 +118,64 @@ namespace fickcast
       }
     const PointEvaluator<dim> probes(problem, probe_points, "output.probe", probe_regions);
 
-    const double total_thickness = c.geometry.total_thickness();
+    // The line depths are measured along: the stacking axis from the top face (Cartesian, at the
+    // lateral centre), from the outer surface inward (radial), along the axis (axisymmetric), or
+    // along the last axis through the centre of the mesh's bounding box (mesh files).
     std::vector<Point<dim>> line_points;
-    {
-      const std::size_t n_line =
-        std::max<std::size_t>(400, 20 * static_cast<std::size_t>(std::ceil(total_thickness / c.geometry.cell_size)));
-      for (std::size_t k = 0; k <= n_line; ++k)
-        {
-          Point<dim> p;
-          if (dim >= 2)
-            p[0] = 0.5 * c.geometry.width;
-          if (dim == 3)
-            p[1] = 0.5 * c.geometry.length;
-          p[dim - 1] = total_thickness * static_cast<double>(k) / static_cast<double>(n_line);
-          line_points.push_back(p);
-        }
-    }
+    std::vector<double> line_distance;
+    if (!c.output.depths.empty())
+      {
+        const GeometrySpec &g = c.geometry;
+        Point<dim> start, end;
+        std::size_t n_line = 400;
+        if (g.mesh_file.empty())
+          {
+            const double total = g.total_thickness();
+            n_line = std::max<std::size_t>(400, 20 * static_cast<std::size_t>(std::ceil(total / g.cell_size)));
+            if (g.radial())
+              {
+                start[0] = g.inner_radius + total;
+                end[0] = g.inner_radius;
+              }
+            else
+              {
+                if (g.coordinates == Coordinates::axisymmetric)
+                  start[0] = end[0] = g.inner_radius;
+                else if (dim >= 2)
+                  start[0] = end[0] = 0.5 * g.width;
+                if (dim == 3)
+                  start[1] = end[1] = 0.5 * g.length;
+                end[dim - 1] = total;
+              }
+          }
+        else
+          {
+            std::vector<double> low(dim, 1e300), high(dim, -1e300);
+            for (const auto &cell : problem.triangulation().active_cell_iterators())
+              if (cell->is_locally_owned())
+                for (const unsigned int v : cell->vertex_indices())
+                  for (int d = 0; d < dim; ++d)
+                    {
+                      low[d] = std::min(low[d], cell->vertex(v)[d]);
+                      high[d] = std::max(high[d], cell->vertex(v)[d]);
+                    }
+            for (int d = 0; d < dim; ++d)
+              {
+                low[d] = Utilities::MPI::min(low[d], communicator);
+                high[d] = Utilities::MPI::max(high[d], communicator);
+                start[d] = end[d] = 0.5 * (low[d] + high[d]);
+              }
+            start[dim - 1] = low[dim - 1];
+            end[dim - 1] = high[dim - 1];
+            n_line = 2000;
+          }
+        for (std::size_t k = 0; k <= n_line; ++k)
+          {
+            const double fraction = static_cast<double>(k) / static_cast<double>(n_line);
+            line_points.push_back(start + fraction * (end - start));
+            line_distance.push_back(fraction * start.distance(end));
+          }
+      }
     std::unique_ptr<PointEvaluator<dim>> line;
     if (!c.output.depths.empty())
       line = std::make_unique<PointEvaluator<dim>>(problem, line_points, "output.depth");
@@ -289,7 +331,7 @@ namespace fickcast
                 for (std::size_t i = 1; i < values.size(); ++i)
                   if (values[i] < level)
                     {
-                      const double z0 = line_points[i - 1][dim - 1], z1 = line_points[i][dim - 1];
+                      const double z0 = line_distance[i - 1], z1 = line_distance[i];
                       depth = z0 + (values[i - 1] - level) / (values[i - 1] - values[i]) * (z1 - z0);
                       break;
                     }
