@@ -37,6 +37,9 @@ namespace fickcast
         const auto additional = reason.find("Additional information:");
         if (additional != std::string::npos)
           reason = reason.substr(additional + 23);
+        const auto trace = reason.find("Stacktrace");
+        if (trace != std::string::npos)
+          reason = reason.substr(0, trace);
         reason.erase(std::remove(reason.begin(), reason.end(), '\n'), reason.end());
         while (reason.find("  ") != std::string::npos)
           reason.replace(reason.find("  "), 2, " ");

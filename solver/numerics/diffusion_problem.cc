@@ -146,7 +146,8 @@ namespace fickcast
           direct = false;
           break;
         case LinearSolverKind::automatic:
-          direct = serial && (dim == 1 || (dim == 2 && n_dofs() <= 60000) || (dim == 3 && n_dofs() <= 20000));
+          // Sparse LU pays off only for small 2-D and tiny 3-D systems (fill-in grows fast).
+          direct = serial && (dim == 1 || (dim == 2 && n_dofs() <= 5000) || (dim == 3 && n_dofs() <= 1000));
           break;
       }
     solver_ = std::make_unique<LinearSolver>(direct, description_.numerics.solver_tolerance, fe_.degree > 1);

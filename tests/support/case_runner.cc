@@ -7,6 +7,9 @@
 
 #include <filesystem>
 
+#ifndef FICKCAST_SOURCE_DIR
+#define FICKCAST_SOURCE_DIR "."
+#endif
 #ifndef FICKCAST_TEST_SCRATCH
 #define FICKCAST_TEST_SCRATCH "/tmp/fickcast-tests"
 #endif
@@ -23,6 +26,11 @@ namespace fickcast::testing
       }
     MPI_Barrier(communicator);
     return folder;
+  }
+
+  std::string source_path(const std::string &relative)
+  {
+    return std::string(FICKCAST_SOURCE_DIR) + "/" + relative;
   }
 
   CaseDescription describe(const std::string &case_text, const std::string &name, MPI_Comm communicator)

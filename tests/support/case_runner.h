@@ -19,6 +19,9 @@ namespace fickcast::testing
   CaseDescription describe(const std::string &case_text, const std::string &name,
                            MPI_Comm communicator = MPI_COMM_WORLD);
 
+  /// Absolute path of @p relative in the source tree (for meshes and cases in tests).
+  std::string source_path(const std::string &relative);
+
   /// Runs @p description on MPI_COMM_WORLD into its output folder (overwriting); returns the record.
   RunRecord run(const CaseDescription &description);
 } // namespace fickcast::testing
