@@ -35,6 +35,8 @@ namespace
       }
     if (invocation.verb == "check")
       return fickcast::verb_check(invocation, communicator);
+    if (invocation.verb == "verify")
+      return fickcast::verb_verify(invocation, communicator);
     return fickcast::verb_run(invocation, communicator);
   }
 } // namespace

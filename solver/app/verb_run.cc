@@ -54,6 +54,14 @@ namespace fickcast
                     std::isfinite(depth.depths.back()) ? units.length(depth.depths.back()).c_str()
                                                        : "below the whole domain",
                     units.concentration(depth.level).c_str());
+    for (const auto &release : r.releases)
+      std::printf("  release.%s: %s (%.0f %% released)\n", release.name.c_str(), units.time(release.time).c_str(),
+                  100 * release.level);
+    if (std::isfinite(r.released_final) && (!r.releases.empty() || description.output.loading > 0))
+      std::printf("  released at the end: %.4g %%\n", 100 * r.released_final);
+    for (const auto &lag : r.time_lags)
+      std::printf("  time_lag.%s: %s through %s%s\n", lag.name.c_str(), units.time(lag.time_lag).c_str(),
+                  lag.boundary.c_str(), lag.steady ? "" : " (flux not yet steady: the run may be too short)");
     std::printf("  mass balance error: %.2e of the amounts moved\n", r.balance_error_relative);
     std::printf("results: %s\n", outcome.folder.c_str());
     std::printf("  Model predictions support, but do not replace, testing and engineering judgement; see the\n"

@@ -9,4 +9,5 @@ namespace fickcast
 {
   int verb_check(const Invocation &invocation, MPI_Comm communicator);
   int verb_run(const Invocation &invocation, MPI_Comm communicator);
+  int verb_verify(const Invocation &invocation, MPI_Comm communicator);
 } // namespace fickcast

@@ -751,7 +751,49 @@ namespace fickcast
               }
             else if (prefix == "depth")
               c.output.depths.push_back(LevelSpec{name, value.si});
+            else if (prefix == "line")
+              {
+                LineSpec line;
+                line.name = name;
+                for (unsigned int d = 0; d < dimension; ++d)
+                  {
+                    line.from[d] = value.list[d];
+                    line.to[d] = value.list[dimension + d];
+                  }
+                if (line.from == line.to)
+                  fail(value, "expected a line between two different points, found one point twice");
+                if (const auto *samples = get("output", "samples." + name))
+                  line.samples = static_cast<unsigned int>(samples->si);
+                c.output.lines.push_back(line);
+              }
+            else if (prefix == "release")
+              c.output.releases.push_back(LevelSpec{name, value.si});
+            else if (prefix == "time_lag")
+              {
+                const auto &faces = faces_;
+                if (std::find(faces.begin(), faces.end(), value.text) == faces.end() ||
+                    GeometrySpec::is_symmetry_face(value.text))
+                  {
+                    std::string list;
+                    for (const auto &f : faces)
+                      if (!GeometrySpec::is_symmetry_face(f))
+                        list += (list.empty() ? "" : ", ") + f;
+                    fail(value, "expected a boundary name (" + list + "), found '" + value.text + "'");
+                  }
+                c.output.time_lags.emplace_back(name, value.text);
+              }
           }
+        for (const auto &value : settings.all())
+          if (value.section == "output" && value.key.rfind("samples.", 0) == 0)
+            {
+              const std::string name = value.key.substr(8);
+              if (std::none_of(c.output.lines.begin(), c.output.lines.end(),
+                               [&](const LineSpec &l) { return l.name == name; }))
+                fail(value, "expected a line of the same name (output.line." + name + " = FROM to TO), found none");
+            }
+        c.output.loading = quantity("output", "loading", 0);
+        if (const auto *moments = get("output", "moments"))
+          c.output.moments = moments->flag;
       }
 
       void add_record(CaseDescription &c, const std::string &section, const KeySpec &key_spec) const

@@ -221,6 +221,14 @@ namespace fickcast
     std::string region;                     ///< side to read at an interface (`... in REGION`); empty: any
   };
 
+  /// A named sampling line from one point to another, with its number of points.
+  struct LineSpec
+  {
+    std::string name;
+    std::array<double, 3> from{{0, 0, 0}}, to{{0, 0, 0}}; ///< m
+    unsigned int samples = 101;
+  };
+
   /// A named level: first time the probe of the same name reaches it (threshold), or the
   /// depth along the stacking axis where the concentration falls below it (depth).
   struct LevelSpec
@@ -238,6 +246,11 @@ namespace fickcast
     std::vector<ProbeSpec> probes;
     std::vector<LevelSpec> thresholds;
     std::vector<LevelSpec> depths;
+    std::vector<LineSpec> lines;
+    std::vector<LevelSpec> releases; ///< levels of the released fraction (0, 1]
+    double loading = 0;              ///< reference amount of the released fraction; 0: the initial amount
+    std::vector<std::pair<std::string, std::string>> time_lags; ///< name, boundary
+    bool moments = false;
   };
 
   /// One effective setting as `fickcast check` prints it and summary.json echoes it.

@@ -50,6 +50,7 @@ namespace fickcast
                  (field.scale == 1 && field.offset == 0 ? std::string() : " x " + format_si(field.scale, "")) +
                  (field.offset == 0 ? std::string() : " + " + format_si(field.offset, "")) + " " + si_unit;
         case ValueKind::quantity_list:
+        case ValueKind::segment:
         case ValueKind::point:
           {
             if (!text.empty())
@@ -129,6 +130,8 @@ namespace fickcast
             return "J";
           case Dim::bath_volume:
             return dimension == 1 ? "m" : dimension == 2 ? "m2" : "m3";
+          case Dim::amount:
+            return units.amount;
           case Dim::dimensionless:
             return "1";
           case Dim::length:
@@ -480,24 +483,19 @@ namespace fickcast
                         value.text.erase(0, value.text.find_first_not_of(' '));
                         coordinates = text.substr(0, in);
                       }
-                    const auto items = split_list(coordinates);
-                    if (items.size() != dimension)
+                    value.list = parse_point(entry, coordinates);
+                    break;
+                  }
+                case ValueKind::segment:
+                  {
+                    const auto to = text.find(" to ");
+                    if (to == std::string::npos)
                       throw InputError(entry.origin(), entry.full_key(),
-                                       "expected " + std::to_string(dimension) + " coordinate" +
-                                         (dimension > 1 ? "s" : "") + " (one per axis of this " +
-                                         std::to_string(dimension) + "-D case), found " + std::to_string(items.size()) +
-                                         " in '" + text + "'");
-                    std::size_t with_unit = 0;
-                    for (const auto &item : items)
-                      {
-                        const QuantityText q = split_quantity(item, false);
-                        with_unit += q.unit.empty() ? 0 : 1;
-                        value.list.push_back(to_si_or_throw(entry, q.number, q.unit, "m", Dim::length));
-                      }
-                    if (with_unit != 0 && with_unit != items.size())
-                      throw InputError(entry.origin(), entry.full_key(),
-                                       "expected a unit on every coordinate (a bare number is metres), found '" + text +
-                                         "'");
+                                       "expected 'FROM to TO' (two points, each one coordinate per axis), found '" +
+                                         text + "'");
+                    value.list = parse_point(entry, text.substr(0, to));
+                    const auto end = parse_point(entry, text.substr(to + 4));
+                    value.list.insert(value.list.end(), end.begin(), end.end());
                     break;
                   }
                 case ValueKind::layers:
@@ -512,6 +510,29 @@ namespace fickcast
                                (spec.dim == Dim::none ? std::string() : "; expected " + describe_dim(dim)));
           }
         return value;
+      }
+
+      /// Coordinates of a point: one per axis, each with its unit (or all bare, in metres).
+      std::vector<double> parse_point(const IniEntry &entry, const std::string &text) const
+      {
+        const auto items = split_list(text);
+        if (items.size() != dimension)
+          throw InputError(entry.origin(), entry.full_key(),
+                           "expected " + std::to_string(dimension) + " coordinate" + (dimension > 1 ? "s" : "") +
+                             " (one per axis of this " + std::to_string(dimension) + "-D case), found " +
+                             std::to_string(items.size()) + " in '" + text + "'");
+        std::size_t with_unit = 0;
+        std::vector<double> coordinates;
+        for (const auto &item : items)
+          {
+            const QuantityText q = split_quantity(item, false);
+            with_unit += q.unit.empty() ? 0 : 1;
+            coordinates.push_back(to_si_or_throw(entry, q.number, q.unit, "m", Dim::length));
+          }
+        if (with_unit != 0 && with_unit != items.size())
+          throw InputError(entry.origin(), entry.full_key(),
+                           "expected a unit on every coordinate (a bare number is metres), found '" + text + "'");
+        return coordinates;
       }
 
       std::vector<LayerSpec> parse_layers(const IniEntry &entry) const

@@ -239,8 +239,23 @@ namespace fickcast
                                "first time the probe of the same name reaches this concentration"),
                           0, false));
       s.push_back(bounded(make("output", "depth.*", K::quantity, Dim::concentration, "",
-                               "depth from the top face where the concentration falls below this level"),
+                               "depth where the concentration first falls below this level, along the line of "
+                               "the same name if there is one, else from the top face (radial: the outer surface)"),
                           0, false));
+      s.push_back(make("output", "line.*", K::segment, Dim::length, "",
+                       "a named sampling line 'FROM to TO' (points as for probes); profiles.csv at output times"));
+      s.push_back(bounded(make("output", "samples.*", K::integer, Dim::none, "101",
+                               "number of sampling points on the line of the same name"),
+                          2, false, 100000, false));
+      s.push_back(bounded(make("output", "release.*", K::quantity, Dim::dimensionless, "",
+                               "the time the released fraction reaches this level, such as 50 %"),
+                          0, true, 1, false));
+      s.push_back(positive(make("output", "loading", K::quantity, Dim::amount, "",
+                                "amount the released fraction refers to (default: the initial amount)")));
+      s.push_back(make("output", "time_lag.*", K::text, Dim::none, "",
+                       "a boundary name: time lag of the amount through it, from its linear asymptote"));
+      s.push_back(make("output", "moments", K::flag, Dim::none, "false",
+                       "mean position and variance of the content at output times"));
       return s;
     }
   } // namespace
@@ -329,6 +344,8 @@ namespace fickcast
           return "an activation energy such as 3.46 eV or 148 kJ/mol";
         case Dim::bath_volume:
           return "a bath volume (m3 in 3-D, m2 per unit length in 2-D, m per unit area in 1-D)";
+        case Dim::amount:
+          return "an amount in this case's amount units";
         case Dim::boundary_value:
           return "a concentration or a flux";
         case Dim::none:

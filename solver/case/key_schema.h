@@ -19,7 +19,8 @@ namespace fickcast
     quantity_list, ///< comma-separated quantities of one dimension
     point,         ///< comma-separated coordinates, one per axis, each a length; `... in REGION`
     layers,        ///< `name thickness unit, name thickness unit, ...`
-    schedule       ///< temperature: `800 degC, ramp 10 degC/min to 1100 degC, hold 1 h`
+    schedule,      ///< temperature: `800 degC, ramp 10 degC/min to 1100 degC, hold 1 h`
+    segment        ///< two points: `0 m, 0.5 m to 1 m, 0.5 m`
   };
 
   /// Physical dimension of a quantity key; concentration-derived ones follow the case's
@@ -41,6 +42,7 @@ namespace fickcast
     specific_volume,   ///< m3/kg (distribution coefficient)
     activation_energy, ///< J (per particle, e.g. eV) or J/mol (e.g. kJ/mol)
     bath_volume,       ///< m3 in 3-D; per unit length (m2) in 2-D; per unit area (m) in 1-D
+    amount,            ///< the case's amount unit (concentration times the measure of the domain)
     boundary_value     ///< concentration or flux, decided by the boundary type
   };
 

@@ -1,6 +1,7 @@
 // Everything a run found out, in SI: what summary.json and the closing report are made from.
 #pragma once
 
+#include <array>
 #include <cmath>
 #include <limits>
 #include <map>
@@ -25,6 +26,32 @@ namespace fickcast
     double level = 0;
     std::vector<double> times;  ///< output times, s
     std::vector<double> depths; ///< m from the top face; NaN where c never falls below the level
+  };
+
+  /// When the released fraction reached a level.
+  struct ReleaseRecord
+  {
+    std::string name;
+    double level = 0;
+    double time = not_a_number; ///< s; NaN if never
+  };
+
+  /// Time lag of the amount through a boundary, from the asymptote of its cumulative amount.
+  struct TimeLagRecord
+  {
+    std::string name, boundary;
+    double time_lag = not_a_number;   ///< s
+    double final_flux = not_a_number; ///< amount per time, inward positive
+    bool steady = false;              ///< the flux changed by less than 0.1 % over the last fifth of the run
+  };
+
+  /// Mean position and variance of the content at one output time.
+  struct MomentsRecord
+  {
+    double time = 0;
+    double amount = 0;
+    std::array<double, 3> mean{{0, 0, 0}}; ///< m
+    double variance = 0;                   ///< m2, sum over the axes
   };
 
   struct StageRecord
@@ -62,6 +89,12 @@ namespace fickcast
     double balance_error_relative = 0; ///< |balance_error| / reference amount
     std::vector<ProbeRecord> probes;
     std::vector<DepthRecord> depths;
+    std::vector<ReleaseRecord> releases;
+    double released_reference = 0;        ///< amount the released fraction refers to
+    double released_final = not_a_number; ///< released fraction at the end
+    std::vector<TimeLagRecord> time_lags;
+    std::vector<MomentsRecord> moments;
+    std::vector<std::string> lines;
     std::vector<double> output_times;
     std::map<std::string, double> timing; ///< wall seconds per phase
   };

@@ -6,7 +6,7 @@
 #include "numerics/step_controller.h"
 #include "results/csv_writer.h"
 #include "results/field_writer.h"
-#include "results/point_evaluator.h"
+#include "results/observers.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -99,89 +99,6 @@ namespace fickcast
     for (const auto &stage : c.stages)
       record.stages.push_back({stage.name, stage.start, stage.end()});
 
-    // Probes, thresholds, depths.
-    std::vector<Point<dim>> probe_points;
-    std::vector<std::string> probe_regions;
-    for (const auto &probe : c.output.probes)
-      {
-        Point<dim> p;
-        for (int d = 0; d < dim; ++d)
-          p[d] = probe.point[d];
-        probe_points.push_back(p);
-        probe_regions.push_back(probe.region);
-        ProbeRecord probe_record;
-        probe_record.name = probe.name;
-        for (const auto &threshold : c.output.thresholds)
-          if (threshold.name == probe.name)
-            probe_record.threshold = threshold.level;
-        record.probes.push_back(probe_record);
-      }
-    const PointEvaluator<dim> probes(problem, probe_points, "output.probe", probe_regions);
-
-    // The line depths are measured along: the stacking axis from the top face (Cartesian, at the
-    // lateral centre), from the outer surface inward (radial), along the axis (axisymmetric), or
-    // along the last axis through the centre of the mesh's bounding box (mesh files).
-    std::vector<Point<dim>> line_points;
-    std::vector<double> line_distance;
-    if (!c.output.depths.empty())
-      {
-        const GeometrySpec &g = c.geometry;
-        Point<dim> start, end;
-        std::size_t n_line = 400;
-        if (g.mesh_file.empty())
-          {
-            const double total = g.total_thickness();
-            n_line = std::max<std::size_t>(400, 20 * static_cast<std::size_t>(std::ceil(total / g.cell_size)));
-            if (g.radial())
-              {
-                start[0] = g.inner_radius + total;
-                end[0] = g.inner_radius;
-              }
-            else
-              {
-                if (g.coordinates == Coordinates::axisymmetric)
-                  start[0] = end[0] = g.inner_radius;
-                else if (dim >= 2)
-                  start[0] = end[0] = 0.5 * g.width;
-                if (dim == 3)
-                  start[1] = end[1] = 0.5 * g.length;
-                end[dim - 1] = total;
-              }
-          }
-        else
-          {
-            std::vector<double> low(dim, 1e300), high(dim, -1e300);
-            for (const auto &cell : problem.triangulation().active_cell_iterators())
-              if (cell->is_locally_owned())
-                for (const unsigned int v : cell->vertex_indices())
-                  for (int d = 0; d < dim; ++d)
-                    {
-                      low[d] = std::min(low[d], cell->vertex(v)[d]);
-                      high[d] = std::max(high[d], cell->vertex(v)[d]);
-                    }
-            for (int d = 0; d < dim; ++d)
-              {
-                low[d] = Utilities::MPI::min(low[d], communicator);
-                high[d] = Utilities::MPI::max(high[d], communicator);
-                start[d] = end[d] = 0.5 * (low[d] + high[d]);
-              }
-            start[dim - 1] = low[dim - 1];
-            end[dim - 1] = high[dim - 1];
-            n_line = 2000;
-          }
-        for (std::size_t k = 0; k <= n_line; ++k)
-          {
-            const double fraction = static_cast<double>(k) / static_cast<double>(n_line);
-            line_points.push_back(start + fraction * (end - start));
-            line_distance.push_back(fraction * start.distance(end));
-          }
-      }
-    std::unique_ptr<PointEvaluator<dim>> line;
-    if (!c.output.depths.empty())
-      line = std::make_unique<PointEvaluator<dim>>(problem, line_points, "output.depth");
-    for (const auto &depth : c.output.depths)
-      record.depths.push_back(DepthRecord{depth.name, depth.level, {}, {}});
-
     // Which boundaries are ever active, and which are ever baths.
     std::vector<bool> active_boundary(n_boundaries, false), bath_boundary(n_boundaries, false);
     for (const auto &stage : c.stages)
@@ -228,6 +145,7 @@ namespace fickcast
     if (has_decay)
       columns.push_back({"decayed.total", amount_unit});
     columns.push_back({"balance_error", amount_unit});
+    columns.push_back({"released_fraction", ""});
     for (const auto &probe : c.output.probes)
       columns.push_back({"probe." + probe.name, c.units.concentration});
     columns.push_back({"linear_iterations", ""});
@@ -262,16 +180,28 @@ namespace fickcast
     for (const double a : record.initial_region_amounts)
       reference_amount += std::abs(a);
 
+    Observers<dim> observers(problem, c, folder, reference_amount);
+    auto remaining = [&problem](const Vector &state) {
+      double total = problem.undissolved_amount();
+      for (const double a : problem.region_amounts(state))
+        total += a;
+      return total;
+    };
+    observers.start(problem.make_ghosted(u), remaining(u));
+    std::vector<std::pair<unsigned int, std::vector<std::pair<double, double>>>> lag_history;
+    for (const auto &[name, boundary] : c.output.time_lags)
+      {
+        (void)name;
+        const auto &names = problem.names().boundaries;
+        lag_history.push_back(
+          {static_cast<unsigned int>(std::find(names.begin(), names.end(), boundary) - names.begin()), {}});
+      }
+
     TermRates rates_old = problem.rates(u, 0.0);
     std::vector<double> reaction_rate_old(n_boundaries, not_a_number);
     std::vector<double> amounts_prev(n_boundaries + 2, 0.0); // per boundary, source, decay
     double source_total = 0, decayed_total = 0, balance = 0;
     unsigned int last_iterations = 0, last_nonlinear = 0;
-    std::vector<double> probe_values = probes.concentrations(problem.make_ghosted(u));
-    for (std::size_t k = 0; k < record.probes.size(); ++k)
-      if (std::isfinite(record.probes[k].threshold) && probe_values[k] >= record.probes[k].threshold)
-        record.probes[k].threshold_time = 0; // reached from the start
-
     auto write_row = [&](const double t, const unsigned int step, const double dt, const Vector &state,
                          const std::vector<double> &boundary_rates) {
       const auto amounts = problem.region_amounts(state);
@@ -302,6 +232,8 @@ namespace fickcast
       if (has_decay)
         row.push_back(decayed_total);
       row.push_back(balance);
+      row.push_back(observers.released_fraction(total));
+      const auto &probe_values = observers.probe_values();
       row.insert(row.end(), probe_values.begin(), probe_values.end());
       row.push_back(last_iterations);
       if (problem.is_nonlinear())
@@ -318,27 +250,7 @@ namespace fickcast
       if (fields)
         fields->write(ghosted, t);
       record.output_times.push_back(t);
-      if (line)
-        {
-          const auto values = line->concentrations(ghosted);
-          for (std::size_t k = 0; k < c.output.depths.size(); ++k)
-            {
-              const double level = c.output.depths[k].level;
-              double depth = not_a_number;
-              if (values.front() < level)
-                depth = 0;
-              else
-                for (std::size_t i = 1; i < values.size(); ++i)
-                  if (values[i] < level)
-                    {
-                      const double z0 = line_distance[i - 1], z1 = line_distance[i];
-                      depth = z0 + (values[i - 1] - level) / (values[i - 1] - values[i]) * (z1 - z0);
-                      break;
-                    }
-              record.depths[k].times.push_back(t);
-              record.depths[k].depths.push_back(depth);
-            }
-        }
+      observers.output(t, ghosted);
     };
 
     {
@@ -574,16 +486,9 @@ namespace fickcast
             ++steps_since_restart;
             ++record.steps_accepted;
 
-            const std::vector<double> new_values = probes.concentrations(problem.make_ghosted(u));
-            for (std::size_t k = 0; k < record.probes.size(); ++k)
-              {
-                auto &p = record.probes[k];
-                const double v0 = probe_values[k], v1 = new_values[k];
-                if (std::isfinite(p.threshold) && !std::isfinite(p.threshold_time) && v0 < p.threshold &&
-                    v1 >= p.threshold)
-                  p.threshold_time = t - (t1 - plan.t0) + (p.threshold - v0) / (v1 - v0) * (t1 - plan.t0);
-              }
-            probe_values = new_values;
+            observers.step(plan.t0, t1, problem.make_ghosted(u), remaining(u));
+            for (auto &lag : lag_history)
+              lag.second.emplace_back(t, boundary_rates[lag.first]);
             write_row(t, step, t1 - plan.t0, u, boundary_rates);
             if (landing)
               {
@@ -638,8 +543,28 @@ namespace fickcast
       moved = std::max(moved, std::abs(a));
     moved = std::max({moved, std::abs(source_total), std::abs(decayed_total)});
     record.balance_error_relative = moved > 0 ? std::abs(balance) / moved : 0.0;
-    for (std::size_t k = 0; k < record.probes.size(); ++k)
-      record.probes[k].final_value = probe_values[k];
+    observers.finish(record);
+    // Time lags: the intercept of the asymptote Q = J (t - t_lag) of the amount through a boundary.
+    for (std::size_t k = 0; k < c.output.time_lags.size(); ++k)
+      {
+        TimeLagRecord lag;
+        lag.name = c.output.time_lags[k].first;
+        lag.boundary = c.output.time_lags[k].second;
+        const auto &history_of = lag_history[k].second;
+        const unsigned int b = lag_history[k].first;
+        if (!history_of.empty() && history_of.back().second != 0)
+          {
+            const double flux = history_of.back().second;
+            lag.final_flux = flux;
+            lag.time_lag = t - record.boundary_entered[b] / flux;
+            // Steady: the flux changed by less than 0.1 % over the last fifth of the run.
+            const double early = 0.8 * t;
+            const auto it = std::lower_bound(history_of.begin(), history_of.end(), early,
+                                             [](const std::pair<double, double> &p, double s) { return p.first < s; });
+            lag.steady = it != history_of.end() && std::abs(flux - it->second) <= 1e-3 * std::abs(flux);
+          }
+        record.time_lags.push_back(lag);
+      }
     record.matrix_setups = problem.n_matrix_setups();
     record.wall_time = std::chrono::duration<double>(std::chrono::steady_clock::now() - wall_start).count();
     record.timing = problem.timer().seconds();

@@ -45,6 +45,27 @@ namespace fickcast
       throw IoError("writing " + path_ + " failed");
   }
 
+  std::string CsvWriter::format(const double value)
+  {
+    if (!std::isfinite(value))
+      return "";
+    char buffer[32];
+    std::snprintf(buffer, sizeof(buffer), "%.12g", value);
+    return buffer;
+  }
+
+  void CsvWriter::write_cells(const std::vector<std::string> &cells)
+  {
+    if (cells.size() != n_columns_)
+      throw std::logic_error("fickcast: CSV row of " + std::to_string(cells.size()) + " cells for " +
+                             std::to_string(n_columns_) + " columns in " + path_);
+    for (std::size_t i = 0; i < cells.size(); ++i)
+      stream_ << (i ? "," : "") << cells[i];
+    stream_ << '\n';
+    if (!stream_)
+      throw IoError("writing " + path_ + " failed");
+  }
+
   void CsvWriter::close()
   {
     if (stream_.is_open())

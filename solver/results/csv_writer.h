@@ -26,6 +26,10 @@ namespace fickcast
     void open(const std::string &path, const std::vector<Column> &columns);
     /// Writes one row; must have as many values as there are columns.
     void write(const std::vector<double> &values);
+    /// Writes one row of cells already formatted (text columns such as a line's name).
+    void write_cells(const std::vector<std::string> &cells);
+    /// A number as write() formats it (12 significant digits; empty for NaN).
+    static std::string format(double value);
     void close();
     bool is_open() const { return stream_.is_open(); }
     std::size_t n_columns() const { return n_columns_; }

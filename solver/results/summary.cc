@@ -182,6 +182,50 @@ namespace fickcast
             results["threshold." + probe.name] = t;
           }
       }
+    if (std::isfinite(r.released_final))
+      {
+        Json released = quantity(r.released_final, "1");
+        released["reference_amount"] = r.released_reference;
+        released["reference_unit"] = c.units.amount;
+        results["released_fraction.final"] = released;
+      }
+    for (const auto &release : r.releases)
+      {
+        Json event = quantity(release.time, "s");
+        event["level"] = release.level;
+        event["reached"] = std::isfinite(release.time);
+        results["release." + release.name] = event;
+      }
+    for (const auto &lag : r.time_lags)
+      {
+        Json event = quantity(lag.time_lag, "s");
+        event["boundary"] = lag.boundary;
+        event["final_flux_in"] = lag.final_flux;
+        event["flux_unit"] = c.units.amount + "/s";
+        event["steady"] = lag.steady;
+        results["time_lag." + lag.name] = event;
+      }
+    if (!r.moments.empty())
+      {
+        Json moments = Json::object();
+        Json times = Json::array(), amounts = Json::array(), means = Json::array(), variances = Json::array();
+        for (const auto &m : r.moments)
+          {
+            times.push_back(m.time);
+            amounts.push_back(m.amount);
+            Json mean = Json::array();
+            for (unsigned int d = 0; d < c.dimension; ++d)
+              mean.push_back(m.mean[d]);
+            means.push_back(mean);
+            variances.push_back(m.variance);
+          }
+        moments["times"] = times;
+        moments["amount"] = amounts;
+        moments["mean_position"] = means;
+        moments["variance"] = variances;
+        moments["units"] = "s; " + c.units.amount + "; m; m2";
+        results["moments"] = moments;
+      }
     for (const auto &depth : r.depths)
       {
         Json d = Json::object();

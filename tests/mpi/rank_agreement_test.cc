@@ -12,6 +12,7 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <cstdio>
 #include <filesystem>
 
 namespace fickcast::testing
@@ -109,5 +110,75 @@ probe.a = 0.75 m, 0.3 m
       EXPECT_NEAR(one.record.boundary_entered[b], many.record.boundary_entered[b], 1e-8 * moved)
         << "boundary " << one.record.boundaries[b];
     EXPECT_EQ(one.record.steps_accepted, many.record.steps_accepted);
+  }
+  // Probes, fluxes and events (threshold, release, depth, time lag) of a 2-D case on one and two
+  // ranks, both with CG and algebraic multigrid to a relative residual of 1e-14 and fixed steps,
+  // agree to 1e-10 relative.
+  TEST(RankAgreement, ProbesFluxesAndEventsAgreeTo1e10)
+  {
+    const char *text = R"(
+[case]
+title = events on one and two ranks
+dimension = 2
+[geometry]
+layers = liner 0.4 m, base 0.6 m
+width = 0.8 m
+cell_size = 0.025 m
+[region.liner]
+diffusivity = 3e-10 m2/s
+porosity = 0.35
+[region.base]
+diffusivity = 1e-9 m2/s
+porosity = 0.3
+[initial]
+value = {0.5 + 5*exp(-((x-0.4)^2 + (y-0.7)^2)/0.01)} mol/m3
+[boundary.bottom]
+type = concentration
+value = 0 mol/m3
+[time]
+end = 2 yr
+step = 0.01 yr
+[numerics]
+linear_solver = iterative
+solver_tolerance = 1e-14
+[output]
+fields = false
+fields_every = 0.5 yr
+probe.mid = 0.55 m, 0.7 m
+threshold.mid = 1.2 mol/m3
+line.down = 0.4 m, 0.7 m to 0.4 m, 1 m
+depth.down = 0.3 mol/m3
+release.some = 5 %
+time_lag.out = bottom
+)";
+    const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD);
+    auto run_with = [&](MPI_Comm communicator, const std::string &name) {
+      CaseDescription description = describe(text, name, communicator);
+      std::filesystem::create_directories(description.output.folder + "/fields");
+      return simulate<2>(description, communicator, description.output.folder, {});
+    };
+    const RunRecord many = run_with(MPI_COMM_WORLD, "events_two");
+    RunRecord one;
+    if (rank == 0)
+      one = run_with(MPI_COMM_SELF, "events_one");
+    if (rank != 0)
+      return;
+    auto same = [](double a, double b, const std::string &what) {
+      EXPECT_TRUE(std::isfinite(a) && std::isfinite(b)) << what << ": " << a << ", " << b;
+      EXPECT_NEAR(a, b, 1e-10 * std::max(std::abs(a), std::abs(b))) << what;
+      std::printf("%s: one rank %.15g, two ranks %.15g\n", what.c_str(), a, b);
+    };
+    same(one.probes[0].final_value, many.probes[0].final_value, "probe.mid");
+    same(one.probes[0].threshold_time, many.probes[0].threshold_time, "threshold.mid");
+    same(one.releases[0].time, many.releases[0].time, "release.some");
+    same(one.time_lags[0].final_flux, many.time_lags[0].final_flux, "flux through bottom");
+    same(one.time_lags[0].time_lag, many.time_lags[0].time_lag, "time_lag.out");
+    // At t = 0 the whole line is above the level (no depth): both runs say so.
+    EXPECT_TRUE(std::isnan(one.depths[0].depths[0]) && std::isnan(many.depths[0].depths[0]));
+    for (std::size_t k = 1; k < one.depths[0].depths.size(); ++k)
+      same(one.depths[0].depths[k], many.depths[0].depths[k], "depth.down at output " + std::to_string(k));
+    for (std::size_t b = 0; b < one.boundary_entered.size(); ++b)
+      if (one.boundary_entered[b] != 0)
+        same(one.boundary_entered[b], many.boundary_entered[b], "amount in through " + one.boundaries[b]);
   }
 } // namespace fickcast::testing

@@ -1,0 +1,75 @@
+// What a run watches: probes and their thresholds, sampling lines (profiles.csv) and the depths
+// along them, the released fraction and its events, spread moments.
+#pragma once
+
+#include "numerics/diffusion_problem.h"
+#include "numerics/run_record.h"
+#include "results/csv_writer.h"
+#include "results/point_evaluator.h"
+
+#include <memory>
+#include <string>
+#include <vector>
+
+namespace fickcast
+{
+  /**
+   * Observes the state after every accepted step and at every output time, and keeps the event
+   * results in a RunRecord. Events are interpolated linearly within the step that crosses them
+   * (not rounded to a step). Collective: every rank calls every member.
+   */
+  template <int dim>
+  class Observers
+  {
+  public:
+    using Vector = typename DiffusionProblem<dim>::Vector;
+
+    /// Locates probes and line points (InputError if outside the mesh); opens profiles.csv in
+    /// @p folder on rank 0 when there are lines. @p initial_amount is the content at t = 0.
+    Observers(const DiffusionProblem<dim> &problem, const CaseDescription &description, const std::string &folder,
+              double initial_amount);
+
+    /// Probe values at the last observed state (SI concentrations).
+    const std::vector<double> &probe_values() const { return probe_values_; }
+    /// Released fraction for a remaining content @p remaining (NaN without a reference amount).
+    double released_fraction(double remaining) const;
+    bool has_release() const { return reference_ > 0; }
+
+    /// The state at t = 0.
+    void start(const Vector &ghosted, double remaining);
+    /// The state after a step from @p t0 to @p t1.
+    void step(double t0, double t1, const Vector &ghosted, double remaining);
+    /// An output time: profiles, depths, moments.
+    void output(double t, const Vector &ghosted);
+    /// Moves the event results into @p record and closes profiles.csv.
+    void finish(RunRecord &record);
+
+  private:
+    struct Line
+    {
+      std::string name;
+      std::vector<dealii::Point<dim>> points;
+      std::vector<double> distance;
+      std::unique_ptr<PointEvaluator<dim>> evaluator;
+    };
+
+    Line make_line(const std::string &name, const dealii::Point<dim> &from, const dealii::Point<dim> &to,
+                   std::size_t samples, const std::string &what) const;
+    Line default_depth_line() const;
+
+    const DiffusionProblem<dim> &problem_;
+    const CaseDescription &c_;
+    bool root_;
+    std::unique_ptr<PointEvaluator<dim>> probes_;
+    std::vector<double> probe_values_;
+    std::vector<ProbeRecord> probe_records_;
+    std::vector<Line> lines_;       ///< named sampling lines
+    std::vector<Line> depth_lines_; ///< one per depth (a named line, or the default one)
+    std::vector<DepthRecord> depths_;
+    double reference_ = 0;
+    double last_released_ = 0;
+    std::vector<ReleaseRecord> releases_;
+    std::vector<MomentsRecord> moments_;
+    CsvWriter profiles_;
+  };
+} // namespace fickcast
