@@ -1,0 +1,332 @@
+#include "run_plots.h"
+
+#include "field_sampler.h"
+#include "output_file.h"
+#include "time_units.h"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <map>
+#include <set>
+
+namespace fickcast::post
+{
+  namespace
+  {
+    constexpr double nan = std::numeric_limits<double>::quiet_NaN();
+
+    std::string bracket(const std::string &unit)
+    {
+      return unit.empty() || unit == "1" ? "" : " [" + unit + "]";
+    }
+
+    std::vector<double> scaled(const std::vector<double> &values, const double divisor)
+    {
+      std::vector<double> out(values.size());
+      for (std::size_t i = 0; i < values.size(); ++i)
+        out[i] = values[i] / divisor;
+      return out;
+    }
+
+    bool has_finite(const std::vector<double> &values, const bool nonzero = false)
+    {
+      for (const double v : values)
+        if (std::isfinite(v) && (!nonzero || v != 0))
+          return true;
+      return false;
+    }
+
+    struct Context
+    {
+      const ResultsFolder &results;
+      const std::string &folder;
+      const RunPlotOptions &options;
+      std::vector<PlotFile> &written;
+      TimeUnit time_unit;
+      DisplayUnit concentration;
+
+      void emit(const PlotSpec &spec, const std::string &stem, const std::string &caption)
+      {
+        if (write_plot(spec, folder + "/" + stem, options.formats))
+          written.push_back({stem, spec.title, caption});
+      }
+
+      /// Time axis values and label (plain or square root of time).
+      std::pair<std::vector<double>, std::string> time_axis(const bool root) const
+      {
+        std::vector<double> t = scaled(results.series.numbers("time"), time_unit.seconds);
+        if (!root)
+          return {t, "time [" + time_unit.symbol + "]"};
+        for (double &v : t)
+          v = std::sqrt(std::max(v, 0.0));
+        return {t, "square root of time, √t [" + time_unit.symbol + "#u1/2#d]"};
+      }
+    };
+
+    void profiles_from_table(Context &context)
+    {
+      const CsvTable &table = *context.results.profiles;
+      const auto time = table.numbers("time"), distance = table.numbers("distance"),
+                 value = table.numbers("concentration");
+      const std::size_t line_column = table.require("line");
+      std::vector<std::string> lines;
+      for (const auto &row : table.rows())
+        if (std::find(lines.begin(), lines.end(), row[line_column]) == lines.end())
+          lines.push_back(row[line_column]);
+      for (const auto &line : lines)
+        {
+          std::vector<double> times;
+          double span = 0;
+          for (std::size_t r = 0; r < table.n_rows(); ++r)
+            if (table.rows()[r][line_column] == line)
+              {
+                if (std::find(times.begin(), times.end(), time[r]) == times.end())
+                  times.push_back(time[r]);
+                span = std::max(span, std::abs(distance[r]));
+              }
+          const DisplayUnit length = length_display(span);
+          PlotSpec spec;
+          spec.title = "Concentration along line " + line;
+          spec.x_label = "distance along the line" + bracket(length.symbol);
+          spec.y_label = "concentration" + bracket(context.concentration.symbol);
+          for (const std::size_t k : spread_indices(times.size(), context.options.max_times))
+            {
+              PlotCurve curve;
+              curve.label = "t = " + format_time(times[k]);
+              for (std::size_t r = 0; r < table.n_rows(); ++r)
+                if (table.rows()[r][line_column] == line && time[r] == times[k])
+                  {
+                    curve.x.push_back(distance[r] / length.si_per_unit);
+                    curve.y.push_back(value[r] / context.concentration.si_per_unit);
+                  }
+              spec.curves.push_back(curve);
+            }
+          context.emit(spec, "profile_" + line,
+                       "Concentration (in each region's own phase) along sampling line " + line +
+                         " at output times, from profiles.csv.");
+        }
+    }
+
+    void profiles_from_fields(Context &context)
+    {
+      const FieldSeries &series = *context.results.fields;
+      const RunSummary &summary = context.results.summary;
+      const auto first = series.load(0);
+      double bounds[6];
+      first->GetBounds(bounds);
+      const unsigned int axis = summary.dimension - 1;
+      Point from{0.5 * (bounds[0] + bounds[1]), 0.5 * (bounds[2] + bounds[3]), 0.5 * (bounds[4] + bounds[5])};
+      if (summary.coordinates == "axisymmetric")
+        from[0] = bounds[0];
+      Point to = from;
+      from[axis] = bounds[2 * axis];
+      to[axis] = bounds[2 * axis + 1];
+      const DisplayUnit length = length_display(to[axis] - from[axis]);
+      const char *names[3] = {"x", "y", "z"};
+      const bool radial = summary.coordinates == "cylinder" || summary.coordinates == "sphere";
+      PlotSpec spec;
+      spec.title = "Concentration profiles through the mesh";
+      std::string where;
+      if (summary.dimension == 1)
+        spec.x_label =
+          radial ? "radius r" + bracket(length.symbol) : "depth from the top face x" + bracket(length.symbol);
+      else
+        {
+          spec.x_label =
+            std::string(summary.coordinates == "axisymmetric" ? "z" : names[axis]) + bracket(length.symbol);
+          for (unsigned int d = 0; d < summary.dimension; ++d)
+            if (d != axis)
+              where += std::string(where.empty() ? "" : ", ") +
+                       (summary.coordinates == "axisymmetric" ? "r" : names[d]) + " = " +
+                       format_number(from[d] / length.si_per_unit) + " " + length.symbol;
+          spec.title += " (" + where + ")";
+        }
+      spec.y_label = "concentration" + bracket(context.concentration.symbol);
+      const auto points = line_points(from, to, context.options.n_samples);
+      for (const std::size_t k : spread_indices(series.times().size(), context.options.max_times))
+        {
+          const auto grid = k == 0 ? first : series.load(k);
+          const Samples samples =
+            sample_fields(grid, points, {"concentration"}, summary.dimension, summary.degree, series.times()[k].file);
+          PlotCurve curve;
+          curve.label = "t = " + format_time(series.times()[k].time);
+          for (std::size_t i = 0; i < points.size(); ++i)
+            {
+              curve.x.push_back(points[i][axis] / length.si_per_unit);
+              curve.y.push_back(samples.values[0][i] / context.concentration.si_per_unit);
+            }
+          spec.curves.push_back(curve);
+        }
+      context.emit(spec, "profile_fields",
+                   "Concentration (in each region's own phase) sampled from the written fields along the " +
+                     std::string(summary.dimension == 1 ? "mesh" : "line " + where) +
+                     " at output times (linear between the nodes of each cell's output patch).");
+    }
+
+    void probe_histories(Context &context)
+    {
+      const CsvTable &series = context.results.series;
+      const auto [t, label] = context.time_axis(false);
+      PlotSpec spec;
+      spec.title = "Probe histories";
+      spec.x_label = label;
+      spec.y_label = "concentration" + bracket(context.concentration.symbol);
+      for (std::size_t c = 0; c < series.names().size(); ++c)
+        if (series.names()[c].rfind("probe.", 0) == 0)
+          {
+            const std::string name = series.names()[c].substr(6);
+            spec.curves.push_back({"probe " + name, t, scaled(series.numbers(c), context.concentration.si_per_unit)});
+            const Json::Value &threshold = context.results.summary.results["threshold." + name];
+            if (threshold.isObject() && threshold["level"].isNumeric())
+              {
+                const double level = threshold["level"].asDouble() / context.concentration.si_per_unit;
+                PlotCurve line{"threshold " + name + " = " + format_number(level) + " " + context.concentration.symbol,
+                               {t.front(), t.back()},
+                               {level, level}};
+                line.reference = true;
+                spec.curves.push_back(line);
+              }
+          }
+      context.emit(spec, "probes",
+                   "Concentration at each named probe against time, from series.csv; dashed grey "
+                   "lines are the threshold levels of summary.json.");
+    }
+
+    void release(Context &context, const bool root)
+    {
+      const CsvTable &series = context.results.series;
+      if (!series.has("released_fraction"))
+        return;
+      const auto fraction = series.numbers("released_fraction");
+      if (!has_finite(fraction, true))
+        return;
+      const auto [t, label] = context.time_axis(root);
+      PlotSpec spec;
+      spec.title = std::string("Released fraction") + (root ? " against the square root of time" : "");
+      spec.x_label = label;
+      spec.y_label = "released fraction [%]";
+      spec.curves.push_back({"released fraction", t, scaled(fraction, 0.01)});
+      for (const auto &name : context.results.summary.results.getMemberNames())
+        if (name.rfind("release.", 0) == 0)
+          {
+            const Json::Value &event = context.results.summary.results[name];
+            if (event["level"].isNumeric())
+              {
+                const double level = 100 * event["level"].asDouble();
+                PlotCurve line{name + " = " + format_number(level) + " %", {t.front(), t.back()}, {level, level}};
+                line.reference = true;
+                spec.curves.push_back(line);
+              }
+          }
+      context.emit(spec, root ? "released_fraction_sqrt" : "released_fraction",
+                   "Fraction of the reference content that has left the body, from series.csv" +
+                     std::string(root ? "; against the square root of time, where early release from a slab is a "
+                                        "straight line."
+                                      : "."));
+    }
+
+    void amounts(Context &context, const bool root)
+    {
+      const CsvTable &series = context.results.series;
+      const auto [t, label] = context.time_axis(root);
+      PlotSpec spec;
+      spec.title = std::string("Amounts") + (root ? " against the square root of time" : " against time");
+      spec.x_label = label;
+      const std::string unit = context.results.summary.unit_amount;
+      spec.y_label = "amount" + bracket(unit);
+      for (std::size_t c = 0; c < series.names().size(); ++c)
+        {
+          const std::string &name = series.names()[c];
+          std::string text;
+          if (name == "amount.total")
+            text = "in the body, total";
+          else if (name.rfind("amount.", 0) == 0)
+            text = "in " + name.substr(7);
+          else if (name.rfind("amount_in.", 0) == 0)
+            text = "entered through " + name.substr(10);
+          else if (name == "undissolved.total" || name == "decayed.total" || name == "source.total")
+            text = name.substr(0, name.find('.'));
+          else
+            continue;
+          const auto values = series.numbers(c);
+          if (has_finite(values, true))
+            spec.curves.push_back({text, t, values});
+        }
+      context.emit(spec, root ? "amounts_sqrt" : "amounts",
+                   "Amounts in the body and per region, and cumulative amounts entered through each face (inward "
+                   "positive), from series.csv, in " +
+                     unit + ".");
+    }
+
+    void depths(Context &context)
+    {
+      const Json::Value &results = context.results.summary.results;
+      for (const auto &name : results.getMemberNames())
+        if (name.rfind("depth.", 0) == 0 && results[name]["times"].isArray())
+          {
+            const Json::Value &d = results[name];
+            std::vector<double> t, depth;
+            double span = 0;
+            for (Json::ArrayIndex i = 0; i < d["times"].size() && i < d["depths"].size(); ++i)
+              {
+                t.push_back(d["times"][i].asDouble() / context.time_unit.seconds);
+                depth.push_back(d["depths"][i].isNumeric() ? d["depths"][i].asDouble() : nan);
+                if (std::isfinite(depth.back()))
+                  span = std::max(span, std::abs(depth.back()));
+              }
+            const DisplayUnit length = length_display(span);
+            PlotSpec spec;
+            const double level = d["level"].asDouble() / context.concentration.si_per_unit;
+            spec.title = "Depth of the " + format_number(level) + " " + context.concentration.symbol + " level";
+            spec.x_label = "time [" + context.time_unit.symbol + "]";
+            spec.y_label = "depth" + bracket(length.symbol);
+            spec.curves.push_back({name, t, scaled(depth, length.si_per_unit)});
+            context.emit(spec, "depth_" + name.substr(6),
+                         "Depth where the concentration falls below " + format_number(level) + " " +
+                           context.concentration.symbol + " at each output time, from summary.json.");
+          }
+    }
+  } // namespace
+
+  std::vector<std::size_t> spread_indices(const std::size_t count, const std::size_t n)
+  {
+    std::vector<std::size_t> indices;
+    if (count == 0 || n == 0)
+      return indices;
+    if (count <= n)
+      {
+        for (std::size_t i = 0; i < count; ++i)
+          indices.push_back(i);
+        return indices;
+      }
+    std::set<std::size_t> chosen;
+    for (std::size_t i = 0; i < n; ++i)
+      chosen.insert(n == 1 ? count - 1 : static_cast<std::size_t>(std::lround(i * (count - 1.0) / (n - 1.0))));
+    return {chosen.begin(), chosen.end()};
+  }
+
+  std::vector<PlotFile> make_run_plots(const ResultsFolder &results, const std::string &folder,
+                                       const RunPlotOptions &options)
+  {
+    make_folder(folder);
+    std::vector<PlotFile> written;
+    const double span = std::max(results.summary.reached_time, results.summary.end_time);
+    Context context{
+      results, folder, options, written, readable_time_unit(span), concentration_display(results.summary)};
+    if (results.profiles && results.profiles->n_rows() > 0)
+      profiles_from_table(context);
+    else if (results.fields)
+      profiles_from_fields(context);
+    probe_histories(context);
+    depths(context);
+    release(context, false);
+    amounts(context, false);
+    if (options.sqrt_time)
+      {
+        release(context, true);
+        amounts(context, true);
+      }
+    return written;
+  }
+} // namespace fickcast::post

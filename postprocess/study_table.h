@@ -1,0 +1,49 @@
+// A study's table (study.csv) read generically, and the statistics drawn from its results.
+#pragma once
+
+#include "csv_table.h"
+
+#include <string>
+#include <vector>
+
+namespace fickcast::post
+{
+  /**
+   * study.csv: first column `case`, then the varied parameters (names that start with a case
+   * section: region., boundary., time., ...), then the named results, then `status` and
+   * `wall_time [s]`. Result cells must be numbers or empty; parameter cells may carry a unit
+   * after the number (`2e-10 m2/s`), which is ignored for plotting.
+   */
+  struct StudyTable
+  {
+    CsvTable table;
+    std::vector<std::size_t> parameters; ///< column indices of varied parameters
+    std::vector<std::size_t> results;    ///< column indices of results
+    std::vector<bool> usable;            ///< per row: status completed (or no status column)
+    std::size_t n_failed = 0;            ///< rows whose status is not `completed`
+
+    /// Parameter values of column @p index as numbers (leading number of each cell; NaN if none).
+    std::vector<double> parameter_values(std::size_t index) const;
+    /// Result values of column @p index for usable rows, NaN elsewhere.
+    std::vector<double> result_values(std::size_t index) const;
+  };
+
+  /// Reads FOLDER/study.csv; PostInputError naming the file (and line) if it is not one.
+  StudyTable read_study(const std::string &folder);
+
+  /// True if @p name is a case key (its first part is a case section such as region or boundary).
+  bool is_case_key(const std::string &name);
+
+  /**
+   * Sample quantile of @p values (finite ones) at probability @p p in [0, 1], by linear
+   * interpolation between order statistics: Hyndman and Fan (1996), definition 7 (the default
+   * of R and of NumPy). NaN if there are no finite values.
+   */
+  double sample_quantile(std::vector<double> values, double p);
+
+  /// Empirical exceedance curve: sorted finite values v(i) and P(X > v(i)) = 1 - i / (n + 1).
+  void exceedance_curve(std::vector<double> values, std::vector<double> &levels, std::vector<double> &probability);
+
+  /// Mean of the finite values (NaN if none).
+  double finite_mean(const std::vector<double> &values);
+} // namespace fickcast::post

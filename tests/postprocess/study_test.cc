@@ -1,0 +1,113 @@
+// Study plots and report from study.csv, read generically. The study tables here are synthetic
+// fixtures written by the test (invented numbers), not output of the solver.
+#include "case_runner.h"
+
+#include "output_file.h"
+#include "post_error.h"
+#include "report.h"
+#include "study_table.h"
+
+#include <vtkImageData.h>
+#include <vtkPNGReader.h>
+#include <vtkSmartPointer.h>
+
+#include <gtest/gtest.h>
+
+#include <cstdio>
+#include <filesystem>
+#include <string>
+
+namespace fickcast::post
+{
+  // Hyndman and Fan, "Sample quantiles in statistical packages", The American Statistician 50(4)
+  // (1996), definition 7 (journal details from memory): Q(p) = x[j] + g (x[j+1] - x[j]) with
+  // h = (n - 1) p + 1, j = floor(h), g = h - j (1-based order statistics). For 1, 2, ..., 100:
+  // P5 = 5.95, P50 = 50.5, P95 = 95.05, worked by hand from that definition.
+  TEST(Study, QuantilesFollowHyndmanFanDefinition7)
+  {
+    std::vector<double> values;
+    for (int i = 100; i >= 1; --i) // unsorted on purpose
+      values.push_back(i);
+    EXPECT_NEAR(sample_quantile(values, 0.05), 5.95, 1e-12);
+    EXPECT_NEAR(sample_quantile(values, 0.50), 50.5, 1e-12);
+    EXPECT_NEAR(sample_quantile(values, 0.95), 95.05, 1e-12);
+    EXPECT_EQ(sample_quantile(values, 0.0), 1.0);
+    EXPECT_EQ(sample_quantile(values, 1.0), 100.0);
+    std::vector<double> levels, probability;
+    exceedance_curve({3, 1, 2}, levels, probability); // Weibull plotting position 1 - i/(n+1)
+    ASSERT_EQ(levels.size(), 3u);
+    EXPECT_EQ(levels[0], 1.0);
+    EXPECT_NEAR(probability[0], 0.75, 1e-15);
+    EXPECT_NEAR(probability[2], 0.25, 1e-15);
+  }
+
+  TEST(Study, SweepReportPlotsEachResultAgainstTheVariedParameter)
+  {
+    const std::string folder = testing::scratch_folder("post_study_sweep");
+    // Synthetic fixture: a one-parameter sweep; one case failed and must be left out.
+    write_file(folder + "/study.csv", "case,region.clay.porosity,threshold.mid [s],probe.mid.final [kg/m3],status,"
+                                      "wall_time [s]\n"
+                                      "c1,0.30,7.1e7,0.91,completed,0.4\n"
+                                      "c2,0.35,7.6e7,0.97,completed,0.4\n"
+                                      "c3,0.40,8.3e7,1.02,completed,0.5\n"
+                                      "c4,0.45,,,failed,0.1\n");
+    const StudyTable study = read_study(folder);
+    ASSERT_EQ(study.parameters.size(), 1u);
+    ASSERT_EQ(study.results.size(), 2u);
+    EXPECT_EQ(study.n_failed, 1u);
+    const ReportOutcome outcome = make_study_report(folder, {});
+    ASSERT_TRUE(std::filesystem::is_regular_file(outcome.html));
+    ASSERT_EQ(outcome.images.size(), 4u); // 2 results x 1 parameter, PNG and SVG
+    auto reader = vtkSmartPointer<vtkPNGReader>::New();
+    reader->SetFileName(outcome.images[0].c_str());
+    reader->Update();
+    int dims[3];
+    reader->GetOutput()->GetDimensions(dims);
+    EXPECT_EQ(dims[0], 1000);
+    EXPECT_EQ(dims[1], 640);
+    const std::string html = read_file(outcome.html, "the report");
+    EXPECT_NE(html.find("1 not completed"), std::string::npos);
+    EXPECT_NE(html.find("do not replace"), std::string::npos);
+  }
+
+  TEST(Study, UncertaintyReportHasDistributionsAndExceedance)
+  {
+    const std::string folder = testing::scratch_folder("post_study_uncertainty");
+    // Synthetic fixture: 40 cases of two sampled parameters with a made-up result.
+    std::string csv = "case,region.clay.diffusivity [m2/s],region.clay.porosity,depth.front.final [m],status,"
+                      "wall_time [s]\n";
+    for (int i = 0; i < 40; ++i)
+      {
+        const double d = 1e-9 * (1 + 0.05 * ((i * 7) % 40)), porosity = 0.3 + 0.005 * ((i * 13) % 40);
+        char row[160];
+        std::snprintf(row, sizeof(row), "case%d,%.4g,%.4g,%.6g,completed,0.3\n", i, d, porosity,
+                      1.2 + 0.02 * ((i * 7) % 40) - 0.5 * (porosity - 0.3));
+        csv += row;
+      }
+    write_file(folder + "/study.csv", csv);
+    write_file(folder + "/study_summary.json", R"({"results": {"depth.front.final": {"mean": 1.58, "p5": 1.25,
+      "p50": 1.58, "p95": 1.93, "exceedance": {"1.5 m": 0.6}}}})");
+    const ReportOutcome outcome = make_study_report(folder, ReportOptions{});
+    // distribution + exceedance + 2 scatter plots, PNG and SVG each
+    EXPECT_EQ(outcome.images.size(), 8u);
+    const std::string html = read_file(outcome.html, "the report");
+    EXPECT_NE(html.find("Uncertainty study"), std::string::npos);
+    EXPECT_NE(html.find("results.depth.front.final.p95"), std::string::npos); // study_summary.json shown
+    EXPECT_NE(html.find("exceedance_depth_front_final.svg"), std::string::npos);
+  }
+
+  TEST(Study, MalformedStudyTableIsAnInputError)
+  {
+    const std::string folder = testing::scratch_folder("post_study_bad");
+    write_file(folder + "/study.csv", "case,region.clay.porosity,threshold.mid [s],status\nc1,0.3,soon,completed\n");
+    try
+      {
+        make_study_report(folder, {});
+        FAIL() << "no error for a text result";
+      }
+    catch (const PostInputError &error)
+      {
+        EXPECT_NE(std::string(error.what()).find("study.csv:2"), std::string::npos) << error.what();
+      }
+  }
+} // namespace fickcast::post
