@@ -119,6 +119,8 @@ namespace fickcast::post
               xr.add(curve.x[i]);
               yr.add(value_of(curve.y[i], spec.log_y));
             }
+      if (spec.log_y && yr.valid())
+        yr.min = std::max(yr.min, std::floor(yr.max) - 6.0); // six decades below the largest value
       xr.pad(0.02);
       yr.pad(0.05);
 
@@ -127,7 +129,7 @@ namespace fickcast::post
       for (const auto &curve : spec.curves)
         longest = std::max(longest, curve.label.size());
       const double right = std::clamp(0.95 - (0.10 + 0.0105 * static_cast<double>(longest)), 0.50, 0.80);
-      plvpor(0.11, right, 0.12, 0.90);
+      plvpor(0.13, right, 0.12, 0.87);
       plwind(xr.min, xr.max, yr.min, yr.max);
       const std::string ybox = spec.log_y ? "bcnstvl" : "bcnstv";
       plcol0(grid_colour);
@@ -146,7 +148,11 @@ namespace fickcast::post
         {
           std::vector<double> x(curve.x), y(curve.y.size());
           for (std::size_t i = 0; i < y.size(); ++i)
-            y[i] = value_of(curve.y[i], spec.log_y);
+            {
+              y[i] = value_of(curve.y[i], spec.log_y);
+              if (spec.log_y && y[i] < yr.min)
+                y[i] = std::numeric_limits<double>::quiet_NaN(); // below the axis: left out
+            }
           const PLINT colour =
             curve.reference ? reference_colour : colour_base + static_cast<PLINT>(index % palette.size());
           const PLINT style = curve.reference ? 2 : 1 + (index % 8);

@@ -52,6 +52,10 @@ namespace fickcast::post
           written.push_back({stem, spec.title, caption});
       }
 
+      /// Number densities (dopants) span decades: their profiles are drawn on a logarithmic axis,
+      /// as the trade draws them.
+      bool log_profiles() const { return results.summary.unit_concentration == "1/m3"; }
+
       /// Time axis values and label (plain or square root of time).
       std::pair<std::vector<double>, std::string> time_axis(const bool root) const
       {
@@ -90,6 +94,7 @@ namespace fickcast::post
           spec.title = "Concentration along line " + line;
           spec.x_label = "distance along the line" + bracket(length.symbol);
           spec.y_label = "concentration" + bracket(context.concentration.symbol);
+          spec.log_y = context.log_profiles();
           for (const std::size_t k : spread_indices(times.size(), context.options.max_times))
             {
               PlotCurve curve;
@@ -143,6 +148,7 @@ namespace fickcast::post
           spec.title += " (" + where + ")";
         }
       spec.y_label = "concentration" + bracket(context.concentration.symbol);
+      spec.log_y = context.log_profiles();
       const auto points = line_points(from, to, context.options.n_samples);
       for (const std::size_t k : spread_indices(series.times().size(), context.options.max_times))
         {

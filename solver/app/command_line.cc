@@ -16,6 +16,8 @@ namespace fickcast
     static const std::vector<std::pair<std::string, std::string>> list = {
       {"run", "solve one case and write its results folder"},
       {"check", "validate a case and print every effective setting with units; solve nothing"},
+      {"sweep", "run the cases of the [study] section (a grid, zipped lists or random samples); one table"},
+      {"seek", "find the value of one parameter that brings a named result to a target (sizing)"},
       {"verify", "solve the built-in checks against published solutions; print and write a report"},
     };
     return list;
@@ -42,6 +44,10 @@ namespace fickcast
       po::options_description options = common_options();
       if (verb == "check")
         options.add_options()("keys", "list every case key with its default and meaning");
+      if (verb == "sweep")
+        options.add_options()("vary", po::value<std::vector<std::string>>()->composing(),
+                              "sweep a case key: --vary key=value,value,... or key=\"text | text\" "
+                              "(repeatable; adds to the case's [study] vary keys, replacing one of the same key)");
       return options;
     }
 
@@ -115,6 +121,14 @@ namespace fickcast
     invocation.list_keys = values.count("keys") != 0;
     if (values.count("set"))
       invocation.overrides = values["set"].as<std::vector<std::string>>();
+    if (values.count("vary"))
+      for (const auto &item : values["vary"].as<std::vector<std::string>>())
+        {
+          const auto equals = item.find('=');
+          if (equals == std::string::npos || equals == 0)
+            throw InputError("command line", "--vary", "expected 'key=value,value,...', found '" + item + "'");
+          invocation.vary.push_back("study.vary." + item);
+        }
     if (values.count("output"))
       invocation.output = values["output"].as<std::string>();
     if (values.count("case"))
@@ -162,6 +176,25 @@ namespace fickcast
              "finite baths, junction depths, temperature schedules). Prints each check and writes\n"
              "verification_report.txt and .json (date, version, machine, each source, error, tolerance).\n"
              "Exit code 1 if any check fails. Takes about a minute.\n\n";
+    else if (verb == "sweep")
+      out << "Usage: fickcast sweep [options] CASE.ini\n"
+             "       mpirun -np N fickcast sweep [options] CASE.ini\n\n"
+             "Runs the cases the [study] section defines: every combination of the vary.KEY lists\n"
+             "(combine = zip pairs them element by element), or `samples` Latin hypercube draws of the\n"
+             "sample.KEY distributions. Each case is solved on one rank; ranks take the next case as\n"
+             "they finish. Writes FOLDER/cases/case_NNNN (a results folder each), FOLDER/study.csv\n"
+             "and FOLDER/study_summary.json (statistics and limit probabilities for samples). FOLDER is\n"
+             "--output or the case's output.folder with _sweep appended. Running the same study again\n"
+             "into the same folder keeps finished cases and runs only the rest (--overwrite starts over).\n"
+             "Exit code 1 if any case failed (the table says which and why).\n\n";
+    else if (verb == "seek")
+      out << "Usage: fickcast seek [options] CASE.ini\n\n"
+             "Finds the value of study.seek.key between study.seek.low and study.seek.high at which the\n"
+             "named result study.seek.result equals study.seek.target, by a bracketing root finder\n"
+             "(TOMS 748), to study.seek.tolerance (relative). Prints every run. Writes\n"
+             "FOLDER/evaluations/eval_NN, FOLDER/seek.csv and FOLDER/seek_summary.json; FOLDER is\n"
+             "--output or the case's output.folder with _seek appended. Exit code 2 if the range does\n"
+             "not bracket the target (the results at both ends are shown).\n\n";
     else if (verb == "check")
       out << "Usage: fickcast check [options] CASE.ini\n"
              "       fickcast check --keys\n\n"

@@ -53,7 +53,8 @@ namespace fickcast
     }
   } // namespace
 
-  DisplayUnits::DisplayUnits(const CaseDescription &c)
+  DisplayUnits::DisplayUnits(const CaseDescription &c, const int digits)
+    : digits_(digits)
   {
     const UnitSystem &units = UnitSystem::instance();
     auto factor = [&](const std::string &unit, const std::string &si, std::string &chosen) {
@@ -80,12 +81,12 @@ namespace fickcast
                                    c.units.concentration, concentration_unit_);
   }
 
-  std::string DisplayUnits::format(const double value, const std::string &unit)
+  std::string DisplayUnits::format(const double value, const std::string &unit) const
   {
     if (!std::isfinite(value))
       return "not reached";
     char buffer[64];
-    std::snprintf(buffer, sizeof(buffer), "%.4g", value);
+    std::snprintf(buffer, sizeof(buffer), "%.*g", digits_, value);
     return unit.empty() || unit == "1" ? std::string(buffer) : std::string(buffer) + " " + unit;
   }
 

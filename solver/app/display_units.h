@@ -12,14 +12,16 @@ namespace fickcast
   class DisplayUnits
   {
   public:
-    explicit DisplayUnits(const CaseDescription &description);
+    /// @p digits: significant digits printed.
+    explicit DisplayUnits(const CaseDescription &description, int digits = 4);
 
     std::string time(double seconds) const;
     std::string length(double metres) const;
     std::string concentration(double si) const;
 
   private:
-    static std::string format(double value, const std::string &unit);
+    std::string format(double value, const std::string &unit) const;
+    int digits_;
     std::string time_unit_, length_unit_, concentration_unit_;
     double time_factor_ = 1, length_factor_ = 1, concentration_factor_ = 1;
   };

@@ -35,6 +35,10 @@ namespace
       }
     if (invocation.verb == "check")
       return fickcast::verb_check(invocation, communicator);
+    if (invocation.verb == "sweep")
+      return fickcast::verb_sweep(invocation, communicator);
+    if (invocation.verb == "seek")
+      return fickcast::verb_seek(invocation, communicator);
     if (invocation.verb == "verify")
       return fickcast::verb_verify(invocation, communicator);
     return fickcast::verb_run(invocation, communicator);

@@ -39,6 +39,7 @@ namespace fickcast
         build_time(c);
         build_numerics(c);
         build_output(c);
+        build_study(c);
         record_settings(c);
         return c;
       }
@@ -648,6 +649,130 @@ namespace fickcast
             fail(*v, "expected at most time.end (" + format_si(c.time.end, "s") + "), found '" + v->written + "'");
       }
 
+      /// Coordinate @p index of a point value along @p axis, resolving `start of LAYER` and
+      /// `end of LAYER` on the stacking axis of the built-in geometry; @p layer gets the name.
+      double coordinate(const CaseDescription &c, const SettingValue &value, const std::size_t index,
+                        const unsigned int axis, std::string &layer) const
+      {
+        if (index >= value.anchors.size() || value.anchors[index].empty())
+          return value.list[index];
+        const std::string &anchor = value.anchors[index];
+        const bool start = anchor.rfind("start of ", 0) == 0;
+        std::string name = anchor.substr(start ? 9 : 7);
+        name.erase(0, name.find_first_not_of(" \t"));
+        name.erase(name.find_last_not_of(" \t") + 1);
+        const GeometrySpec &g = c.geometry;
+        if (!g.mesh_file.empty())
+          fail(value, "expected coordinates (layers are known only in the built-in geometry, not in a mesh file), "
+                      "found '" +
+                        anchor + "'");
+        if (axis + 1 != dimension)
+          fail(value, "expected '" + anchor +
+                        "' only for the last coordinate (the axis the layers are stacked "
+                        "along), found it for axis " +
+                        std::string(1, "xyz"[axis]));
+        double position = g.radial() ? g.inner_radius : 0;
+        double first = std::nan(""), last = std::nan("");
+        std::string list;
+        for (const auto &l : g.layers)
+          {
+            if (l.name == name)
+              {
+                if (std::isnan(first))
+                  first = position;
+                last = position + l.thickness;
+              }
+            position += l.thickness;
+            list += (list.empty() ? "" : ", ") + l.name;
+          }
+        if (std::isnan(first))
+          fail(value, "expected a layer of geometry.layers (" + list + ") in '" + anchor + "', found '" + name + "'");
+        layer = name;
+        return start ? first : last;
+      }
+
+      void build_study(CaseDescription &c) const
+      {
+        StudySpec &s = c.study;
+        for (const auto &value : settings.all())
+          {
+            if (value.section != "study")
+              continue;
+            const auto dot = value.key.find('.');
+            const std::string prefix = dot == std::string::npos ? value.key : value.key.substr(0, dot);
+            const std::string rest = dot == std::string::npos ? "" : value.key.substr(dot + 1);
+            if (prefix == "vary")
+              {
+                StudyParameter p;
+                p.key = rest;
+                p.origin = value.origin;
+                // Whole strings (such as layer lists) are separated by |, numbers by commas.
+                if (value.text.find('|') != std::string::npos)
+                  {
+                    std::string item;
+                    for (const char ch : value.text + "|")
+                      if (ch == '|')
+                        {
+                          const auto a = item.find_first_not_of(" \t");
+                          if (a == std::string::npos)
+                            fail(value, "expected values between the | separators, found an empty one");
+                          p.values.push_back(item.substr(a, item.find_last_not_of(" \t") - a + 1));
+                          item.clear();
+                        }
+                      else
+                        item += ch;
+                  }
+                else
+                  p.values = split_list(value.text);
+                if (p.values.empty())
+                  fail(value, "expected at least one value, found none");
+                s.vary.push_back(p);
+              }
+            else if (prefix == "sample")
+              {
+                StudyParameter p;
+                p.key = rest;
+                p.distribution = value.text;
+                p.origin = value.origin;
+                s.sample.push_back(p);
+              }
+            else if (prefix == "exceed" || prefix == "below")
+              s.limits.push_back(StudyLimit{rest, value.text, prefix == "exceed", value.origin});
+          }
+        s.zip = text("study", "combine") == "zip";
+        s.samples = static_cast<unsigned int>(quantity("study", "samples", 100));
+        s.seed = static_cast<unsigned long>(quantity("study", "seed", 1));
+        if (!s.vary.empty() && !s.sample.empty())
+          fail(*get("study", "sample." + s.sample.front().key),
+               "expected either vary.* (a sweep) or sample.* (an uncertainty study), found both");
+        if (s.zip)
+          for (const auto &p : s.vary)
+            if (p.values.size() != s.vary.front().values.size())
+              fail(*get("study", "vary." + p.key), "expected as many values as vary." + s.vary.front().key + " (" +
+                                                     std::to_string(s.vary.front().values.size()) +
+                                                     ") with combine = zip, found " + std::to_string(p.values.size()));
+        if (const auto *key = get("study", "seek.key"))
+          {
+            s.seek.key = key->text;
+            s.seek.origin = key->origin;
+            for (const char *part : {"seek.low", "seek.high", "seek.result", "seek.target"})
+              if (!get("study", part))
+                missing("study", part,
+                        "the rest of the seek definition (seek.low, seek.high, seek.result, "
+                        "seek.target)");
+            s.seek.values = {get("study", "seek.low")->text, get("study", "seek.high")->text};
+            s.seek_result = get("study", "seek.result")->text;
+            s.seek_target = get("study", "seek.target")->text;
+            s.seek_origin = get("study", "seek.target")->origin;
+            s.seek_tolerance = quantity("study", "seek.tolerance", 1e-4);
+            s.seek_max_evaluations = static_cast<unsigned int>(quantity("study", "seek.max_evaluations", 40));
+          }
+        else
+          for (const char *part : {"seek.low", "seek.high", "seek.result", "seek.target"})
+            if (const auto *v = get("study", part))
+              fail(*v, "expected seek.key with the other seek keys, found none");
+      }
+
       void build_numerics(CaseDescription &c) const
       {
         c.numerics.degree = static_cast<unsigned int>(quantity("numerics", "degree", 2));
@@ -705,7 +830,13 @@ namespace fickcast
                                   (suggestion.empty() ? "" : " (did you mean '" + suggestion + "'?)"));
                   }
                 for (unsigned int d = 0; d < dimension; ++d)
-                  probe.point[d] = value.list[d];
+                  {
+                    std::string layer;
+                    probe.point[d] = coordinate(c, value, d, d, layer);
+                    // At a layer's face, read the layer's own side unless told otherwise.
+                    if (!layer.empty() && probe.region.empty())
+                      probe.region = layer;
+                  }
                 const GeometrySpec &g = c.geometry;
                 if (g.mesh_file.empty())
                   {
@@ -755,10 +886,11 @@ namespace fickcast
               {
                 LineSpec line;
                 line.name = name;
+                std::string layer;
                 for (unsigned int d = 0; d < dimension; ++d)
                   {
-                    line.from[d] = value.list[d];
-                    line.to[d] = value.list[dimension + d];
+                    line.from[d] = coordinate(c, value, d, d, layer);
+                    line.to[d] = coordinate(c, value, dimension + d, d, layer);
                   }
                 if (line.from == line.to)
                   fail(value, "expected a line between two different points, found one point twice");

@@ -253,6 +253,44 @@ namespace fickcast
     bool moments = false;
   };
 
+  /// One parameter of a study: a case key (or `layer.NAME.thickness`) and its values as written.
+  struct StudyParameter
+  {
+    std::string key;                 ///< e.g. region.clay.porosity
+    std::vector<std::string> values; ///< sweep: the values as written (with units)
+    std::string distribution;        ///< sample: e.g. normal(2e-10 m2/s, 2e-11 m2/s)
+    std::string origin;              ///< file:line or --set
+  };
+
+  /// A limit whose crossing probability an uncertainty study reports.
+  struct StudyLimit
+  {
+    std::string result; ///< a named result, e.g. threshold.base
+    std::string level;  ///< as written, in the result's dimension
+    bool above = true;  ///< probability of exceeding (true) or of falling below (false)
+    std::string origin;
+  };
+
+  /// The [study] section: what `fickcast sweep` and `fickcast seek` do with the case.
+  struct StudySpec
+  {
+    std::vector<StudyParameter> vary;   ///< sweep: values per key
+    bool zip = false;                   ///< sweep: pair the lists element by element instead of every combination
+    std::vector<StudyParameter> sample; ///< uncertainty: a distribution per key
+    unsigned int samples = 100;
+    unsigned long seed = 1;
+    std::vector<StudyLimit> limits;
+    StudyParameter seek;          ///< seek: key, and values {low, high}
+    std::string seek_result;      ///< the named result to bring to the target
+    std::string seek_target;      ///< as written, in the result's dimension
+    double seek_tolerance = 1e-4; ///< relative, on the parameter
+    unsigned int seek_max_evaluations = 40;
+    std::string seek_origin;
+
+    bool has_sweep() const { return !vary.empty() || !sample.empty(); }
+    bool has_seek() const { return !seek.key.empty(); }
+  };
+
   /// One effective setting as `fickcast check` prints it and summary.json echoes it.
   struct SettingRecord
   {
@@ -288,6 +326,7 @@ namespace fickcast
     NumericsSpec numerics;
     OutputSpec output;
     ConcentrationUnits units;
+    StudySpec study;
     std::vector<SettingRecord> settings;
 
     const RegionSpec *find_region(const std::string &name) const;

@@ -53,17 +53,24 @@ namespace fickcast
         case ValueKind::segment:
         case ValueKind::point:
           {
-            if (!text.empty())
-              {
-                std::string joined;
-                for (const double item : list)
-                  joined += (joined.empty() ? "" : ", ") + format_si(item, "");
-                return joined + " " + si_unit + " in " + text;
-              }
             std::string joined;
-            for (const double item : list)
-              joined += (joined.empty() ? "" : ", ") + format_si(item, "");
-            return joined + " " + si_unit;
+            bool anchored = false;
+            for (std::size_t i = 0; i < list.size(); ++i)
+              {
+                const bool anchor = i < anchors.size() && !anchors[i].empty();
+                anchored = anchored || anchor;
+                joined += (joined.empty() ? "" : ", ") + (anchor ? anchors[i] : format_si(list[i], ""));
+              }
+            // With a layer anchor, each number carries its unit: "0.1 m, end of clay".
+            if (anchored)
+              {
+                joined.clear();
+                for (std::size_t i = 0; i < list.size(); ++i)
+                  joined += (joined.empty() ? "" : ", ") +
+                            (i < anchors.size() && !anchors[i].empty() ? anchors[i] : format_si(list[i], si_unit));
+                return joined + (text.empty() ? std::string() : " in " + text);
+              }
+            return joined + " " + si_unit + (text.empty() ? std::string() : " in " + text);
           }
         case ValueKind::layers:
           {
@@ -483,7 +490,7 @@ namespace fickcast
                         value.text.erase(0, value.text.find_first_not_of(' '));
                         coordinates = text.substr(0, in);
                       }
-                    value.list = parse_point(entry, coordinates);
+                    value.list = parse_point(entry, coordinates, value.anchors);
                     break;
                   }
                 case ValueKind::segment:
@@ -493,8 +500,8 @@ namespace fickcast
                       throw InputError(entry.origin(), entry.full_key(),
                                        "expected 'FROM to TO' (two points, each one coordinate per axis), found '" +
                                          text + "'");
-                    value.list = parse_point(entry, text.substr(0, to));
-                    const auto end = parse_point(entry, text.substr(to + 4));
+                    value.list = parse_point(entry, text.substr(0, to), value.anchors);
+                    const auto end = parse_point(entry, text.substr(to + 4), value.anchors);
                     value.list.insert(value.list.end(), end.begin(), end.end());
                     break;
                   }
@@ -512,8 +519,11 @@ namespace fickcast
         return value;
       }
 
-      /// Coordinates of a point: one per axis, each with its unit (or all bare, in metres).
-      std::vector<double> parse_point(const IniEntry &entry, const std::string &text) const
+      /// Coordinates of a point: one per axis, each with its unit (or all bare, in metres), or
+      /// `start of LAYER` / `end of LAYER` (NaN here, the text appended to @p anchors; the case
+      /// builder resolves it once the layers are known).
+      std::vector<double> parse_point(const IniEntry &entry, const std::string &text,
+                                      std::vector<std::string> &anchors) const
       {
         const auto items = split_list(text);
         if (items.size() != dimension)
@@ -523,13 +533,22 @@ namespace fickcast
                              std::to_string(items.size()) + " in '" + text + "'");
         std::size_t with_unit = 0;
         std::vector<double> coordinates;
+        std::size_t anchored = 0;
         for (const auto &item : items)
           {
+            if (item.rfind("start of ", 0) == 0 || item.rfind("end of ", 0) == 0)
+              {
+                anchors.push_back(item);
+                coordinates.push_back(std::nan(""));
+                ++anchored;
+                continue;
+              }
+            anchors.emplace_back();
             const QuantityText q = split_quantity(item, false);
             with_unit += q.unit.empty() ? 0 : 1;
             coordinates.push_back(to_si_or_throw(entry, q.number, q.unit, "m", Dim::length));
           }
-        if (with_unit != 0 && with_unit != items.size())
+        if (with_unit != 0 && with_unit + anchored != items.size())
           throw InputError(entry.origin(), entry.full_key(),
                            "expected a unit on every coordinate (a bare number is metres), found '" + text + "'");
         return coordinates;

@@ -214,6 +214,36 @@ namespace fickcast
       s.push_back(bounded(make("numerics", "max_nonlinear_iterations", K::integer, Dim::none, "30",
                                "iterations before a step is retried smaller or the run fails"),
                           1, false, 1000, false));
+      // [study]
+      s.push_back(make("study", "vary.*", K::text, Dim::none, "",
+                       "sweep: values of a case key, comma separated with units, or whole strings separated by |"));
+      s.push_back(choices(make("study", "combine", K::choice, Dim::none, "grid",
+                               "grid (every combination of the vary lists) or zip (element by element)"),
+                          {"grid", "zip"}));
+      s.push_back(make("study", "sample.*", K::text, Dim::none, "",
+                       "uncertainty: normal(mean, sd), lognormal(median, sigma of ln), uniform(low, high) or "
+                       "triangular(low, mode, high), with units"));
+      s.push_back(bounded(make("study", "samples", K::integer, Dim::none, "100", "number of Latin hypercube samples"),
+                          2, false, 1000000, false));
+      s.push_back(bounded(make("study", "seed", K::integer, Dim::none, "1", "seed of the sampling (reproducible)"), 0,
+                          false, 2147483647, false));
+      s.push_back(make("study", "exceed.*", K::text, Dim::none, "",
+                       "a named result and a level: report the probability that the result exceeds it"));
+      s.push_back(make("study", "below.*", K::text, Dim::none, "",
+                       "a named result and a level: report the probability that the result falls below it"));
+      s.push_back(make("study", "seek.key", K::text, Dim::none, "",
+                       "seek: the case key to adjust (a number with units), or layer.NAME.thickness"));
+      s.push_back(make("study", "seek.low", K::text, Dim::none, "", "seek: one end of the range, with units"));
+      s.push_back(make("study", "seek.high", K::text, Dim::none, "", "seek: the other end of the range"));
+      s.push_back(
+        make("study", "seek.result", K::text, Dim::none, "", "seek: the named result to bring to the target"));
+      s.push_back(make("study", "seek.target", K::text, Dim::none, "", "seek: the value the result must reach"));
+      s.push_back(bounded(make("study", "seek.tolerance", K::quantity, Dim::dimensionless, "1e-4",
+                               "seek: relative tolerance on the parameter"),
+                          0, true, 0.1, false));
+      s.push_back(
+        bounded(make("study", "seek.max_evaluations", K::integer, Dim::none, "40", "seek: runs before giving up"), 3,
+                false, 1000, false));
       // [temperature]
       s.push_back(make("temperature", "schedule", K::schedule, Dim::temperature, "",
                        "temperature history: '1050 degC', or '800 degC, ramp 10 degC/min to 1100 degC, hold 1 h, "
@@ -234,7 +264,9 @@ namespace fickcast
         positive(make("output", "times", K::quantity_list, Dim::time, "", "extra output times, comma separated")));
       s.push_back(make("output", "fields", K::flag, Dim::none, "true", "write VTU fields"));
       s.push_back(make("output", "probe.*", K::point, Dim::length, "",
-                       "a named point: one coordinate per axis, each with its unit"));
+                       "a named point: one coordinate per axis, each with its unit; the last may be 'start of "
+                       "LAYER' or 'end of LAYER' (follows the layer when its thickness changes); '... in REGION' "
+                       "reads that side of an interface"));
       s.push_back(bounded(make("output", "threshold.*", K::quantity, Dim::concentration, "",
                                "first time the probe of the same name reaches this concentration"),
                           0, false));
@@ -276,8 +308,8 @@ namespace fickcast
 
   const std::vector<std::string> &fixed_sections()
   {
-    static const std::vector<std::string> names = {"case",     "geometry", "initial",    "time",
-                                                   "numerics", "output",   "temperature"};
+    static const std::vector<std::string> names = {"case",     "geometry", "initial",     "time",
+                                                   "numerics", "output",   "temperature", "study"};
     return names;
   }
 

@@ -14,19 +14,20 @@ namespace fickcast
   struct SettingValue
   {
     const KeySpec *spec = nullptr;
-    std::string section;           ///< `time`, `region.clay`
-    std::string key;               ///< `end`, `probe.base`
-    std::string written;           ///< as written in the file or on the command line
-    std::string origin;            ///< file:line or --set
-    bool is_auto = false;          ///< the word auto
-    double si = 0;                 ///< quantity or integer value, SI
-    std::string si_unit;           ///< SI unit of si / list / field
-    ScalarField field;             ///< field kind
-    std::vector<double> list;      ///< quantity_list and point kinds, SI
-    std::vector<LayerSpec> layers; ///< layers kind
-    std::string text;              ///< text and choice kinds
-    bool flag = false;             ///< flag kind
-    TemperatureSchedule schedule;  ///< schedule kind
+    std::string section;              ///< `time`, `region.clay`
+    std::string key;                  ///< `end`, `probe.base`
+    std::string written;              ///< as written in the file or on the command line
+    std::string origin;               ///< file:line or --set
+    bool is_auto = false;             ///< the word auto
+    double si = 0;                    ///< quantity or integer value, SI
+    std::string si_unit;              ///< SI unit of si / list / field
+    ScalarField field;                ///< field kind
+    std::vector<double> list;         ///< quantity_list and point kinds, SI
+    std::vector<std::string> anchors; ///< point kinds: per coordinate, `start of NAME` / `end of NAME` or empty
+    std::vector<LayerSpec> layers;    ///< layers kind
+    std::string text;                 ///< text and choice kinds
+    bool flag = false;                ///< flag kind
+    TemperatureSchedule schedule;     ///< schedule kind
 
     std::string full_key() const { return section + "." + key; }
     /// The SI reading for `fickcast check`: `1.9e-09 m2/s`, `{expr} x 0.001 kg/m3`, ...

@@ -1,6 +1,7 @@
 #include "numerics/run_case.h"
 
 #include "case/input_error.h"
+#include "numerics/collective.h"
 #include "results/results_folder.h"
 #include "results/summary.h"
 
@@ -15,61 +16,6 @@ namespace fickcast
 
   namespace
   {
-    enum class ErrorKind : int
-    {
-      none = 0,
-      input = 1,
-      io = 2,
-      other = 3
-    };
-
-    /// Runs @p work on every rank; if any rank throws, every rank throws the first error seen.
-    template <typename Work>
-    void collectively(MPI_Comm communicator, Work &&work)
-    {
-      ErrorKind kind = ErrorKind::none;
-      std::string where, key, message, text;
-      try
-        {
-          work();
-        }
-      catch (const InputError &error)
-        {
-          kind = ErrorKind::input;
-          where = error.where();
-          key = error.key();
-          message = error.message();
-        }
-      catch (const IoError &error)
-        {
-          kind = ErrorKind::io;
-          text = error.what();
-        }
-      catch (const std::exception &error)
-        {
-          kind = ErrorKind::other;
-          text = error.what();
-        }
-      const unsigned int rank = Utilities::MPI::this_mpi_process(communicator);
-      const unsigned int n_ranks = Utilities::MPI::n_mpi_processes(communicator);
-      const unsigned int reporter = Utilities::MPI::min(kind == ErrorKind::none ? n_ranks : rank, communicator);
-      if (reporter == n_ranks)
-        return;
-      const int code = Utilities::MPI::broadcast(communicator, static_cast<int>(kind), reporter);
-      where = Utilities::MPI::broadcast(communicator, where, reporter);
-      key = Utilities::MPI::broadcast(communicator, key, reporter);
-      message = Utilities::MPI::broadcast(communicator, message, reporter);
-      text = Utilities::MPI::broadcast(communicator, text, reporter);
-      switch (static_cast<ErrorKind>(code))
-        {
-          case ErrorKind::input:
-            throw InputError(where, key, message);
-          case ErrorKind::io:
-            throw IoError(text);
-          default:
-            throw std::runtime_error(text);
-        }
-    }
   } // namespace
 
   RunOutcome run_case(const CaseDescription &description, const RunOptions &options, MPI_Comm communicator)

@@ -1,5 +1,5 @@
 #!/usr/bin/env bash
-# Runs `fickcast run CASE` and checks that it fails the way tests/bad_input/EXPECTED says:
+# Runs `fickcast VERB CASE` (VERB from a `# verb: NAME` line in the case, else run) and checks that it fails the way tests/bad_input/EXPECTED says:
 # exit code 2, one line on stderr containing every listed fragment, no results folder left.
 # Usage: expect_failure.sh FICKCAST CASE.ini EXPECTED_TABLE SCRATCH_DIR
 set -u
@@ -8,7 +8,8 @@ name=$(basename "$case_file")
 line=$(grep -E "^${name//./\\.} \|" "$table") || { echo "no expectation for $name in $table"; exit 1; }
 rm -rf "$scratch" && mkdir -p "$scratch"
 stderr_file="$scratch/stderr.txt"
-"$fickcast" run "$case_file" --output "$scratch/results" >"$scratch/stdout.txt" 2>"$stderr_file"
+verb=$(sed -n 's/^# verb: *//p' "$case_file" | head -1)
+"$fickcast" "${verb:-run}" "$case_file" --output "$scratch/results" >"$scratch/stdout.txt" 2>"$stderr_file"
 code=$?
 message=$(cat "$stderr_file")
 status=0

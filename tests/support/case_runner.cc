@@ -6,6 +6,7 @@
 #include <deal.II/base/mpi.h>
 
 #include <filesystem>
+#include <fstream>
 
 #ifndef FICKCAST_SOURCE_DIR
 #define FICKCAST_SOURCE_DIR "."
@@ -26,6 +27,15 @@ namespace fickcast::testing
       }
     MPI_Barrier(communicator);
     return folder;
+  }
+
+  std::string write_case(const std::string &case_text, const std::string &name, MPI_Comm communicator)
+  {
+    const std::string path = scratch_folder(name, communicator) + "/case.ini";
+    if (dealii::Utilities::MPI::this_mpi_process(communicator) == 0)
+      std::ofstream(path) << case_text;
+    MPI_Barrier(communicator);
+    return path;
   }
 
   std::string source_path(const std::string &relative)

@@ -19,6 +19,10 @@ namespace fickcast::testing
   CaseDescription describe(const std::string &case_text, const std::string &name,
                            MPI_Comm communicator = MPI_COMM_WORLD);
 
+  /// Writes @p case_text to scratch_folder(name)/case.ini (rank 0, collective) and returns its path;
+  /// for code that reads the case file itself (studies).
+  std::string write_case(const std::string &case_text, const std::string &name, MPI_Comm communicator = MPI_COMM_WORLD);
+
   /// Absolute path of @p relative in the source tree (for meshes and cases in tests).
   std::string source_path(const std::string &relative);
 

@@ -1,0 +1,82 @@
+#include "app/display_units.h"
+#include "app/exit_codes.h"
+#include "app/verbs.h"
+
+#include "case/case_reader.h"
+#include "studies/result_names.h"
+#include "studies/seek.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <cmath>
+#include <cstdio>
+
+namespace fickcast
+{
+  namespace
+  {
+    std::string show(const DisplayUnits &units, const double value, const std::string &unit)
+    {
+      if (!std::isfinite(value))
+        return "not reached";
+      if (unit == "s")
+        return units.time(value);
+      if (unit == "m")
+        return units.length(value);
+      char buffer[64];
+      if (unit == "1")
+        std::snprintf(buffer, sizeof(buffer), "%.6g %%", 100 * value);
+      else
+        std::snprintf(buffer, sizeof(buffer), "%.6g %s", value, unit.c_str());
+      return buffer;
+    }
+  } // namespace
+
+  int verb_seek(const Invocation &invocation, MPI_Comm communicator)
+  {
+    const bool root = dealii::Utilities::MPI::this_mpi_process(communicator) == 0;
+    const CaseDescription base = read_case(invocation.case_file, invocation.overrides);
+    const DisplayUnits units(base, 7);
+    const bool talk = root && !invocation.quiet;
+
+    SeekOptions options;
+    options.case_file = invocation.case_file;
+    options.base_overrides = invocation.overrides;
+    options.folder = invocation.output.empty() ? base.output.folder + "_seek" : invocation.output;
+    options.overwrite = invocation.overwrite;
+
+    if (talk && base.study.has_seek()) // without seek keys run_seek reports the error
+      {
+        std::printf("%s: %s\n", base.file.c_str(), base.title.c_str());
+        std::printf("  seek %s in [%s, %s] so that %s = %s\n", base.study.seek.key.c_str(),
+                    base.study.seek.values.at(0).c_str(), base.study.seek.values.at(1).c_str(),
+                    base.study.seek_result.c_str(), base.study.seek_target.c_str());
+        std::fflush(stdout);
+      }
+    std::string result_unit;
+    for (const auto &r : expected_results(base))
+      if (r.name == base.study.seek_result)
+        result_unit = r.unit;
+    const SeekOutcome outcome = run_seek(base, options, communicator, [&](const SeekEvaluation &e) {
+      if (!talk)
+        return;
+      if (e.status == "completed")
+        std::printf("  run %2u: %s = %-20s %s = %s\n", e.index, base.study.seek.key.c_str(), e.value.c_str(),
+                    base.study.seek_result.c_str(), show(units, e.result, result_unit).c_str());
+      else
+        std::printf("  run %2u: %s = %-20s %s: %s\n", e.index, base.study.seek.key.c_str(), e.value.c_str(),
+                    e.status.c_str(), e.message.c_str());
+      std::fflush(stdout);
+    });
+    if (!talk)
+      return exit_success;
+    std::printf("  answer: %s = %.8g %s (bracket %.8g to %.8g after %zu runs)\n", outcome.key.c_str(), outcome.value,
+                outcome.parameter_unit.c_str(), outcome.bracket_low, outcome.bracket_high, outcome.evaluations.size());
+    std::printf("          %s = %s at the answer (target %s)\n", outcome.result_name.c_str(),
+                show(units, outcome.result, result_unit).c_str(), show(units, outcome.target, result_unit).c_str());
+    std::printf("results: %s (seek.csv, seek_summary.json, evaluations/)\n", outcome.folder.c_str());
+    std::printf("  Model predictions support, but do not replace, testing and engineering judgement; see the\n"
+                "  README's cautions before using them for medical, containment or safety decisions.\n");
+    return exit_success;
+  }
+} // namespace fickcast

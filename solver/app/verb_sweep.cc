@@ -1,0 +1,131 @@
+#include "app/display_units.h"
+#include "app/exit_codes.h"
+#include "app/verbs.h"
+
+#include "case/case_reader.h"
+#include "case/input_error.h"
+#include "numerics/collective.h"
+#include "studies/result_names.h"
+#include "studies/study_plan.h"
+#include "studies/study_runner.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <cmath>
+#include <cstdio>
+
+namespace fickcast
+{
+  namespace
+  {
+    std::string show(const DisplayUnits &units, const double value, const std::string &unit)
+    {
+      if (std::isinf(value))
+        return "not reached";
+      if (!std::isfinite(value))
+        return "-";
+      if (unit == "s")
+        return units.time(value);
+      if (unit == "m")
+        return units.length(value);
+      char buffer[64];
+      if (unit == "1")
+        std::snprintf(buffer, sizeof(buffer), "%.4g %%", 100 * value);
+      else
+        std::snprintf(buffer, sizeof(buffer), "%.4g %s", value, unit.c_str());
+      return buffer;
+    }
+  } // namespace
+
+  int verb_sweep(const Invocation &invocation, MPI_Comm communicator)
+  {
+    const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(communicator);
+    const unsigned int n_ranks = dealii::Utilities::MPI::n_mpi_processes(communicator);
+    std::vector<std::string> overrides = invocation.overrides;
+    overrides.insert(overrides.end(), invocation.vary.begin(), invocation.vary.end());
+    const CaseDescription base = read_case(invocation.case_file, overrides);
+    const StudySpec &study = base.study;
+    if (!study.has_sweep())
+      throw InputError(base.file, "study",
+                       "expected a [study] section with vary.KEY = values (a sweep) or sample.KEY = distribution "
+                       "(an uncertainty study), or --vary KEY=values; found neither");
+    for (const auto &limit : study.limits)
+      result_level(base, limit.result, limit.level, limit.origin,
+                   std::string("study.") + (limit.above ? "exceed." : "below.") + limit.result);
+    const std::vector<StudyCase> cases = plan_study(base);
+    collectively(communicator, [&] {
+      if (rank == 0)
+        check_study_values(base, invocation.case_file, overrides);
+    });
+
+    StudyOptions options;
+    options.case_file = invocation.case_file;
+    options.base_overrides = overrides;
+    options.folder = invocation.output.empty() ? base.output.folder + "_sweep" : invocation.output;
+    options.overwrite = invocation.overwrite;
+
+    const bool talk = !invocation.quiet;
+    if (talk && rank == 0)
+      {
+        std::string keys;
+        for (const auto &p : study.sample.empty() ? study.vary : study.sample)
+          keys += (keys.empty() ? "" : ", ") + p.key;
+        std::printf("%s: %s\n", base.file.c_str(), base.title.c_str());
+        if (study.sample.empty())
+          std::printf("  sweep of %zu cases (%s over %s) on %u rank%s\n", cases.size(),
+                      study.zip ? "lists zipped" : "every combination", keys.c_str(), n_ranks, n_ranks > 1 ? "s" : "");
+        else
+          std::printf("  uncertainty study: %zu Latin hypercube samples (seed %lu) of %s on %u rank%s\n", cases.size(),
+                      study.seed, keys.c_str(), n_ranks, n_ranks > 1 ? "s" : "");
+        std::fflush(stdout);
+      }
+    const StudyTotals totals = run_study(base, cases, options, communicator, [&](const CaseEvent &event) {
+      if (!talk || event.status == "already done")
+        return;
+      std::printf("  %s %-9s %7.2f s (rank %u)%s%s\n", event.id.c_str(), event.status.c_str(), event.wall_time,
+                  event.rank, event.message.empty() ? "" : ": ", event.message.c_str());
+      std::fflush(stdout);
+    });
+
+    if (totals.interrupted)
+      {
+        if (rank == 0)
+          std::fprintf(stderr,
+                       "fickcast: sweep interrupted: %zu cases finished in this run; run the same command again to "
+                       "compute the rest (finished cases are kept)\n",
+                       totals.computed);
+        return exit_run_failed;
+      }
+    std::size_t not_completed = 0;
+    for (const auto &[status, count] : totals.table.statuses)
+      not_completed += status == "completed" ? 0 : count;
+    not_completed = dealii::Utilities::MPI::broadcast(communicator, not_completed, 0);
+    if (rank != 0 || !talk)
+      return not_completed == 0 ? exit_success : exit_run_failed;
+
+    std::printf("  %zu cases: %zu run now, %zu kept from an earlier run;", totals.cases, totals.computed,
+                totals.reused);
+    for (const auto &[status, count] : totals.table.statuses)
+      std::printf(" %u %s", count, status.c_str());
+    std::printf("\n");
+    const DisplayUnits units(base);
+    for (const auto &s : totals.table.statistics)
+      {
+        std::printf("  %s (%zu cases): mean %s, P5 %s, P50 %s, P95 %s\n", s.name.c_str(), s.n,
+                    show(units, s.mean, s.unit).c_str(), show(units, s.p5, s.unit).c_str(),
+                    show(units, s.p50, s.unit).c_str(), show(units, s.p95, s.unit).c_str());
+        if (s.not_reached > 0)
+          std::printf("    not reached within time.end in %zu of %zu cases (no mean)\n", s.not_reached, s.n);
+        for (const auto &limit : s.limits)
+          std::printf("    probability %s %s: %.3g (standard error %.2g)\n", limit.above ? "above" : "below",
+                      limit.level_text.c_str(), limit.probability, limit.standard_error);
+      }
+    std::printf("results: %s/study.csv\n", options.folder.c_str());
+    std::printf("  Model predictions support, but do not replace, testing and engineering judgement; see the\n"
+                "  README's cautions before using them for medical, containment or safety decisions.\n");
+    if (not_completed > 0)
+      std::fprintf(stderr, "fickcast: %zu of %zu cases did not complete; study.csv gives each one's message\n",
+                   not_completed, totals.cases);
+    return not_completed == 0 ? exit_success : exit_run_failed;
+  }
+} // namespace fickcast

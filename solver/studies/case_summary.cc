@@ -1,0 +1,77 @@
+#include "studies/case_summary.h"
+
+#include "case/input_error.h"
+
+#include <boost/property_tree/json_parser.hpp>
+#include <boost/property_tree/ptree.hpp>
+
+#include <cmath>
+
+namespace fickcast
+{
+  const NamedResult *CaseSummary::find(const std::string &name) const
+  {
+    for (const auto &r : results)
+      if (r.name == name)
+        return &r;
+    return nullptr;
+  }
+
+  namespace
+  {
+    double number(const boost::property_tree::ptree &node)
+    {
+      const std::string text = node.get_value<std::string>();
+      if (text.empty() || text == "null")
+        return std::nan("");
+      try
+        {
+          return std::stod(text);
+        }
+      catch (...)
+        {
+          return std::nan("");
+        }
+    }
+  } // namespace
+
+  CaseSummary read_case_summary(const std::string &path)
+  {
+    boost::property_tree::ptree tree;
+    try
+      {
+        boost::property_tree::read_json(path, tree);
+      }
+    catch (const std::exception &error)
+      {
+        throw IoError("cannot read " + path + ": " + error.what());
+      }
+    CaseSummary summary;
+    summary.status = tree.get<std::string>("status", "unknown");
+    summary.message = tree.get<std::string>("message", "");
+    if (const auto wall = tree.get_child_optional("run.wall_time.value"))
+      summary.wall_time = number(*wall);
+    if (const auto results = tree.get_child_optional("results"))
+      for (const auto &[name, node] : *results)
+        {
+          if (name == "moments")
+            continue;
+          NamedResult result;
+          result.name = name;
+          if (const auto value = node.get_child_optional("value"))
+            {
+              result.value = number(*value);
+              result.unit = node.get<std::string>("unit", "");
+            }
+          else if (const auto final = node.get_child_optional("final"))
+            {
+              result.value = number(*final);
+              result.unit = node.get<std::string>("unit", "");
+            }
+          else
+            continue;
+          summary.results.push_back(result);
+        }
+    return summary;
+  }
+} // namespace fickcast

@@ -1,0 +1,63 @@
+#include "studies/result_names.h"
+
+#include "case/input_error.h"
+#include "case/quantity_text.h"
+#include "case/units.h"
+
+namespace fickcast
+{
+  std::vector<ResultName> expected_results(const CaseDescription &c)
+  {
+    std::vector<ResultName> names;
+    names.push_back({"amount.final_total", c.units.amount});
+    for (const auto &probe : c.output.probes)
+      names.push_back({"probe." + probe.name + ".final", c.units.concentration});
+    for (const auto &threshold : c.output.thresholds)
+      names.push_back({"threshold." + threshold.name, "s"});
+    names.push_back({"released_fraction.final", "1"});
+    for (const auto &release : c.output.releases)
+      names.push_back({"release." + release.name, "s"});
+    for (const auto &[name, boundary] : c.output.time_lags)
+      names.push_back({"time_lag." + name, "s"});
+    for (const auto &depth : c.output.depths)
+      names.push_back({"depth." + depth.name, "m"});
+    return names;
+  }
+
+  double result_level(const CaseDescription &c, const std::string &name, const std::string &level_text,
+                      const std::string &origin, const std::string &key)
+  {
+    const auto names = expected_results(c);
+    const ResultName *found = nullptr;
+    std::vector<std::string> list;
+    for (const auto &n : names)
+      {
+        list.push_back(n.name);
+        if (n.name == name)
+          found = &n;
+      }
+    if (found == nullptr)
+      {
+        std::string text;
+        for (const auto &n : list)
+          text += (text.empty() ? "" : ", ") + n;
+        const std::string suggestion = nearest(name, list);
+        throw InputError(origin, key,
+                         "expected a named result of the case (" + text + "), found '" + name + "'" +
+                           (suggestion.empty() ? "" : " (did you mean '" + suggestion + "'?)"));
+      }
+    try
+      {
+        const QuantityText q = split_quantity(level_text, false);
+        if (q.unit.empty())
+          return q.number;
+        return UnitSystem::instance().to_si(q.number, q.unit, found->unit);
+      }
+    catch (const UnitError &error)
+      {
+        throw InputError(origin, key,
+                         "expected a value in the unit of " + name + " (" + found->unit + "), found '" + level_text +
+                           "': " + error.what());
+      }
+  }
+} // namespace fickcast

@@ -1,0 +1,28 @@
+// The named results a case will report, known before it runs (for studies to check against).
+#pragma once
+
+#include "case/case_description.h"
+
+#include <string>
+#include <vector>
+
+namespace fickcast
+{
+  /// A named scalar result and its SI unit.
+  struct ResultName
+  {
+    std::string name; ///< e.g. threshold.base
+    std::string unit; ///< e.g. s, m, kg/m3, 1
+  };
+
+  /// The named results the case's [output] section asks for (as summary.json names them).
+  std::vector<ResultName> expected_results(const CaseDescription &description);
+
+  /**
+   * Converts @p level_text (e.g. `100 yr`, `80 %`, `250 mg/L`) into the SI unit of the result
+   * @p name. Throws InputError naming @p origin and @p key if the case reports no such result
+   * (the message lists those it does) or if the unit does not fit.
+   */
+  double result_level(const CaseDescription &description, const std::string &name, const std::string &level_text,
+                      const std::string &origin, const std::string &key);
+} // namespace fickcast

@@ -1,0 +1,66 @@
+// Sizing: the value of one case parameter that brings a named result to a target.
+#pragma once
+
+#include "case/case_description.h"
+
+#include <mpi.h>
+
+#include <functional>
+#include <string>
+#include <vector>
+
+namespace fickcast
+{
+  struct SeekOptions
+  {
+    std::string case_file;
+    std::vector<std::string> base_overrides; ///< --set overrides of the base case
+    std::string folder;                      ///< the seek folder
+    bool overwrite = false;
+  };
+
+  /// One run of the case during the search.
+  struct SeekEvaluation
+  {
+    unsigned int index = 0; ///< 1, 2, ...
+    double parameter = 0;   ///< in `parameter_unit`
+    std::string value;      ///< the parameter as written into the case
+    double result = 0;      ///< the named result, in `result_unit` (NaN if absent or not reached)
+    double difference = 0;  ///< result - target as the search saw it (an event not reached counts as at time.end)
+    std::string status;     ///< completed, failed
+    std::string message;
+    std::string folder; ///< its results folder (final location)
+  };
+
+  struct SeekOutcome
+  {
+    std::string key, parameter_unit, result_name, result_unit;
+    double target = 0;                        ///< in result_unit
+    double low = 0, high = 0;                 ///< the range, in parameter_unit
+    bool bracketed = false;                   ///< the target lies between the results at the two ends
+    bool converged = false;                   ///< the bracket shrank to the tolerance
+    double value = 0;                         ///< the answer, in parameter_unit
+    double result = 0;                        ///< the result at the answer
+    double bracket_low = 0, bracket_high = 0; ///< the final bracket
+    std::vector<SeekEvaluation> evaluations;
+    std::string folder; ///< where the seek folder is (after success)
+  };
+
+  /**
+   * Finds the value of study.seek.key within [seek.low, seek.high] for which the named result
+   * study.seek.result equals study.seek.target (collective over @p communicator; each evaluation
+   * is a full run of the case on all ranks). The search is Alefeld, Potra and Shi's bracketing
+   * method (ACM TOMS algorithm 748, as implemented by Boost.Math toms748_solve) on
+   * f(p) = result(p) - target, stopped when the bracket is narrower than seek.tolerance times the
+   * parameter, or after seek.max_evaluations runs. The answer is the secant point of the final
+   * bracket, run once more so its result is a real run, not an interpolation.
+   *
+   * Each run writes FOLDER/evaluations/eval_NN; FOLDER also gets seek.csv (every evaluation) and
+   * seek_summary.json. The folder appears only complete. Throws InputError (exit 2) if the range
+   * does not bracket the target (the message gives the result at both ends), if the named result
+   * does not exist, or if the target's unit does not fit the result; RunFailure if a run inside
+   * the range fails or the search does not converge within the allowed runs.
+   */
+  SeekOutcome run_seek(const CaseDescription &base, const SeekOptions &options, MPI_Comm communicator,
+                       const std::function<void(const SeekEvaluation &)> &on_evaluation);
+} // namespace fickcast

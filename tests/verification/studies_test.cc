@@ -1,0 +1,243 @@
+// Studies against analytic answers: seek inverts the membrane time lag, and a Latin hypercube
+// sample of a normal input reproduces the analytic mean and percentiles of a linear result.
+#include "case_runner.h"
+
+#include "case/case_reader.h"
+#include "case/input_error.h"
+#include "studies/seek.h"
+#include "studies/study_plan.h"
+#include "studies/study_runner.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <cstdio>
+#include <filesystem>
+
+namespace fickcast::testing
+{
+  namespace
+  {
+    /// The folder a seek of the case file @p file writes.
+    std::string seek_folder(const std::string &file)
+    {
+      return file.substr(0, file.rfind('/')) + "/seek";
+    }
+
+    SeekOutcome seek_file(const std::string &file)
+    {
+      SeekOptions options;
+      options.case_file = file;
+      options.folder = seek_folder(file);
+      options.overwrite = true;
+      return run_seek(read_case(file), options, MPI_COMM_WORLD, {});
+    }
+
+    SeekOutcome seek(const std::string &text, const std::string &name)
+    {
+      return seek_file(write_case(text, name));
+    }
+  } // namespace
+
+  // Daynes-Barrer time lag of a membrane, t_L = l^2 / (6 D) (Crank 1975, The Mathematics of
+  // Diffusion, ch. 4, eq. 4.24c). Seek inverts it: the thickness giving t_L = 400 s with
+  // D = 1e-11 m2/s is l = sqrt(6 D t_L) = 154.919 um. Required: within 0.2 %.
+  TEST(Seek, MembraneThicknessForATimeLag)
+  {
+    const std::string text = R"(
+[case]
+title = membrane sized for a time lag
+[geometry]
+layers = membrane 100 um
+cell_size = 2 um
+[region.membrane]
+diffusivity = 1e-11 m2/s
+[boundary.top]
+type = concentration
+value = 5 mol/m3
+[boundary.bottom]
+type = concentration
+value = 0 mol/m3
+[time]
+end = 3 h
+[output]
+fields = false
+time_lag.cell = bottom
+[study]
+seek.key = layer.membrane.thickness
+seek.low = 50 um
+seek.high = 300 um
+seek.result = time_lag.cell
+seek.target = 400 s
+seek.tolerance = 1e-5
+)";
+    const SeekOutcome outcome = seek(text, "seek_membrane");
+    const double exact = std::sqrt(6 * 1e-11 * 400) * 1e6; // um
+    std::printf("seek: membrane %.9g um (exact %.9g um, error %.2e) after %zu runs; lag there %.9g s\n", outcome.value,
+                exact, outcome.value / exact - 1, outcome.evaluations.size(), outcome.result);
+    EXPECT_TRUE(outcome.bracketed);
+    EXPECT_TRUE(outcome.converged);
+    EXPECT_EQ(outcome.parameter_unit, "um");
+    EXPECT_NEAR(outcome.value / exact, 1.0, 2e-3);
+    EXPECT_NEAR(outcome.result / 400.0, 1.0, 1e-3);
+    EXPECT_LE(outcome.evaluations.size(), 20u);
+  }
+
+  // Laminate time lag (Ash, Barrer & Palmer 1965, as given in ../shared/references sec. 6):
+  // t_L = [(l1^2/D1)(R1/6 + R2/2) + (l2^2/D2)(R2/6 + R1/2)] / (R1 + R2), R_i = l_i / (D_i K_i).
+  // With l1 = 1, D1 = 1, K1 = 1, D2 = 0.25, K2 = 3 the lag is 4.5303030303 at l2 = 2 (computed
+  // value in the reference). Seek recovers l2 = 2 from that lag, across a partition jump.
+  TEST(Seek, SecondLayerThicknessForALaminateTimeLag)
+  {
+    const std::string text = R"(
+[case]
+title = laminate sized for a time lag
+[geometry]
+layers = first 1 m, second 1 m
+cell_size = 0.02 m
+[region.first]
+diffusivity = 1 m2/s
+[region.second]
+diffusivity = 0.25 m2/s
+partition = 3
+[boundary.top]
+type = concentration
+ambient = 1 mol/m3
+[boundary.bottom]
+type = concentration
+ambient = 0 mol/m3
+[time]
+end = 200 s
+[output]
+fields = false
+time_lag.stack = bottom
+[study]
+seek.key = layer.second.thickness
+seek.low = 1 m
+seek.high = 3 m
+seek.result = time_lag.stack
+seek.target = 4.5303030303 s
+)";
+    const SeekOutcome outcome = seek(text, "seek_laminate");
+    std::printf("seek: second layer %.9g m (exact 2, error %.2e) after %zu runs\n", outcome.value,
+                outcome.value / 2 - 1, outcome.evaluations.size());
+    EXPECT_TRUE(outcome.converged);
+    EXPECT_NEAR(outcome.value / 2.0, 1.0, 2e-3);
+  }
+
+  // A range that does not bracket the target is bad input (exit 2), and the message gives the
+  // result at both ends; nothing is left behind.
+  TEST(Seek, RangeThatDoesNotBracketIsRejectedWithBothEnds)
+  {
+    const std::string text = R"(
+[case]
+title = unreachable lag
+[geometry]
+layers = membrane 100 um
+cell_size = 5 um
+[region.membrane]
+diffusivity = 1e-11 m2/s
+[boundary.top]
+type = concentration
+value = 5 mol/m3
+[boundary.bottom]
+type = concentration
+value = 0 mol/m3
+[time]
+end = 1 h
+[output]
+fields = false
+time_lag.cell = bottom
+[study]
+seek.key = layer.membrane.thickness
+seek.low = 50 um
+seek.high = 100 um
+seek.result = time_lag.cell
+seek.target = 400 s
+)";
+    const std::string file = write_case(text, "seek_no_bracket");
+    try
+      {
+        seek_file(file);
+        FAIL() << "expected InputError";
+      }
+    catch (const InputError &error)
+      {
+        const std::string message = error.what();
+        EXPECT_NE(message.find("50 um"), std::string::npos) << message;
+        EXPECT_NE(message.find("100 um"), std::string::npos) << message;
+        EXPECT_NE(message.find("study.seek.target"), std::string::npos) << message;
+      }
+    const std::string parent = file.substr(0, file.rfind('/'));
+    EXPECT_FALSE(std::filesystem::exists(seek_folder(file)));
+    for (const auto &entry : std::filesystem::directory_iterator(parent))
+      EXPECT_EQ(entry.path().filename().string().find("partial"), std::string::npos) << entry.path();
+  }
+
+  // Latin hypercube, one normal input: the inward flux q ~ normal(mu, sigma) into a sealed slab,
+  // so the amount taken up by t is A = q t exactly (conservation), normal(mu t, sigma t). The
+  // analytic mean and median are mu t; P5/P95 are mu t -/+ 1.6448536270 sigma t (normal
+  // quantile, Abramowitz & Stegun 1964, table 26.5); P(A > (mu + sigma) t) = 1 - Phi(1) =
+  // 0.1586552539 (table 26.1). Monte Carlo standard errors with N samples (common practice,
+  // large-sample results of order statistics, e.g. Kendall's Advanced Theory of Statistics,
+  // from memory): mean s / sqrt(N); sample p-quantile sqrt(p (1 - p)) / (f(x_p) sqrt(N)) with f
+  // the normal density, i.e. 1.2533 s / sqrt(N) for the median and 2.1133 s / sqrt(N) for P5
+  // and P95; a probability sqrt(P (1 - P) / N). Stratified sampling only lowers the errors
+  // below these, so they are upper bounds.
+  TEST(Uncertainty, LatinHypercubeOfALinearResultMatchesTheNormalDistribution)
+  {
+    const double mu = 1e-6, sigma = 2e-7, t = 1000; // mol/(m2 s), mol/(m2 s), s
+    const unsigned int n = 200;
+    const std::string text = R"(
+[case]
+title = uptake under an uncertain flux
+[geometry]
+layers = slab 1 cm
+cell_size = 1 mm
+[region.slab]
+diffusivity = 1e-9 m2/s
+[boundary.top]
+type = flux
+value = 1e-6 mol/(m2 s)
+[time]
+end = 1000 s
+[output]
+fields = false
+[study]
+sample.boundary.top.value = normal(1 umol/(m2 s), 0.2 umol/(m2 s))
+samples = 200
+seed = 11
+exceed.amount.final_total = 1.2 mmol/m2
+)";
+    const std::string file = write_case(text, "lhs_normal");
+    const CaseDescription base = read_case(file);
+    StudyOptions options;
+    options.case_file = file;
+    options.folder = file.substr(0, file.rfind('/')) + "/study";
+    const auto cases = plan_study(base);
+    ASSERT_EQ(cases.size(), n);
+    const StudyTotals totals = run_study(base, cases, options, MPI_COMM_WORLD, {});
+    if (dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) != 0)
+      return;
+    EXPECT_EQ(totals.table.statuses.at("completed"), n);
+    ASSERT_EQ(totals.table.statistics.size(), 1u);
+    const ResultStatistics &s = totals.table.statistics[0];
+    EXPECT_EQ(s.name, "amount.final_total");
+    const double m = mu * t, sd = sigma * t, root_n = std::sqrt(double(n));
+    std::printf("LHS normal: mean %.6g (exact %.6g, SE %.2g), P50 %.6g (SE %.2g), P5 %.6g (exact %.6g), P95 %.6g "
+                "(exact %.6g), sd %.6g (exact %.6g), P(above) %.4f (exact 0.1587)\n",
+                s.mean, m, s.standard_deviation / root_n, s.p50, 1.2533 * s.standard_deviation / root_n, s.p5,
+                m - 1.6448536270 * sd, s.p95, m + 1.6448536270 * sd, s.standard_deviation, sd,
+                s.limits.at(0).probability);
+    EXPECT_NEAR(s.mean, m, s.standard_deviation / root_n);
+    EXPECT_NEAR(s.standard_error_of_mean, s.standard_deviation / root_n, 1e-15);
+    EXPECT_NEAR(s.p50, m, 1.2533 * s.standard_deviation / root_n);
+    EXPECT_NEAR(s.p5, m - 1.6448536270 * sd, 2.1133 * s.standard_deviation / root_n);
+    EXPECT_NEAR(s.p95, m + 1.6448536270 * sd, 2.1133 * s.standard_deviation / root_n);
+    const double p = 0.1586552539;
+    EXPECT_NEAR(s.limits.at(0).probability, p, std::sqrt(p * (1 - p) / n));
+    EXPECT_NEAR(s.limits.at(0).level, 1.2e-3, 1e-15);
+  }
+} // namespace fickcast::testing
