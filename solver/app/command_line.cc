@@ -44,6 +44,8 @@ namespace fickcast
       po::options_description options = common_options();
       if (verb == "check")
         options.add_options()("keys", "list every case key with its default and meaning");
+      if (verb == "run" || verb == "sweep")
+        options.add_options()("report", "also write the plots and the HTML report (FOLDER/report/index.html)");
       if (verb == "sweep")
         options.add_options()("vary", po::value<std::vector<std::string>>()->composing(),
                               "sweep a case key: --vary key=value,value,... or key=\"text | text\" "
@@ -119,6 +121,7 @@ namespace fickcast
     invocation.overwrite = values.count("overwrite") != 0;
     invocation.quiet = values.count("quiet") != 0;
     invocation.list_keys = values.count("keys") != 0;
+    invocation.report = values.count("report") != 0;
     if (values.count("set"))
       invocation.overrides = values["set"].as<std::vector<std::string>>();
     if (values.count("vary"))

@@ -19,6 +19,7 @@ namespace fickcast
     bool help = false;
     bool version = false;
     bool list_keys = false; ///< check --keys
+    bool report = false;    ///< run/sweep --report: plots and HTML report at the end
   };
 
   /// The verbs this build offers, with a one-line description each.

@@ -1,6 +1,7 @@
 #include "app/display_units.h"
 #include "app/exit_codes.h"
 #include "app/progress.h"
+#include "app/report_request.h"
 #include "app/verbs.h"
 
 #include "case/case_reader.h"
@@ -27,13 +28,17 @@ namespace fickcast
     const RunOutcome outcome = run_case(description, options, communicator);
     progress.clear();
     const RunRecord &r = outcome.record;
+    const int run_code = r.status == "completed" ? exit_success : exit_run_failed;
     if (!root)
-      return r.status == "completed" ? exit_success : exit_run_failed;
+      return run_code;
     if (r.status != "completed")
       std::cerr << "fickcast: run failed: " << r.message << "\n  last good state (t = " << units.time(r.end_time)
                 << ") written to " << outcome.folder << '\n';
     if (invocation.quiet)
-      return r.status == "completed" ? exit_success : exit_run_failed;
+      {
+        const int report_code = invocation.report ? write_report(outcome.folder, true) : exit_success;
+        return run_code != exit_success ? run_code : report_code;
+      }
 
     std::printf("%s: %s\n", description.file.c_str(), description.title.c_str());
     std::printf("  %u-D, %lu cells, %lu unknowns (degree %u), %s, %u rank%s\n", r.dimension, r.cells, r.unknowns,
@@ -66,6 +71,8 @@ namespace fickcast
     std::printf("results: %s\n", outcome.folder.c_str());
     std::printf("  Model predictions support, but do not replace, testing and engineering judgement; see the\n"
                 "  README's cautions before using them for medical, containment or safety decisions.\n");
-    return r.status == "completed" ? exit_success : exit_run_failed;
+    std::fflush(stdout);
+    const int report_code = invocation.report ? write_report(outcome.folder, false) : exit_success;
+    return run_code != exit_success ? run_code : report_code;
   }
 } // namespace fickcast

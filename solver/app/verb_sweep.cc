@@ -1,5 +1,6 @@
 #include "app/display_units.h"
 #include "app/exit_codes.h"
+#include "app/report_request.h"
 #include "app/verbs.h"
 
 #include "case/case_reader.h"
@@ -100,8 +101,14 @@ namespace fickcast
     for (const auto &[status, count] : totals.table.statuses)
       not_completed += status == "completed" ? 0 : count;
     not_completed = dealii::Utilities::MPI::broadcast(communicator, not_completed, 0);
-    if (rank != 0 || !talk)
-      return not_completed == 0 ? exit_success : exit_run_failed;
+    const int study_code = not_completed == 0 ? exit_success : exit_run_failed;
+    if (rank != 0)
+      return study_code;
+    if (!talk)
+      {
+        const int report_code = invocation.report ? write_report(options.folder, true) : exit_success;
+        return study_code != exit_success ? study_code : report_code;
+      }
 
     std::printf("  %zu cases: %zu run now, %zu kept from an earlier run;", totals.cases, totals.computed,
                 totals.reused);
@@ -126,6 +133,8 @@ namespace fickcast
     if (not_completed > 0)
       std::fprintf(stderr, "fickcast: %zu of %zu cases did not complete; study.csv gives each one's message\n",
                    not_completed, totals.cases);
-    return not_completed == 0 ? exit_success : exit_run_failed;
+    std::fflush(stdout);
+    const int report_code = invocation.report ? write_report(options.folder, false) : exit_success;
+    return study_code != exit_success ? study_code : report_code;
   }
 } // namespace fickcast

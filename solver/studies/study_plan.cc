@@ -5,7 +5,9 @@
 #include "case/units.h"
 #include "studies/distributions.h"
 
+#include <algorithm>
 #include <cstdio>
+#include <map>
 #include <sstream>
 
 namespace fickcast
@@ -27,33 +29,68 @@ namespace fickcast
     }
   } // namespace
 
-  std::vector<std::string> parameter_overrides(const CaseDescription &base, const std::string &key,
-                                               const std::string &value, const std::string &origin)
+  namespace
   {
-    const std::string prefix = "layer.", suffix = ".thickness";
-    if (key.rfind(prefix, 0) == 0 && key.size() > prefix.size() + suffix.size() &&
-        key.compare(key.size() - suffix.size(), suffix.size(), suffix) == 0)
+    /// NAME for a key layer.NAME.thickness, empty for any other key.
+    std::string thickness_layer(const std::string &key)
+    {
+      const std::string prefix = "layer.", suffix = ".thickness";
+      if (key.rfind(prefix, 0) == 0 && key.size() > prefix.size() + suffix.size() &&
+          key.compare(key.size() - suffix.size(), suffix.size(), suffix) == 0)
+        return key.substr(prefix.size(), key.size() - prefix.size() - suffix.size());
+      return {};
+    }
+  } // namespace
+
+  std::vector<std::string> case_overrides(const CaseDescription &base, const std::vector<ParameterValue> &values)
+  {
+    std::vector<std::string> overrides;
+    std::map<std::string, std::string> thickness; // layer name -> value as written
+    const ParameterValue *layers_key = nullptr, *first_edit = nullptr;
+    for (const auto &v : values)
       {
-        const std::string name = key.substr(prefix.size(), key.size() - prefix.size() - suffix.size());
-        std::string layers;
-        bool found = false;
-        for (const auto &layer : base.geometry.layers)
+        const std::string name = thickness_layer(v.key);
+        if (name.empty())
           {
-            const bool this_one = layer.name == name;
-            found = found || this_one;
-            layers += (layers.empty() ? "" : ", ") + layer.name + " " +
-                      (this_one ? value : format_number(layer.thickness, "m"));
+            if (v.key == "geometry.layers")
+              layers_key = &v;
+            overrides.push_back(v.key + "=" + v.value);
+            continue;
           }
-        if (!found)
+        const bool known = std::any_of(base.geometry.layers.begin(), base.geometry.layers.end(),
+                                       [&](const auto &layer) { return layer.name == name; });
+        if (!known)
           {
             std::string list;
             for (const auto &layer : base.geometry.layers)
               list += (list.empty() ? "" : ", ") + layer.name;
-            throw InputError(origin, key, "expected a layer of geometry.layers (" + list + "), found '" + name + "'");
+            throw InputError(v.origin, v.key,
+                             "expected a layer of geometry.layers (" + list + "), found '" + name + "'");
           }
-        return {"geometry.layers=" + layers};
+        thickness[name] = v.value;
+        first_edit = first_edit ? first_edit : &v;
       }
-    return {key + "=" + value};
+    if (thickness.empty())
+      return overrides;
+    if (layers_key)
+      throw InputError(first_edit->origin, "study." + first_edit->key,
+                       "expected either geometry.layers or layer.NAME.thickness in one study (the layer list would "
+                       "undo the thickness), found both");
+    std::string layers;
+    for (const auto &layer : base.geometry.layers)
+      {
+        const auto edit = thickness.find(layer.name);
+        layers += (layers.empty() ? "" : ", ") + layer.name + " " +
+                  (edit != thickness.end() ? edit->second : format_number(layer.thickness, "m"));
+      }
+    overrides.push_back("geometry.layers=" + layers);
+    return overrides;
+  }
+
+  std::vector<std::string> parameter_overrides(const CaseDescription &base, const std::string &key,
+                                               const std::string &value, const std::string &origin)
+  {
+    return case_overrides(base, {{key, value, origin}});
   }
 
   std::vector<StudyCase> plan_study(const CaseDescription &base)
@@ -79,13 +116,14 @@ namespace fickcast
                 pick[j] = study.zip ? index : rest % n;
                 rest /= study.zip ? 1 : n;
               }
+            std::vector<ParameterValue> chosen;
             for (std::size_t j = 0; j < study.vary.size(); ++j)
               {
                 const auto &p = study.vary[j];
                 c.parameters.emplace_back(p.key, p.values[pick[j]]);
-                for (const auto &o : parameter_overrides(base, p.key, p.values[pick[j]], p.origin))
-                  c.overrides.push_back(o);
+                chosen.push_back({p.key, p.values[pick[j]], p.origin});
               }
+            c.overrides = case_overrides(base, chosen);
             cases.push_back(c);
           }
         return cases;
@@ -107,13 +145,14 @@ namespace fickcast
       {
         StudyCase c;
         c.id = case_id(i);
+        std::vector<ParameterValue> chosen;
         for (std::size_t j = 0; j < inputs.size(); ++j)
           {
             const std::string value = format_number(values[i][j], inputs[j].unit);
             c.parameters.emplace_back(study.sample[j].key, value);
-            for (const auto &o : parameter_overrides(base, study.sample[j].key, value, study.sample[j].origin))
-              c.overrides.push_back(o);
+            chosen.push_back({study.sample[j].key, value, study.sample[j].origin});
           }
+        c.overrides = case_overrides(base, chosen);
         cases.push_back(c);
       }
     return cases;

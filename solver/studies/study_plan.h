@@ -24,6 +24,21 @@ namespace fickcast
   std::vector<std::string> parameter_overrides(const CaseDescription &base, const std::string &key,
                                                const std::string &value, const std::string &origin);
 
+  /// A study parameter's value in one case.
+  struct ParameterValue
+  {
+    std::string key;    ///< e.g. layer.clay.thickness
+    std::string value;  ///< as written, with its unit
+    std::string origin; ///< file:line of the study key
+  };
+
+  /**
+   * The overrides of one case with all its parameter values: several `layer.NAME.thickness`
+   * edits go into one geometry.layers list. Throws InputError when a case would both replace
+   * geometry.layers and edit a layer's thickness (one would silently undo the other).
+   */
+  std::vector<std::string> case_overrides(const CaseDescription &base, const std::vector<ParameterValue> &values);
+
   /// Cases of a sweep (every combination, or element by element with combine = zip) or of an
   /// uncertainty study (Latin hypercube sample of the distributions). Throws InputError.
   std::vector<StudyCase> plan_study(const CaseDescription &base);

@@ -78,5 +78,16 @@ grep -q '"status": "failed"' "$scratch/stiff/summary.json" 2>/dev/null || fail "
 [ -f "$scratch/stiff/fields/fields.pvd" ] || fail "a failed run did not write its last good state"
 grep -q "did not converge" "$scratch/err.txt" || fail "a failed run does not say what failed"
 
+# run --report: the plots and the HTML report of the run, made from its files at the end.
+expect_code 0 "run --report" "$fickcast" run "$case_file" --output "$scratch/reported" --report --quiet
+[ -s "$scratch/reported/report/index.html" ] || fail "run --report wrote no report/index.html"
+ls "$scratch/reported/report/"*.png >/dev/null 2>&1 || fail "run --report wrote no plots"
+grep -q "Cautions" "$scratch/reported/report/index.html" || fail "the run report lacks the cautions"
+grep -q "threshold.mid" "$scratch/reported/report/index.html" || fail "the run report lacks the headline result"
+expect_code 0 "sweep --report" "$fickcast" sweep "$case_file" --vary "time.end=1 yr,2 yr" \
+  --set output.fields=false --output "$scratch/reported_sweep" --report --quiet
+[ -s "$scratch/reported_sweep/report/index.html" ] || fail "sweep --report wrote no study report"
+expect_code 2 "check --report is not an option of check" "$fickcast" check "$case_file" --report
+
 if [ "$failures" -ne 0 ]; then echo "$failures failure(s)"; exit 1; fi
 echo "all command-line checks passed"

@@ -71,6 +71,17 @@ threshold.base = 250 mg/L
     EXPECT_THROW(plan("vary.layer.gravel.thickness = 1 m\n"), InputError);
   }
 
+  TEST(StudyPlan, SeveralLayerThicknessesGoIntoOneLayerList)
+  {
+    const auto cases = plan("vary.layer.clay.thickness = 60 cm, 1.2 m\nvary.layer.sand.thickness = 10 cm\n"
+                            "vary.time.end = 30 yr\n");
+    ASSERT_EQ(cases.size(), 2u);
+    EXPECT_EQ(cases[1].overrides,
+              (std::vector<std::string>{"time.end=30 yr", "geometry.layers=clay 1.2 m, sand 10 cm"}));
+    // A layer list and a thickness edit in one case would undo each other: rejected.
+    EXPECT_THROW(plan("vary.geometry.layers = clay 0.6 m, sand 0.3 m\nvary.layer.clay.thickness = 1 m\n"), InputError);
+  }
+
   TEST(StudyPlan, SamplesCarryTheFirstArgumentsUnit)
   {
     const auto cases = plan("sample.region.clay.diffusivity = lognormal(1.9e-9 m2/s, 0.3)\nsamples = 8\nseed = 5\n");
