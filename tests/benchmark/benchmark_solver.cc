@@ -108,6 +108,10 @@ namespace
         std::printf("%10lu %8lu %10.4f %10.4f %10.1f %10.2f %16.3e %12.0f\n", r.unknowns, r.cells, per_step,
                     linear / r.steps_accepted, static_cast<double>(r.linear_iterations) / r.steps_accepted, setup,
                     static_cast<double>(r.unknowns) / per_step, memory);
+        std::printf("           phases [s]:");
+        for (const auto &[phase, seconds] : r.timing)
+          std::printf(" %s %.2f;", phase.c_str(), seconds);
+        std::printf("\n");
       }
   }
 } // namespace
