@@ -73,10 +73,19 @@ namespace fickcast::post
         const Shown result = shown(study, r);
         if (uncertainty)
           {
-            std::vector<double> finite;
+            std::vector<double> finite, all; // all: with events not reached (+infinity)
             for (const double v : result.values)
-              if (std::isfinite(v))
-                finite.push_back(v);
+              {
+                if (std::isfinite(v))
+                  finite.push_back(v);
+                if (!std::isnan(v))
+                  all.push_back(v);
+              }
+            const std::size_t not_reached = all.size() - finite.size();
+            const std::string beyond = not_reached
+                                         ? "; " + std::to_string(not_reached) + " of " + std::to_string(all.size()) +
+                                             " cases did not reach it within the simulated time"
+                                         : std::string();
             if (finite.size() < 2)
               continue;
             const double lo = *std::min_element(finite.begin(), finite.end());
@@ -98,10 +107,10 @@ namespace fickcast::post
               "Distribution of " + study.table.names()[r], result.label, "number of cases", {histogram}};
             emit(distribution, "distribution_" + safe(study.table.names()[r]),
                  "Histogram of " + study.table.names()[r] + " over the " + std::to_string(finite.size()) +
-                   " completed cases (" + std::to_string(bins) + " equal bins).");
+                   " completed cases where it has a value (" + std::to_string(bins) + " equal bins)" + beyond + ".");
 
             std::vector<double> levels, probability;
-            exceedance_curve(finite, levels, probability);
+            exceedance_curve(all, levels, probability);
             for (double &p : probability)
               p *= 100;
             PlotSpec exceedance{"Exceedance of " + study.table.names()[r],
@@ -110,7 +119,9 @@ namespace fickcast::post
                                 {{"cases (Weibull plotting position)", levels, probability}}};
             for (const auto &[name, p] : {std::pair<const char *, double>{"P5", 0.05}, {"P50", 0.5}, {"P95", 0.95}})
               {
-                const double q = sample_quantile(finite, p);
+                const double q = sample_quantile(all, p);
+                if (!std::isfinite(q))
+                  continue; // beyond the simulated time: no line to draw (the caption says so)
                 PlotCurve line{std::string(name) + " = " + format_number(q) +
                                  (result.unit.empty() ? "" : " " + result.unit),
                                {q, q},
@@ -121,7 +132,12 @@ namespace fickcast::post
             emit(exceedance, "exceedance_" + safe(study.table.names()[r]),
                  "Probability that " + study.table.names()[r] +
                    " exceeds a level: 1 - i/(n+1) at the i-th smallest of n cases; grey lines mark P5, P50 and P95 "
-                   "(Hyndman and Fan 1996, definition 7).");
+                   "(Hyndman and Fan 1996, definition 7)" +
+                   beyond +
+                   (not_reached
+                      ? ": they exceed every level shown, and percentiles beyond the simulated time have no line"
+                      : "") +
+                   ".");
           }
         for (const std::size_t p : varied)
           {
@@ -137,7 +153,7 @@ namespace fickcast::post
               }
             curve.markers_only = uncertainty || varied.size() > 1;
             const std::string &pname = study.table.names()[p];
-            const std::string punit = study.table.units()[p];
+            const std::string punit = study.table.units()[p].empty() ? study.parameter_unit(p) : study.table.units()[p];
             PlotSpec spec{study.table.names()[r] + " against " + pname,
                           pname + (punit.empty() ? "" : " [" + punit + "]"),
                           result.label,

@@ -63,8 +63,8 @@ namespace fickcast::post
     for (const std::size_t p : study.parameters)
       {
         const auto v = study.parameter_values(p);
-        parameter_rows.push_back(
-          {t.names()[p], t.units()[p], format_number(sample_quantile(v, 0)), format_number(sample_quantile(v, 1))});
+        parameter_rows.push_back({t.names()[p], t.units()[p].empty() ? study.parameter_unit(p) : t.units()[p],
+                                  format_number(sample_quantile(v, 0)), format_number(sample_quantile(v, 1))});
       }
     body += parameter_rows.empty() ? "<p>No parameter columns.</p>\n"
                                    : html_table({"parameter", "unit", "smallest", "largest"}, parameter_rows);
@@ -74,17 +74,25 @@ namespace fickcast::post
     for (const std::size_t r : study.results)
       {
         const auto v = study.result_values(r);
-        std::size_t n = 0;
+        std::size_t n = 0, not_reached = 0;
         for (const double x : v)
-          n += std::isfinite(x) ? 1 : 0;
-        stats.push_back({t.names()[r], t.units()[r], std::to_string(n), format_number(finite_mean(v)),
-                         format_number(sample_quantile(v, 0.05)), format_number(sample_quantile(v, 0.5)),
-                         format_number(sample_quantile(v, 0.95)), format_number(sample_quantile(v, 0)),
-                         format_number(sample_quantile(v, 1))});
+          {
+            n += std::isnan(x) ? 0 : 1;
+            not_reached += std::isinf(x) ? 1 : 0;
+          }
+        const auto show = [](const double x) {
+          return std::isinf(x) ? std::string("not reached") : std::isnan(x) ? std::string("-") : format_number(x);
+        };
+        stats.push_back({t.names()[r], t.units()[r],
+                         std::to_string(n) + (not_reached ? " (" + std::to_string(not_reached) + " not reached)" : ""),
+                         show(finite_mean(v)), show(sample_quantile(v, 0.05)), show(sample_quantile(v, 0.5)),
+                         show(sample_quantile(v, 0.95)), show(sample_quantile(v, 0)), show(sample_quantile(v, 1))});
       }
     body += html_table({"result", "unit", "cases", "mean", "P5", "P50", "P95", "smallest", "largest"}, stats);
     body += "<p class=\"meta\">Percentiles by linear interpolation between order statistics (Hyndman and Fan 1996, "
-            "definition 7), computed here from study.csv.</p>\n";
+            "definition 7), computed here from study.csv. An event (threshold, release) not reached within the "
+            "simulated time counts as later than any time: it enters the percentiles, and the mean is not "
+            "defined.</p>\n";
     if (uncertainty)
       {
         std::vector<std::vector<std::string>> rows;

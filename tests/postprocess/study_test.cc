@@ -7,12 +7,19 @@
 #include "report.h"
 #include "study_table.h"
 
+#include "case/case_reader.h"
+#include "studies/study_plan.h"
+#include "studies/study_runner.h"
+
+#include <deal.II/base/mpi.h>
+
 #include <vtkImageData.h>
 #include <vtkPNGReader.h>
 #include <vtkSmartPointer.h>
 
 #include <gtest/gtest.h>
 
+#include <cmath>
 #include <cstdio>
 #include <filesystem>
 #include <string>
@@ -94,6 +101,91 @@ namespace fickcast::post
     EXPECT_NE(html.find("Uncertainty study"), std::string::npos);
     EXPECT_NE(html.find("results.depth.front.final.p95"), std::string::npos); // study_summary.json shown
     EXPECT_NE(html.find("exceedance_depth_front_final.svg"), std::string::npos);
+  }
+
+  // The study.csv the solver itself writes (an invented liner scenario): parameters with units
+  // (one of them a layer thickness), a message column, and a threshold that some samples do
+  // not reach within the run. The report's percentiles must be those of the solver's
+  // study_summary.json (both by Hyndman and Fan 1996, definition 7, with an event not reached
+  // counted as later than any time).
+  TEST(Study, ReadsTheSolversStudyTableAndAgreesOnItsPercentiles)
+  {
+    const std::string text = R"(
+[case]
+title = liner under uncertain properties (invented numbers)
+[geometry]
+layers = clay 0.9 m, sand 0.3 m
+cell_size = 2 cm
+[region.clay]
+diffusivity = 1.9e-9 m2/s
+porosity = 0.38
+tortuosity = 0.33
+[region.sand]
+diffusivity = 1.9e-9 m2/s
+[boundary.top]
+type = concentration
+value = 1500 mg/L
+[time]
+end = 25 yr
+[output]
+fields = false
+probe.base = end of clay
+threshold.base = 250 mg/L
+[study]
+sample.region.clay.tortuosity = lognormal(0.33, 0.4)
+sample.layer.clay.thickness = uniform(70 cm, 110 cm)
+samples = 24
+seed = 3
+)";
+    const std::string file = testing::write_case(text, "post_real_study");
+    const CaseDescription base = read_case(file);
+    StudyOptions options;
+    options.case_file = file;
+    options.folder = file.substr(0, file.rfind('/')) + "/study";
+    options.overwrite = true;
+    const StudyTotals totals = run_study(base, plan_study(base), options, MPI_COMM_SELF, {});
+    ASSERT_EQ(totals.table.statistics.size(), 3u); // amount, probe final value, threshold
+
+    const StudyTable study = read_study(options.folder);
+    ASSERT_EQ(study.parameters.size(), 2u); // the message column is not a result
+    ASSERT_EQ(study.results.size(), 3u);
+    EXPECT_EQ(study.parameter_unit(study.parameters[1]), "cm");
+    for (const double v : study.parameter_values(study.parameters[1]))
+      EXPECT_TRUE(v >= 70 && v <= 110) << v;
+
+    bool some_not_reached = false;
+    for (const auto &solver : totals.table.statistics)
+      {
+        const std::size_t column = study.table.find(solver.name);
+        ASSERT_NE(column, CsvTable::npos) << solver.name;
+        const auto values = study.result_values(column);
+        const auto agree = [](const double post, const double mine) {
+          return std::isinf(mine) ? std::isinf(post) : std::abs(post - mine) <= 1e-9 * std::abs(mine);
+        };
+        EXPECT_TRUE(agree(sample_quantile(values, 0.05), solver.p5)) << solver.name;
+        EXPECT_TRUE(agree(sample_quantile(values, 0.50), solver.p50)) << solver.name;
+        EXPECT_TRUE(agree(sample_quantile(values, 0.95), solver.p95)) << solver.name;
+        some_not_reached = some_not_reached || solver.not_reached > 0;
+      }
+    EXPECT_TRUE(some_not_reached) << "the fixture should leave some samples short of the threshold";
+
+    const ReportOutcome outcome = make_study_report(options.folder, {});
+    EXPECT_GE(outcome.images.size(), 2 * (3u + 3u + 3u * 2u)); // distribution, exceedance, 2 scatters
+    const std::string html = read_file(outcome.html, "the report");
+    EXPECT_NE(html.find("not reached"), std::string::npos);
+  }
+
+  TEST(Study, EventsNotReachedCountAsLaterThanAnyTime)
+  {
+    // Hyndman and Fan (1996), definition 7 on {1, 2, 3, inf}: h = 3p; P50 = 2.5, P95 = inf.
+    const double inf = std::numeric_limits<double>::infinity();
+    EXPECT_NEAR(sample_quantile({3, inf, 1, 2}, 0.5), 2.5, 1e-15);
+    EXPECT_TRUE(std::isinf(sample_quantile({3, inf, 1, 2}, 0.95)));
+    EXPECT_TRUE(std::isnan(finite_mean({1, inf})));
+    std::vector<double> levels, probability;
+    exceedance_curve({3, inf, 1, 2}, levels, probability); // n = 4: 1 - i/5 at the finite levels
+    ASSERT_EQ(levels.size(), 3u);
+    EXPECT_NEAR(probability[2], 0.4, 1e-15);
   }
 
   TEST(Study, MalformedStudyTableIsAnInputError)
