@@ -559,8 +559,9 @@ namespace fickcast
             lag.time_lag = t - record.boundary_entered[b] / flux;
             // Steady: the flux changed by less than 0.1 % over the last fifth of the run.
             const double early = 0.8 * t;
-            const auto it = std::lower_bound(history_of.begin(), history_of.end(), early,
-                                             [](const std::pair<double, double> &p, double s) { return p.first < s; });
+            const auto it =
+              std::lower_bound(history_of.begin(), history_of.end(), early,
+                               [](const std::pair<double, double> &p, double when) { return p.first < when; });
             lag.steady = it != history_of.end() && std::abs(flux - it->second) <= 1e-3 * std::abs(flux);
           }
         record.time_lags.push_back(lag);

@@ -198,16 +198,16 @@ namespace fickcast
             residual -= rhs_used;
             auto bath_sum = [&](const Vector &v, const unsigned int bath) {
               double sum = 0;
-              for (const auto &[dof, b] : fixed_dofs_)
-                if (b == bath)
+              for (const auto &[dof, owner] : fixed_dofs_)
+                if (owner == bath)
                   sum += v[dof];
               return Utilities::MPI::sum(sum, communicator_);
             };
             for (std::size_t j = 0; j < n; ++j)
               {
                 Vector unit = make_vector();
-                for (const auto &[dof, b] : fixed_dofs_)
-                  if (b == baths_[j])
+                for (const auto &[dof, owner] : fixed_dofs_)
+                  if (owner == baths_[j])
                     unit[dof] = 1.0;
                 unit.compress(VectorOperation::insert);
                 Vector image = make_vector(), response = make_vector(), right_side = make_vector();

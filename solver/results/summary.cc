@@ -208,11 +208,11 @@ namespace fickcast
     if (!r.moments.empty())
       {
         Json moments = Json::object();
-        Json times = Json::array(), amounts = Json::array(), means = Json::array(), variances = Json::array();
+        Json times = Json::array(), moment_amounts = Json::array(), means = Json::array(), variances = Json::array();
         for (const auto &m : r.moments)
           {
             times.push_back(m.time);
-            amounts.push_back(m.amount);
+            moment_amounts.push_back(m.amount);
             Json mean = Json::array();
             for (unsigned int d = 0; d < c.dimension; ++d)
               mean.push_back(m.mean[d]);
@@ -220,7 +220,7 @@ namespace fickcast
             variances.push_back(m.variance);
           }
         moments["times"] = times;
-        moments["amount"] = amounts;
+        moments["amount"] = moment_amounts;
         moments["mean_position"] = means;
         moments["variance"] = variances;
         moments["units"] = "s; " + c.units.amount + "; m; m2";

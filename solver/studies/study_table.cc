@@ -193,7 +193,6 @@ namespace fickcast
                                      error.what());
                   }
                 // An event never reached (threshold, release) counts as later than any limit.
-                const bool event = name.rfind("threshold.", 0) == 0 || name.rfind("release.", 0) == 0;
                 std::size_t crossing = 0, counted = 0;
                 for (const auto &s : summaries)
                   {
