@@ -3,6 +3,9 @@
 //
 //   benchmark_solver [--1d] [--3d] [--large]       (default: --1d --3d, 3-D at 1e4 and 1e5)
 //   mpirun -np 2 benchmark_solver --3d --large     (3-D at 1e4, 1e5 and 1e6 unknowns on 2 ranks)
+//   benchmark_solver --accuracy                     (time to a given accuracy against erfc: fickcast
+//                                                    versus a plain uniform-grid Crank-Nicolson
+//                                                    finite-difference solver written here)
 #include "case/case_reader.h"
 #include "numerics/simulation.h"
 
@@ -10,10 +13,13 @@
 
 #include <sys/resource.h>
 
+#include <algorithm>
+#include <chrono>
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
 #include <string>
+#include <vector>
 
 namespace
 {
@@ -114,6 +120,148 @@ namespace
         std::printf("\n");
       }
   }
+
+  // ---- time to a given accuracy (DESIGN.md section 7) ----
+  // Semi-infinite medium, surface held at c0 = 1 from t = 0: c = erfc(x / (2 sqrt(D t)))
+  // (Crank, The Mathematics of Diffusion, 2nd ed. 1975, eq. 2.45). Error: the largest
+  // difference at 30 depths (5 mm to 150 mm) at the end time, relative to c0. The domain
+  // (0.5 m, about 16 diffusion lengths) is deep enough that its far face does not matter.
+  constexpr double accuracy_d = 1e-9, accuracy_end = 1e6, accuracy_depth = 0.5;
+  constexpr int accuracy_probes = 30;
+
+  std::string number(const double value)
+  {
+    char buffer[32];
+    std::snprintf(buffer, sizeof(buffer), "%.10g", value);
+    return buffer;
+  }
+
+  double probe_depth(const int i)
+  {
+    return 0.005 * (i + 1);
+  }
+
+  double erfc_profile(const double x)
+  {
+    return std::erfc(x / (2 * std::sqrt(accuracy_d * accuracy_end)));
+  }
+
+  struct Cost
+  {
+    std::string what;
+    double seconds = 0, error = 0;
+  };
+
+  Cost fickcast_run(const double cell, const double tolerance, const double step, const unsigned int degree)
+  {
+    std::string text = "[case]\ntitle = accuracy\n[geometry]\nlayers = medium " + number(accuracy_depth) +
+                       " m\ncell_size = " + number(cell) + " m\n[region.medium]\ndiffusivity = " + number(accuracy_d) +
+                       " m2/s\n[boundary.top]\ntype = concentration\nvalue = 1 mol/m3\n"
+                       "[time]\nend = " +
+                       number(accuracy_end) + " s\n" +
+                       (step > 0 ? "step = " + number(step) + " s" : "tolerance = " + number(tolerance)) +
+                       "\n[numerics]\ndegree = " + std::to_string(degree) + "\n[output]\nfields = false\n";
+    for (int i = 0; i < accuracy_probes; ++i)
+      text += "probe.p" + std::to_string(i) + " = " + number(probe_depth(i)) + " m\n";
+    const auto start = std::chrono::steady_clock::now();
+    const RunRecord r = run_text(text, "accuracy", MPI_COMM_SELF, 1);
+    const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+    double error = 0;
+    for (const auto &probe : r.probes)
+      error = std::max(error, std::abs(probe.final_value - erfc_profile(probe_depth(std::stoi(probe.name.substr(1))))));
+    char what[96];
+    if (step > 0)
+      std::snprintf(what, sizeof(what), "Q%u, h = %.3g mm, fixed step, %u steps", degree, 1e3 * cell, r.steps_accepted);
+    else
+      std::snprintf(what, sizeof(what), "Q%u, h = %.3g mm, tolerance %.0e, %u steps", degree, 1e3 * cell, tolerance,
+                    r.steps_accepted);
+    return {what, seconds, error};
+  }
+
+  // The comparison: the finite-difference script an engineer writes by hand. Uniform grid,
+  // Crank-Nicolson with a fixed step, Thomas algorithm, linear interpolation to the probes.
+  Cost finite_difference_run(const int intervals, const int steps)
+  {
+    const auto start = std::chrono::steady_clock::now();
+    const double h = accuracy_depth / intervals, dt = accuracy_end / steps, r = accuracy_d * dt / (h * h);
+    std::vector<double> c(intervals + 1, 0.0), rhs(intervals + 1), cp(intervals + 1), dp(intervals + 1);
+    c[0] = 1; // surface held at c0 (the initial jump there is part of the problem)
+    for (int n = 0; n < steps; ++n)
+      {
+        // interior rows: -r/2 c[i-1] + (1 + r) c[i] - r/2 c[i+1] = r/2 c[i-1] + (1 - r) c[i] + r/2 c[i+1]
+        for (int i = 1; i < intervals; ++i)
+          rhs[i] = 0.5 * r * c[i - 1] + (1 - r) * c[i] + 0.5 * r * c[i + 1];
+        // Dirichlet rows at both ends (c = 1 at the surface, c = 0 deep down)
+        cp[0] = 0;
+        dp[0] = 1;
+        for (int i = 1; i < intervals; ++i)
+          {
+            const double a = -0.5 * r, b = 1 + r, cc = -0.5 * r, m = b - a * cp[i - 1];
+            cp[i] = cc / m;
+            dp[i] = (rhs[i] - a * dp[i - 1]) / m;
+          }
+        c[intervals] = 0;
+        for (int i = intervals - 1; i >= 1; --i)
+          c[i] = dp[i] - cp[i] * c[i + 1];
+        c[0] = 1;
+      }
+    double error = 0;
+    for (int i = 0; i < accuracy_probes; ++i)
+      {
+        const double x = probe_depth(i) / h;
+        const int k = std::min(static_cast<int>(x), intervals - 1);
+        const double value = c[k] + (x - k) * (c[k + 1] - c[k]);
+        error = std::max(error, std::abs(value - erfc_profile(probe_depth(i))));
+      }
+    const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+    char what[96];
+    std::snprintf(what, sizeof(what), "FD-CN, h = %.3g mm, %d steps", 1e3 * h, steps);
+    return {what, seconds, error};
+  }
+
+  void accuracy_versus_cost(const bool root)
+  {
+    if (!root)
+      return;
+    std::printf("\nTime to a given accuracy: erfc at t = 1e6 s, D = 1e-9 m2/s, largest error at 30 depths\n");
+    std::vector<Cost> ours, theirs;
+    for (const double cell : {0.02, 0.01, 0.005, 0.0025})
+      for (const double tolerance : {1e-3, 1e-4, 1e-5, 1e-6})
+        ours.push_back(fickcast_run(cell, tolerance, 0, 2));
+    for (const double cell : {0.01, 0.005, 0.0025})
+      for (const double steps : {100.0, 300.0, 1000.0})
+        ours.push_back(fickcast_run(cell, 0, accuracy_end / steps, 2));
+    for (const int intervals : {100, 200, 400, 800, 1600, 3200, 6400})
+      for (const int steps : {10, 30, 100, 300, 1000, 3000, 10000, 30000})
+        theirs.push_back(finite_difference_run(intervals, steps));
+    const auto print = [](const Cost &c) {
+      std::printf("    %-48s error %9.2e  %9.4f s\n", c.what.c_str(), c.error, c.seconds);
+    };
+    std::printf("  fickcast runs:\n");
+    for (const auto &c : ours)
+      print(c);
+    std::printf("\n  %-10s %-60s %-60s %8s\n", "error <=", "fastest fickcast run", "fastest FD-CN run", "FD/ours");
+    for (const double target : {1e-3, 1e-4, 1e-5, 1e-6})
+      {
+        const auto fastest = [target](const std::vector<Cost> &runs) {
+          const Cost *best = nullptr;
+          for (const auto &c : runs)
+            if (c.error <= target && (!best || c.seconds < best->seconds))
+              best = &c;
+          return best;
+        };
+        const Cost *a = fastest(ours), *b = fastest(theirs);
+        char left[128] = "none reached it", right[128] = "none reached it (up to 6400 intervals, 30000 steps)";
+        if (a)
+          std::snprintf(left, sizeof(left), "%.4f s (%s)", a->seconds, a->what.c_str());
+        if (b)
+          std::snprintf(right, sizeof(right), "%.4f s (%s)", b->seconds, b->what.c_str());
+        std::printf("  %-10.0e %-60s %-60s", target, left, right);
+        if (a && b)
+          std::printf(" %8.2g", b->seconds / a->seconds);
+        std::printf("\n");
+      }
+  }
 } // namespace
 
 int main(int argc, char **argv)
@@ -121,16 +269,19 @@ int main(int argc, char **argv)
   dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
   const MPI_Comm communicator = MPI_COMM_WORLD;
   const bool root = dealii::Utilities::MPI::this_mpi_process(communicator) == 0;
-  bool run_1d = false, run_3d = false, large = false;
+  bool run_1d = false, run_3d = false, large = false, accuracy = false;
   for (int i = 1; i < argc; ++i)
     {
       const std::string flag = argv[i];
       run_1d = run_1d || flag == "--1d";
       run_3d = run_3d || flag == "--3d";
       large = large || flag == "--large";
+      accuracy = accuracy || flag == "--accuracy";
     }
-  if (!run_1d && !run_3d)
+  if (!run_1d && !run_3d && !accuracy)
     run_1d = run_3d = true;
+  if (accuracy)
+    accuracy_versus_cost(root);
   if (run_1d)
     one_dimensional(communicator, root);
   if (run_3d)
