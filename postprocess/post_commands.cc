@@ -324,8 +324,7 @@ namespace fickcast::post
       options.sqrt_time = flags.has("--sqrt-time");
       options.formats.svg = !flags.has("--no-svg");
       const std::string &folder = flags.positional[0];
-      const ReportOutcome outcome =
-        is_study_folder(folder) ? make_study_report(folder, options) : make_report(folder, options);
+      const ReportOutcome outcome = make_any_report(folder, options);
       std::cout << outcome.html << '\n';
       return 0;
     }

@@ -47,4 +47,17 @@ namespace fickcast::post
 
   /// True if @p folder holds a study (a study.csv).
   bool is_study_folder(const std::string &folder);
+
+  /**
+   * The same for a sizing search (seek.csv and seek_summary.json, as `fickcast seek` writes):
+   * what was sought, the answer with its final bracket, the result against the parameter at
+   * every evaluation with the target marked, and the evaluations table.
+   */
+  ReportOutcome make_seek_report(const std::string &seek_folder, const ReportOptions &options = {});
+
+  /// True if @p folder holds a sizing search (seek.csv and seek_summary.json).
+  bool is_seek_folder(const std::string &folder);
+
+  /// make_study_report, make_seek_report or make_report, after what @p folder holds.
+  ReportOutcome make_any_report(const std::string &folder, const ReportOptions &options = {});
 } // namespace fickcast::post

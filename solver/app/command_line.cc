@@ -44,7 +44,7 @@ namespace fickcast
       po::options_description options = common_options();
       if (verb == "check")
         options.add_options()("keys", "list every case key with its default and meaning");
-      if (verb == "run" || verb == "sweep")
+      if (verb == "run" || verb == "sweep" || verb == "seek")
         options.add_options()("report", "also write the plots and the HTML report (FOLDER/report/index.html)");
       if (verb == "sweep")
         options.add_options()("vary", po::value<std::vector<std::string>>()->composing(),

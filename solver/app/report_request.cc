@@ -13,8 +13,7 @@ namespace fickcast
   {
     try
       {
-        const post::ReportOutcome outcome =
-          post::is_study_folder(folder) ? post::make_study_report(folder) : post::make_report(folder);
+        const post::ReportOutcome outcome = post::make_any_report(folder);
         if (!quiet)
           std::printf("report: %s (%zu images)\n", outcome.html.c_str(), outcome.images.size());
         return exit_success;

@@ -1,5 +1,6 @@
 #include "app/display_units.h"
 #include "app/exit_codes.h"
+#include "app/report_request.h"
 #include "app/verbs.h"
 
 #include "case/case_reader.h"
@@ -69,7 +70,7 @@ namespace fickcast
       std::fflush(stdout);
     });
     if (!talk)
-      return exit_success;
+      return invocation.report && root ? write_report(outcome.folder, true) : exit_success;
     std::printf("  answer: %s = %.8g %s (bracket %.8g to %.8g after %zu runs)\n", outcome.key.c_str(), outcome.value,
                 outcome.parameter_unit.c_str(), outcome.bracket_low, outcome.bracket_high, outcome.evaluations.size());
     std::printf("          %s = %s at the answer (target %s)\n", outcome.result_name.c_str(),
@@ -77,6 +78,7 @@ namespace fickcast
     std::printf("results: %s (seek.csv, seek_summary.json, evaluations/)\n", outcome.folder.c_str());
     std::printf("  Model predictions support, but do not replace, testing and engineering judgement; see the\n"
                 "  README's cautions before using them for medical, containment or safety decisions.\n");
-    return exit_success;
+    std::fflush(stdout);
+    return invocation.report ? write_report(outcome.folder, false) : exit_success;
   }
 } // namespace fickcast

@@ -141,5 +141,12 @@ result=$(sed -n 's/.*"result": \([0-9.e+-]*\),*/\1/p' sized/seek_summary.json | 
 awk -v r="$result" 'BEGIN { exit !(r > 0.99 * 40 * 31557600 && r < 1.01 * 40 * 31557600) }' ||
   fail "the seek answer ($answer) gives breakthrough $result s, not 40 yr"
 
+# --- seek --report: the sizing report names the answer and shows the evaluations plot.
+expect_code 0 "seek --report" "$fickcast" seek size.ini --output sized_report --report --quiet
+[ -s sized_report/report/index.html ] || fail "seek --report wrote no report"
+grep -q "Sizing search" sized_report/report/index.html && grep -q "no safety margin" sized_report/report/index.html ||
+  fail "the seek report lacks its title or the sizing caution"
+[ -s sized_report/report/seek_evaluations.png ] || fail "the seek report has no plot"
+
 [ "$failures" -eq 0 ] && echo "study tests: all passed"
 exit $((failures > 0))
