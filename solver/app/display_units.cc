@@ -90,6 +90,26 @@ namespace fickcast
     return unit.empty() || unit == "1" ? std::string(buffer) : std::string(buffer) + " " + unit;
   }
 
+  std::string DisplayUnits::result(const double value, const std::string &si_unit, const bool event) const
+  {
+    if (std::isinf(value) || (event && std::isnan(value)))
+      return "not reached";
+    if (std::isnan(value))
+      return "-";
+    if (si_unit == "s")
+      return time(value);
+    if (si_unit == "m")
+      return length(value);
+    if (si_unit == "kg/m3" || si_unit == "mol/m3" || si_unit == "1/m3")
+      return concentration(value);
+    char buffer[64];
+    if (si_unit == "1")
+      std::snprintf(buffer, sizeof(buffer), "%.*g %%", digits_, 100 * value);
+    else
+      std::snprintf(buffer, sizeof(buffer), "%.*g %s", digits_, value, si_unit.c_str());
+    return buffer;
+  }
+
   std::string DisplayUnits::time(const double seconds) const
   {
     return format(seconds / time_factor_, time_unit_);

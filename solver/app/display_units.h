@@ -19,6 +19,13 @@ namespace fickcast
     std::string length(double metres) const;
     std::string concentration(double si) const;
 
+    /**
+     * A named result given in SI with its SI unit (as summary.json and study.csv carry it):
+     * times, lengths and concentrations in the case's units, fractions (unit 1) in per cent,
+     * anything else in SI. Infinite or, for an @p event, NaN: "not reached"; otherwise NaN: "-".
+     */
+    std::string result(double value, const std::string &si_unit, bool event = false) const;
+
   private:
     std::string format(double value, const std::string &unit) const;
     int digits_;

@@ -14,25 +14,6 @@
 
 namespace fickcast
 {
-  namespace
-  {
-    std::string show(const DisplayUnits &units, const double value, const std::string &unit)
-    {
-      if (!std::isfinite(value))
-        return "not reached";
-      if (unit == "s")
-        return units.time(value);
-      if (unit == "m")
-        return units.length(value);
-      char buffer[64];
-      if (unit == "1")
-        std::snprintf(buffer, sizeof(buffer), "%.6g %%", 100 * value);
-      else
-        std::snprintf(buffer, sizeof(buffer), "%.6g %s", value, unit.c_str());
-      return buffer;
-    }
-  } // namespace
-
   int verb_seek(const Invocation &invocation, MPI_Comm communicator)
   {
     const bool root = dealii::Utilities::MPI::this_mpi_process(communicator) == 0;
@@ -63,7 +44,7 @@ namespace fickcast
         return;
       if (e.status == "completed")
         std::printf("  run %2u: %s = %-20s %s = %s\n", e.index, base.study.seek.key.c_str(), e.value.c_str(),
-                    base.study.seek_result.c_str(), show(units, e.result, result_unit).c_str());
+                    base.study.seek_result.c_str(), units.result(e.result, result_unit, true).c_str());
       else
         std::printf("  run %2u: %s = %-20s %s: %s\n", e.index, base.study.seek.key.c_str(), e.value.c_str(),
                     e.status.c_str(), e.message.c_str());
@@ -74,7 +55,8 @@ namespace fickcast
     std::printf("  answer: %s = %.8g %s (bracket %.8g to %.8g after %zu runs)\n", outcome.key.c_str(), outcome.value,
                 outcome.parameter_unit.c_str(), outcome.bracket_low, outcome.bracket_high, outcome.evaluations.size());
     std::printf("          %s = %s at the answer (target %s)\n", outcome.result_name.c_str(),
-                show(units, outcome.result, result_unit).c_str(), show(units, outcome.target, result_unit).c_str());
+                units.result(outcome.result, result_unit, true).c_str(),
+                units.result(outcome.target, result_unit, true).c_str());
     std::printf("results: %s (seek.csv, seek_summary.json, evaluations/)\n", outcome.folder.c_str());
     std::printf("  Model predictions support, but do not replace, testing and engineering judgement; see the\n"
                 "  README's cautions before using them for medical, containment or safety decisions.\n");

@@ -6,6 +6,7 @@
 #include "case/case_reader.h"
 #include "case/input_error.h"
 #include "numerics/collective.h"
+#include "studies/case_summary.h"
 #include "studies/result_names.h"
 #include "studies/study_plan.h"
 #include "studies/study_runner.h"
@@ -19,22 +20,45 @@ namespace fickcast
 {
   namespace
   {
-    std::string show(const DisplayUnits &units, const double value, const std::string &unit)
+    /// A sweep's cases with their parameters and results in the case's units, read back from
+    /// each case's summary.json (the same numbers as study.csv). Long sweeps: see study.csv.
+    void print_case_results(const std::vector<StudyCase> &cases, const std::string &folder, const DisplayUnits &units)
     {
-      if (std::isinf(value))
-        return "not reached";
-      if (!std::isfinite(value))
-        return "-";
-      if (unit == "s")
-        return units.time(value);
-      if (unit == "m")
-        return units.length(value);
-      char buffer[64];
-      if (unit == "1")
-        std::snprintf(buffer, sizeof(buffer), "%.4g %%", 100 * value);
-      else
-        std::snprintf(buffer, sizeof(buffer), "%.4g %s", value, unit.c_str());
-      return buffer;
+      constexpr std::size_t most = 40;
+      if (cases.size() > most)
+        {
+          std::printf("  (%zu cases: each one's parameters and results are in study.csv)\n", cases.size());
+          return;
+        }
+      for (const auto &c : cases)
+        {
+          std::string line = "  " + c.id + ":";
+          for (const auto &[key, value] : c.parameters)
+            line += " " + key + " = " + value + ";";
+          std::printf("%s\n", line.c_str());
+          CaseSummary summary;
+          try
+            {
+              summary = read_case_summary(folder + "/cases/" + c.id + "/summary.json");
+            }
+          catch (const std::exception &)
+            {
+              std::printf("      no results (see study.csv)\n");
+              continue;
+            }
+          if (summary.status != "completed")
+            {
+              std::printf("      %s: %s\n", summary.status.c_str(), summary.message.c_str());
+              continue;
+            }
+          line = "     ";
+          for (const auto &r : summary.results)
+            {
+              const bool event = r.name.rfind("threshold.", 0) == 0 || r.name.rfind("release.", 0) == 0;
+              line += " " + r.name + " " + units.result(r.value, r.unit, event) + ";";
+            }
+          std::printf("%s\n", line.c_str());
+        }
     }
   } // namespace
 
@@ -116,11 +140,13 @@ namespace fickcast
       std::printf(" %u %s", count, status.c_str());
     std::printf("\n");
     const DisplayUnits units(base);
+    if (study.sample.empty())
+      print_case_results(cases, options.folder, units);
     for (const auto &s : totals.table.statistics)
       {
         std::printf("  %s (%zu cases): mean %s, P5 %s, P50 %s, P95 %s\n", s.name.c_str(), s.n,
-                    show(units, s.mean, s.unit).c_str(), show(units, s.p5, s.unit).c_str(),
-                    show(units, s.p50, s.unit).c_str(), show(units, s.p95, s.unit).c_str());
+                    units.result(s.mean, s.unit).c_str(), units.result(s.p5, s.unit).c_str(),
+                    units.result(s.p50, s.unit).c_str(), units.result(s.p95, s.unit).c_str());
         if (s.not_reached > 0)
           std::printf("    not reached within time.end in %zu of %zu cases (no mean)\n", s.not_reached, s.n);
         for (const auto &limit : s.limits)
