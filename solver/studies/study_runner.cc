@@ -8,6 +8,7 @@
 #include "results/json.h"
 #include "results/results_folder.h"
 #include "results/summary.h"
+#include "studies/folder_lock.h"
 
 #include <chrono>
 #include <filesystem>
@@ -49,11 +50,13 @@ namespace fickcast
     const std::string plan = plan_fingerprint(cases, options.base_overrides);
     const std::string plan_file = options.folder + "/study_plan.txt";
 
-    // Rank 0 prepares the folder: new, resumed (same plan), or refused.
+    // Rank 0 prepares the folder: new, resumed (same plan), or refused; and holds its lock.
     std::vector<char> done(cases.size(), 0);
+    FolderLock lock;
     collectively(communicator, [&] {
       if (rank != 0)
         return;
+      FolderLock::check_free(options.folder);
       if (fs::exists(options.folder))
         {
           if (options.overwrite)
@@ -68,6 +71,7 @@ namespace fickcast
                              "study to resume it, another --output, or --overwrite");
         }
       fs::create_directories(options.folder + "/cases");
+      lock.take(options.folder);
       // Leftovers of runs killed hard (partial folders) are not results: remove them.
       for (const auto &entry : fs::directory_iterator(options.folder + "/cases"))
         if (entry.path().filename().string().find(".partial-") != std::string::npos)

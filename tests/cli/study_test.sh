@@ -65,6 +65,20 @@ grep -q '"clay 0.6 m, sand 0.3 m"' one/study.csv || fail "whole-string values ar
 
 # --- --vary from the command line adds to the case's study.
 expect_code 0 "sweep --vary" "$fickcast" sweep grid.ini --output varied --vary "region.clay.porosity=0.3,0.45"
+
+# --- a folder another study is writing to is refused; a lock whose process is gone is not.
+mkdir -p locked
+echo "$$ $(hostname)" >locked/.fickcast-lock # this shell: alive while the test runs
+expect_code 2 "sweep into a folder in use" "$fickcast" sweep grid.ini --output locked
+grep -q "in use by process $$" err.txt || fail "a folder in use is not reported as such: $(cat err.txt)"
+[ -e locked/cases ] && fail "a refused sweep touched the folder in use"
+bash -c 'exit 0' &
+gone=$!
+wait "$gone"
+echo "$gone $(hostname)" >locked/.fickcast-lock # a process that has ended: a stale lock
+expect_code 0 "sweep over a stale lock" "$fickcast" sweep grid.ini --output locked --overwrite
+[ -e locked/.fickcast-lock ] && fail "the sweep left its lock behind"
+[ -f locked/study.csv ] || fail "the sweep over a stale lock wrote no study.csv"
 [ "$(wc -l <varied/study.csv)" -eq 17 ] || fail "--vary did not multiply the grid to 16 cases"
 
 # --- An interrupted sweep resumes without recomputing finished cases.
