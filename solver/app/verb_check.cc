@@ -3,6 +3,9 @@
 #include "case/case_reader.h"
 #include "case/key_schema.h"
 #include "numerics/mesh_statistics.h"
+#include "studies/result_names.h"
+#include "studies/seek.h"
+#include "studies/study_plan.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -30,6 +33,37 @@ namespace fickcast
                     << std::string(fallback.size() < 16 ? 16 - fallback.size() : 1, ' ') << spec.help << '\n';
         }
     }
+
+    /// The study of the case checked as sweep or seek would check it before running anything
+    /// (every swept value read into the case, limits, seek range and target); one line saying
+    /// what would run, or empty without a study. Throws InputError.
+    std::string check_study(const CaseDescription &description, const Invocation &invocation)
+    {
+      const StudySpec &study = description.study;
+      if (study.has_seek())
+        {
+          const SeekOutcome seek = prepare_seek(description, invocation.case_file, invocation.overrides);
+          return "study: `fickcast seek` would search " + seek.key + " in [" + study.seek.values.at(0) + ", " +
+                 study.seek.values.at(1) + "] for " + seek.result_name + " = " + study.seek_target +
+                 " (both ends accepted by the case)";
+        }
+      if (!study.has_sweep())
+        return {};
+      for (const auto &limit : study.limits)
+        result_level(description, limit.result, limit.level, limit.origin,
+                     std::string("study.") + (limit.above ? "exceed." : "below.") + limit.result);
+      const std::size_t n = plan_study(description).size();
+      check_study_values(description, invocation.case_file, invocation.overrides);
+      std::string keys;
+      for (const auto &p : study.sample.empty() ? study.vary : study.sample)
+        keys += (keys.empty() ? "" : ", ") + p.key;
+      if (study.sample.empty())
+        return "study: `fickcast sweep` would run " + std::to_string(n) + " cases (" +
+               (study.zip ? "lists zipped" : "every combination") + " over " + keys +
+               "); every value accepted by the case";
+      return "study: `fickcast sweep` would run " + std::to_string(n) + " Latin hypercube samples of " + keys +
+             " (seed " + std::to_string(study.seed) + "); the case accepts each distribution's median";
+    }
   } // namespace
 
   int verb_check(const Invocation &invocation, MPI_Comm communicator)
@@ -45,6 +79,7 @@ namespace fickcast
     if (!invocation.output.empty())
       description.output.folder = invocation.output;
     const MeshStatistics mesh = count_mesh(description, communicator);
+    const std::string study = check_study(description, invocation);
     if (!root || invocation.quiet)
       return 0;
 
@@ -72,6 +107,8 @@ namespace fickcast
     for (const auto &record : description.settings)
       std::cout << pad(record.key, key_width) << "  " << pad(record.written, written_width) << "  "
                 << pad(record.si, si_width) << "  " << record.origin << '\n';
+    if (!study.empty())
+      std::cout << '\n' << study << '\n';
     return 0;
   }
 } // namespace fickcast

@@ -27,7 +27,8 @@ namespace fickcast
     options.folder = invocation.output.empty() ? base.output.folder + "_seek" : invocation.output;
     options.overwrite = invocation.overwrite;
 
-    if (talk && base.study.has_seek()) // without seek keys run_seek reports the error
+    prepare_seek(base, invocation.case_file, invocation.overrides); // every check before the first run
+    if (talk)
       {
         std::printf("%s: %s\n", base.file.c_str(), base.title.c_str());
         std::printf("  seek %s in [%s, %s] so that %s = %s\n", base.study.seek.key.c_str(),

@@ -86,15 +86,14 @@ namespace fickcast
     }
   } // namespace
 
-  SeekOutcome run_seek(const CaseDescription &base, const SeekOptions &options, MPI_Comm communicator,
-                       const std::function<void(const SeekEvaluation &)> &on_evaluation)
+  SeekOutcome prepare_seek(const CaseDescription &base, const std::string &case_file,
+                           const std::vector<std::string> &base_overrides)
   {
     const StudySpec &spec = base.study;
     if (!spec.has_seek())
       throw InputError(base.file, "study.seek.key",
                        "expected a [study] section with seek.key, seek.low, seek.high, seek.result and seek.target, "
                        "found no seek.key");
-    const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(communicator);
     SeekOutcome outcome;
     outcome.key = spec.seek.key;
     outcome.result_name = spec.seek_result;
@@ -107,7 +106,48 @@ namespace fickcast
       if (r.name == outcome.result_name)
         outcome.result_unit = r.unit;
 
-    // The seek folder, complete or absent; rank 0 owns it, every rank learns its path.
+    // Events (a threshold or release level reached) may not happen within time.end; such a run
+    // counts as "later than time.end", which brackets a target before time.end.
+    const bool event = outcome.result_name.rfind("threshold.", 0) == 0 || outcome.result_name.rfind("release.", 0) == 0;
+    if (event && !(outcome.target < base.time.end))
+      {
+        const QuantityText target_text = split_quantity(spec.seek_target, false);
+        const double end = target_text.unit.empty()
+                             ? base.time.end
+                             : base.time.end / UnitSystem::instance().to_si(1.0, target_text.unit, outcome.result_unit);
+        throw InputError(spec.seek_origin, "study.seek.target",
+                         "expected a time before time.end (" + format_value(end, target_text.unit) + ") for " +
+                           outcome.result_name + ", found '" + spec.seek_target + "': lengthen time.end");
+      }
+
+    if (!case_file.empty())
+      for (const double end : {outcome.low, outcome.high})
+        {
+          const std::string value = format_value(end, outcome.parameter_unit);
+          std::vector<std::string> overrides = base_overrides;
+          for (const auto &o : parameter_overrides(base, outcome.key, value, spec.seek.origin))
+            overrides.push_back(o);
+          try
+            {
+              read_case(case_file, overrides);
+            }
+          catch (const InputError &error)
+            {
+              const std::string reason =
+                error.where() == "--set" ? error.key() + ": " + error.message() : std::string(error.what());
+              throw InputError(spec.seek.origin, "study.seek.key",
+                               "the case rejects " + outcome.key + " = '" + value + "': " + reason);
+            }
+        }
+    return outcome;
+  }
+
+  SeekOutcome run_seek(const CaseDescription &base, const SeekOptions &options, MPI_Comm communicator,
+                       const std::function<void(const SeekEvaluation &)> &on_evaluation)
+  {
+    const StudySpec &spec = base.study;
+    const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(communicator);
+    SeekOutcome outcome = prepare_seek(base);
     const bool event = outcome.result_name.rfind("threshold.", 0) == 0 || outcome.result_name.rfind("release.", 0) == 0;
     // Results in the target's unit as written, for messages.
     const QuantityText target_text = split_quantity(spec.seek_target, false);
@@ -120,14 +160,9 @@ namespace fickcast
                           target_text.unit);
     };
 
-    // Events (a threshold or release level reached) may not happen within time.end; such a run
-    // counts as "later than time.end", which brackets a target before time.end.
-    if (event && !(outcome.target < base.time.end))
-      throw InputError(spec.seek_origin, "study.seek.target",
-                       "expected a time before time.end (" + shown(base.time.end) + ") for " + outcome.result_name +
-                         ", found '" + spec.seek_target + "': lengthen time.end");
-
+    // The seek folder, complete or absent; rank 0 owns it, every rank learns its path.
     std::unique_ptr<ResultsFolder> folder;
+
     std::string path;
     collectively(communicator, [&] {
       if (rank == 0)

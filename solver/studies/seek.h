@@ -63,4 +63,15 @@ namespace fickcast
    */
   SeekOutcome run_seek(const CaseDescription &base, const SeekOptions &options, MPI_Comm communicator,
                        const std::function<void(const SeekEvaluation &)> &on_evaluation);
+
+  /**
+   * The checks run_seek makes before its first run, without running: the seek keys are all
+   * there, the range has consistent units, the key names a parameter the case has, the result
+   * exists and the target has its unit (and, for an event, lies before time.end). When
+   * @p case_file is given, the case is also read with the parameter at both ends of the range,
+   * so a value the case rejects shows now. Returns the outcome with key, range, result, unit and
+   * target filled in. Throws InputError.
+   */
+  SeekOutcome prepare_seek(const CaseDescription &base, const std::string &case_file = {},
+                           const std::vector<std::string> &base_overrides = {});
 } // namespace fickcast

@@ -126,10 +126,24 @@ liner "10 mm" "vary.region.clay.porosity = 0.3, 1.4" >bad_value.ini
 expect_code 2 "sweep with a value the case rejects" "$fickcast" sweep bad_value.ini --output x2
 grep -q "study.vary.region.clay.porosity" err.txt || fail "rejected value not attributed to its study key"
 [ -e x2 ] && fail "a rejected sweep created its folder"
+expect_code 2 "check of a study with a value the case rejects" "$fickcast" check bad_value.ini
+grep -q "study.vary.region.clay.porosity" err.txt || fail "check does not check the study's values"
+expect_code 0 "check of a sweep" "$fickcast" check grid.ini
+grep -q "would run 8 cases" out.txt || fail "check does not say what the sweep would run: $(tail -1 out.txt)"
+liner "10 mm" "seek.key = layer.clay.thickness
+seek.low = -0.1 m
+seek.high = 0.5 m
+seek.result = threshold.base
+seek.target = 5 yr" "end of clay" >negative.ini
+expect_code 2 "seek whose range starts at a negative thickness" "$fickcast" check negative.ini
+grep -q "study.seek.key" err.txt || fail "a range end the case rejects is not attributed to the seek: $(cat err.txt)"
+expect_code 2 "seek run whose range starts at a negative thickness" "$fickcast" seek negative.ini --output x5
+[ -e x5 ] && fail "a rejected seek created its folder"
 liner "10 mm" "vary.region.clay.porosity = 0.3
 exceed.threshold.bse = 30 yr" >bad_limit.ini
 expect_code 2 "sweep with a limit on an unknown result" "$fickcast" sweep bad_limit.ini --output x3
 grep -q "did you mean 'threshold.base'" err.txt || fail "unknown result gives no suggestion"
+expect_code 2 "check of a limit on an unknown result" "$fickcast" check bad_limit.ini
 expect_code 2 "sweep --vary without =" "$fickcast" sweep grid.ini --vary region.clay.porosity
 liner "10 mm" "seek.key = layer.clay.thickness
 seek.low = 0.3 m
