@@ -2,6 +2,7 @@
 
 #include "case/input_error.h"
 #include "geometry/layered_mesh.h"
+#include "geometry/msh_check.h"
 
 #include <deal.II/distributed/tria.h>
 #include <deal.II/grid/grid_in.h>
@@ -16,6 +17,7 @@ namespace fickcast
   void read_mesh_file(dealii::Triangulation<dim> &triangulation, const GeometrySpec &geometry)
   {
     const std::string &file = geometry.mesh_file;
+    check_msh_structure(file); // deal.II's reader trusts counts and references
     dealii::Triangulation<dim> serial;
     try
       {
