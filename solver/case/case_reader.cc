@@ -770,6 +770,9 @@ namespace fickcast
 
   CaseDescription read_case(const std::string &path, const std::vector<std::string> &overrides)
   {
+    std::error_code ignored;
+    if (std::filesystem::is_directory(path, ignored))
+      throw InputError(path, "", "expected an INI-style case file, found a folder");
     std::ifstream in(path, std::ios::binary);
     if (!in)
       throw InputError(path, "", "cannot open the case file (expected a readable INI-style text file)");

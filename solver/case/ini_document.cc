@@ -7,6 +7,7 @@
 
 #include <algorithm>
 #include <cctype>
+#include <filesystem>
 #include <fstream>
 #include <map>
 #include <sstream>
@@ -80,6 +81,9 @@ namespace fickcast
 
   IniDocument IniDocument::read(const std::string &path)
   {
+    std::error_code ignored;
+    if (std::filesystem::is_directory(path, ignored))
+      throw InputError(path, "", "expected an INI-style case file, found a folder");
     std::ifstream in(path, std::ios::binary);
     if (!in)
       throw InputError(path, "", "cannot open the case file (expected a readable INI-style text file)");

@@ -3,6 +3,7 @@
 #include "case/input_error.h"
 
 #include <algorithm>
+#include <filesystem>
 #include <fstream>
 #include <sstream>
 
@@ -22,6 +23,9 @@ namespace fickcast
   MeshFileInfo read_mesh_file_info(const std::string &path)
   {
     const std::string key = "geometry.mesh";
+    std::error_code ignored;
+    if (std::filesystem::is_directory(path, ignored))
+      throw InputError(path, key, "expected a Gmsh .msh file, found a folder");
     std::ifstream in(path, std::ios::binary);
     if (!in)
       throw InputError(path, key, "cannot open the mesh file (expected a Gmsh .msh file, format 2.2 or 4.1)");

@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <filesystem>
 #include <fstream>
 #include <regex>
 
@@ -47,6 +48,9 @@ namespace fickcast
 
   TimeTable read_time_table(const std::string &path, const std::string &si_unit)
   {
+    std::error_code ignored;
+    if (std::filesystem::is_directory(path, ignored))
+      throw InputError(path, "", "expected a CSV table 'time [unit], value [unit]', found a folder");
     std::ifstream in(path);
     if (!in)
       throw InputError(path, "", "cannot open the table (expected a CSV file 'time [unit], value [unit]')");

@@ -29,6 +29,8 @@ grep -q "did you mean 'run'" "$scratch/err.txt" || fail "unknown verb gives no s
 expect_code 2 "missing case file argument" "$fickcast" run
 expect_code 2 "case file that does not exist" "$fickcast" run "$scratch/nowhere.ini"
 grep -q "nowhere.ini" "$scratch/err.txt" || fail "missing file not named"
+expect_code 2 "case file that is a folder" "$fickcast" run "$scratch"
+grep -q "found a folder" "$scratch/err.txt" || fail "a folder given as the case file is not named as such"
 expect_code 2 "unknown flag" "$fickcast" run "$case_file" --frobnicate
 expect_code 2 "--set without =" "$fickcast" check "$case_file" --set time.end
 grep -q -- "--set" "$scratch/err.txt" || fail "bad --set not attributed to --set"
