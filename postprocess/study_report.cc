@@ -6,6 +6,8 @@
 #include "study_plots.h"
 #include "time_units.h"
 
+#include <algorithm>
+#include <cmath>
 #include <filesystem>
 
 namespace fickcast::post
@@ -73,17 +75,29 @@ namespace fickcast::post
     std::vector<std::vector<std::string>> stats;
     for (const std::size_t r : study.results)
       {
-        const auto v = study.result_values(r);
+        auto v = study.result_values(r);
         std::size_t n = 0, not_reached = 0;
+        double largest = 0;
         for (const double x : v)
           {
             n += std::isnan(x) ? 0 : 1;
             not_reached += std::isinf(x) ? 1 : 0;
+            if (std::isfinite(x))
+              largest = std::max(largest, std::abs(x));
+          }
+        // Times in a readable unit (years, days, hours), as in the plots.
+        std::string unit = t.units()[r];
+        if (unit == "s")
+          {
+            const TimeUnit readable = readable_time_unit(largest);
+            for (double &x : v)
+              x /= readable.seconds;
+            unit = readable.symbol;
           }
         const auto show = [](const double x) {
           return std::isinf(x) ? std::string("not reached") : std::isnan(x) ? std::string("-") : format_number(x);
         };
-        stats.push_back({t.names()[r], t.units()[r],
+        stats.push_back({t.names()[r], unit,
                          std::to_string(n) + (not_reached ? " (" + std::to_string(not_reached) + " not reached)" : ""),
                          show(finite_mean(v)), show(sample_quantile(v, 0.05)), show(sample_quantile(v, 0.5)),
                          show(sample_quantile(v, 0.95)), show(sample_quantile(v, 0)), show(sample_quantile(v, 1))});
