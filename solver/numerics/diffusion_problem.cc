@@ -423,24 +423,92 @@ namespace fickcast
     std::vector<ScalarFunction> initial;
     for (const RegionSpec *region : regions_)
       initial.emplace_back(region->initial ? *region->initial : description_.initial);
+    // The value each cell's region gives its support point i.
+    const auto region_value = [&](const auto &cell, const unsigned int i) {
+      const RegionSpec &region = *regions_[cell->material_id()];
+      const auto &p = fe_values.quadrature_point(i);
+      double c = initial[cell->material_id()](p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, 0.0);
+      if (region.has_dispersed_phase() && region.loading > 0)
+        c = std::min(region.loading / (region.porosity * region.retardation), region.solubility);
+      return c / region.partition;
+    };
+
+    // A node shared by regions with different initial values takes their mean weighted by the
+    // capacity (porosity x retardation x partition) times the measure (with the radial weight)
+    // of each region's cells around it, so the ramp that replaces the jump adds to one side the
+    // amount it takes from the other; the same on any number
+    // of ranks, whatever the cell order. Owned and ghost cells are visited, so every region
+    // touching an owned node is seen.
+    struct Candidate
+    {
+      double value = 0, weight = 0;
+    };
+    std::map<types::global_dof_index, std::map<types::material_id, Candidate>> candidates;
     for (const auto &cell : dof_handler_.active_cell_iterators())
       {
-        if (!cell->is_locally_owned())
+        if (!cell->is_locally_owned() && !cell->is_ghost())
           continue;
         fe_values.reinit(cell);
         cell->get_dof_indices(dofs);
-        const RegionSpec &region = *regions_[cell->material_id()];
+        const RegionSpec &spec = *regions_[cell->material_id()];
+        const double weight =
+          cell->measure() * coordinate_weight(cell->center()) * spec.porosity * spec.retardation * spec.partition;
         for (unsigned int i = 0; i < dofs.size(); ++i)
           if (owned_.is_element(dofs[i]))
             {
-              const auto &p = fe_values.quadrature_point(i);
-              double c = initial[cell->material_id()](p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, 0.0);
-              if (region.has_dispersed_phase() && region.loading > 0)
-                c = std::min(region.loading / (region.porosity * region.retardation), region.solubility);
-              u[dofs[i]] = c / region.partition;
+              Candidate &c = candidates[dofs[i]][cell->material_id()];
+              c.value = region_value(cell, i);
+              c.weight += weight;
             }
       }
+    for (const auto &[dof, values] : candidates)
+      {
+        double sum = 0, weights = 0;
+        for (const auto &[region, c] : values)
+          {
+            sum += c.weight * c.value;
+            weights += c.weight;
+          }
+        u[dof] = values.size() == 1 ? values.begin()->second.value : sum / weights;
+      }
     u.compress(VectorOperation::insert);
+
+    // Higher-degree elements: a cell whose vertex values differ from its own region's (it
+    // borders a jump of the initial values) gets the multilinear interpolant of its vertex
+    // values at its other nodes, so the step is a monotone ramp across that cell instead of a
+    // polynomial that over- and undershoots.
+    if (fe_.degree > 1)
+      {
+        const Vector ghosted = make_ghosted(u);
+        const unsigned int n_vertices = GeometryInfo<dim>::vertices_per_cell;
+        const auto &unit_points = fe_.get_unit_support_points();
+        double scale = 0;
+        for (const auto &[dof, values] : candidates)
+          for (const auto &[region, c] : values)
+            scale = std::max(scale, std::abs(c.value));
+        scale = Utilities::MPI::max(scale, communicator_);
+        for (const auto &cell : dof_handler_.active_cell_iterators())
+          {
+            if (!cell->is_locally_owned() && !cell->is_ghost())
+              continue;
+            fe_values.reinit(cell);
+            cell->get_dof_indices(dofs);
+            bool borders_jump = false;
+            for (unsigned int v = 0; v < n_vertices; ++v)
+              borders_jump = borders_jump || std::abs(ghosted[dofs[v]] - region_value(cell, v)) > 1e-12 * scale;
+            if (!borders_jump)
+              continue;
+            for (unsigned int i = n_vertices; i < dofs.size(); ++i)
+              if (owned_.is_element(dofs[i]))
+                {
+                  double value = 0;
+                  for (unsigned int v = 0; v < n_vertices; ++v)
+                    value += GeometryInfo<dim>::d_linear_shape_function(unit_points[i], v) * ghosted[dofs[v]];
+                  u[dofs[i]] = value;
+                }
+          }
+        u.compress(VectorOperation::insert);
+      }
 
     // Undissolved reserve: the loading above what the pores hold at saturation, lumped to nodes.
     if (dispersed_)

@@ -17,8 +17,10 @@ namespace fickcast::post
   namespace
   {
     /// Two regions with different capacities (amount = porosity x retardation x partition x u).
-    /// Node coordinates are multiples of 1/64 m, exact in the VTU's float32 coordinates, so the
-    /// comparison is limited only by the float32 field values (relative 6e-8 each, averaging out).
+    /// Node coordinates are multiples of 1/256 m, exact in the VTU's float32 coordinates, so the
+    /// comparison is limited only by the float32 field values (relative 6e-8 each, averaging out
+    /// over the cells: with 1/64 m cells the rounding alone reached 1.2e-8 relative at one output
+    /// time, hence the finer mesh for the 1e-8 check).
     std::string two_region_case(const unsigned int degree)
     {
       return R"(
@@ -26,7 +28,7 @@ namespace fickcast::post
 title = two regions for integrals
 [geometry]
 layers = upper 0.5 m, lower 0.5 m
-cell_size = 0.015625 m
+cell_size = 0.00390625 m
 [region.upper]
 diffusivity = 1e-2 m2/s
 porosity = 0.5
@@ -74,19 +76,24 @@ times = 1 s, 2 s
           method = integrals.method;
           ASSERT_EQ(integrals.regions.size(), 2u);
           double total = 0;
+          // Relative to the amount in the domain: a region holding a tiny part of it (the upper
+          // one at t = 0 holds only the ramp across the interface) cannot be matched to 1e-8 of
+          // its own content by float32 values.
+          const double amount = table.numbers("amount.total")[row];
           for (std::size_t region = 0; region < 2; ++region)
             {
               const double expected = table.numbers("amount." + integrals.regions[region])[row];
               const double found = integrals.values[0][region];
               total += found;
-              worst = std::max(worst, std::abs(found - expected) / std::abs(expected));
-              EXPECT_NEAR(found, expected, tolerance * std::abs(expected))
+              worst = std::max(worst, std::abs(found - expected) / std::abs(amount));
+              EXPECT_NEAR(found, expected, tolerance * std::abs(amount))
                 << integrals.regions[region] << " at t = " << output.time;
               EXPECT_NEAR(integrals.measure[region], 0.5, 1e-12); // exact in float32 coordinates
             }
           EXPECT_NEAR(total, table.numbers("amount.total")[row], tolerance * table.numbers("amount.total")[row]);
         }
-      std::printf("degree %u: region integrals against series.csv amounts, largest relative difference %.3e (%s)\n",
+      std::printf("degree %u: region integrals against series.csv amounts, largest difference %.3e of the amount in "
+                  "the domain (%s)\n",
                   summary.degree, worst, method.c_str());
     }
   } // namespace

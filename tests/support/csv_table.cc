@@ -1,6 +1,7 @@
 #include "csv_table.h"
 
 #include <cmath>
+#include <cstdlib>
 #include <fstream>
 #include <sstream>
 #include <stdexcept>
@@ -49,7 +50,13 @@ namespace fickcast::testing
           throw std::runtime_error(path + ": row with " + std::to_string(cells.size()) + " cells, header has " +
                                    std::to_string(table.names.size()));
         for (std::size_t i = 0; i < cells.size(); ++i)
-          table.columns[table.names[i]].push_back(cells[i].empty() ? std::nan("") : std::stod(cells[i]));
+          {
+            // Text columns (a line's name in profiles.csv) read as NaN.
+            char *end = nullptr;
+            const double v = std::strtod(cells[i].c_str(), &end);
+            const bool number = !cells[i].empty() && end != cells[i].c_str() && *end == '\0';
+            table.columns[table.names[i]].push_back(number ? v : std::nan(""));
+          }
       }
     return table;
   }

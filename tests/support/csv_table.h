@@ -7,7 +7,8 @@
 
 namespace fickcast::testing
 {
-  /// Columns by name (the header name without its `[unit]`), values as numbers (NaN if empty).
+  /// Columns by name (the header name without its `[unit]`), values as numbers (NaN if empty or
+  /// text).
   struct CsvTable
   {
     std::vector<std::string> names;
