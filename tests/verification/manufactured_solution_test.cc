@@ -95,6 +95,8 @@ namespace fickcast::testing
     }
   } // namespace
 
+  // Source: the manufactured solution and its check values of ../shared/references/REFERENCES.md
+  // section 11 (procedure of Roache 1998 and Salari & Knupp, SAND2000-1444).
   TEST(ManufacturedSolution, SourceExpressionMatchesReferenceValues)
   {
     // REFERENCES sec. 11 check values of f = u_t - div(D grad u) (computed in 30 digits).
@@ -109,6 +111,8 @@ namespace fickcast::testing
   {
   };
 
+  // Source: L2 error O(h^(p+1)) for Lagrange elements of degree p (Thomee, Galerkin Finite
+  // Element Methods for Parabolic Problems, 2nd ed. 2006), on the REFERENCES section 11 solution.
   TEST_P(SpatialOrder, L2ErrorFallsAsHToThePPlusOne)
   {
     const unsigned int p = GetParam();
@@ -150,7 +154,8 @@ namespace fickcast::testing
   {
   };
 
-  // REFERENCES sec. 11, spatially exact MMS: u = exp(-t)(1 + x + 2y + xy) lies in the Q1 space,
+  // Source: scheme orders 1 (implicit Euler) and 2 (Crank-Nicolson, BDF2) from Hairer & Wanner,
+  // Solving Ordinary Differential Equations II, 1996. REFERENCES sec. 11, spatially exact MMS: u = exp(-t)(1 + x + 2y + xy) lies in the Q1 space,
   // D = 1 + x/2 + y/4, f = -exp(-t)(2 + 1.25x + 2.5y + xy); only the time error remains.
   TEST_P(TemporalOrder, ErrorFallsWithTheSchemeOrder)
   {

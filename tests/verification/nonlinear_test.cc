@@ -54,6 +54,9 @@ namespace fickcast::testing
     }
   } // namespace
 
+  // Source: Crank, The Mathematics of Diffusion, 2nd ed. 1975, ch. 7 (Boltzmann transformation:
+  // c depends on x / sqrt(t) alone for a constant surface value and any D(c)); grid order 2 for
+  // Q1 elements from Thomee 2006.
   TEST(ConcentrationDependent, BoltzmannSimilarityAndGridConvergence)
   {
     const Uptake fine = run_uptake(0.01, "newton", 2);

@@ -6,8 +6,9 @@
 
 namespace fickcast::testing
 {
-  // Steady flux through layers in series: J = (C_top - C_bottom) / sum(l_i / D_i) (common
-  // practice; Crank 1975 ch. 4, composite membranes). l1 = 1 m, D1 = 1 m2/s; l2 = 2 m,
+  // Steady flux through layers in series: J = (C_top - C_bottom) / sum(l_i / D_i).
+  // Source: Crank, The Mathematics of Diffusion, 2nd ed. 1975, ch. 4 (composite membranes);
+  // the series-resistance form itself is common practice. l1 = 1 m, D1 = 1 m2/s; l2 = 2 m,
   // D2 = 0.25 m2/s: J = 1 / (1 + 8) = 1/9 mol/(m2 s). Run to t = 1000 s, about 50 decay times of
   // the slowest mode, so the transient is below round-off.
   TEST(SteadyLayers, FluxEqualsSeriesResistanceValue)
