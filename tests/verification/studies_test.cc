@@ -39,6 +39,19 @@ namespace fickcast::testing
     {
       return seek_file(write_case(text, name));
     }
+    /// A membrane between a fixed top concentration and a sink, sized by seek for a time lag
+    /// of 400 s between @p low and @p high (cell size and run length as given).
+    std::string membrane_seek_case(const std::string &title, const std::string &cell, const std::string &end,
+                                   const std::string &low, const std::string &high, const std::string &extra)
+    {
+      return "[case]\ntitle = " + title + "\n[geometry]\nlayers = membrane 100 um\ncell_size = " + cell +
+             "\n[region.membrane]\ndiffusivity = 1e-11 m2/s\n[boundary.top]\ntype = concentration\nvalue = 5 "
+             "mol/m3\n[boundary.bottom]\ntype = concentration\nvalue = 0 mol/m3\n[time]\nend = " +
+             end +
+             "\n[output]\nfields = false\ntime_lag.cell = bottom\n[study]\nseek.key = layer.membrane.thickness\n"
+             "seek.low = " +
+             low + "\nseek.high = " + high + "\nseek.result = time_lag.cell\nseek.target = 400 s\n" + extra;
+    }
   } // namespace
 
   // Daynes-Barrer time lag of a membrane, t_L = l^2 / (6 D) (Crank 1975, The Mathematics of
@@ -46,33 +59,8 @@ namespace fickcast::testing
   // D = 1e-11 m2/s is l = sqrt(6 D t_L) = 154.919 um. Required: within 0.2 %.
   TEST(Seek, MembraneThicknessForATimeLag)
   {
-    const std::string text = R"(
-[case]
-title = membrane sized for a time lag
-[geometry]
-layers = membrane 100 um
-cell_size = 2 um
-[region.membrane]
-diffusivity = 1e-11 m2/s
-[boundary.top]
-type = concentration
-value = 5 mol/m3
-[boundary.bottom]
-type = concentration
-value = 0 mol/m3
-[time]
-end = 3 h
-[output]
-fields = false
-time_lag.cell = bottom
-[study]
-seek.key = layer.membrane.thickness
-seek.low = 50 um
-seek.high = 300 um
-seek.result = time_lag.cell
-seek.target = 400 s
-seek.tolerance = 1e-5
-)";
+    const std::string text =
+      membrane_seek_case("membrane sized for a time lag", "2 um", "3 h", "50 um", "300 um", "seek.tolerance = 1e-5\n");
     const SeekOutcome outcome = seek(text, "seek_membrane");
     const double exact = std::sqrt(6 * 1e-11 * 400) * 1e6; // um
     std::printf("seek: membrane %.9g um (exact %.9g um, error %.2e) after %zu runs; lag there %.9g s\n", outcome.value,
@@ -131,32 +119,7 @@ seek.target = 4.5303030303 s
   // result at both ends; nothing is left behind.
   TEST(Seek, RangeThatDoesNotBracketIsRejectedWithBothEnds)
   {
-    const std::string text = R"(
-[case]
-title = unreachable lag
-[geometry]
-layers = membrane 100 um
-cell_size = 5 um
-[region.membrane]
-diffusivity = 1e-11 m2/s
-[boundary.top]
-type = concentration
-value = 5 mol/m3
-[boundary.bottom]
-type = concentration
-value = 0 mol/m3
-[time]
-end = 1 h
-[output]
-fields = false
-time_lag.cell = bottom
-[study]
-seek.key = layer.membrane.thickness
-seek.low = 50 um
-seek.high = 100 um
-seek.result = time_lag.cell
-seek.target = 400 s
-)";
+    const std::string text = membrane_seek_case("unreachable lag", "5 um", "1 h", "50 um", "100 um", "");
     const std::string file = write_case(text, "seek_no_bracket");
     try
       {
