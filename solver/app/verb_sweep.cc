@@ -54,8 +54,7 @@ namespace fickcast
           line = "     ";
           for (const auto &r : summary.results)
             {
-              const bool event = r.name.rfind("threshold.", 0) == 0 || r.name.rfind("release.", 0) == 0;
-              line += " " + r.name + " " + units.result(r.value, r.unit, event) + ";";
+              line += " " + r.name + " " + units.result(r.value, r.unit, is_event_result(r.name)) + ";";
             }
           std::printf("%s\n", line.c_str());
         }

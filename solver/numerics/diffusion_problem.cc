@@ -439,38 +439,63 @@ namespace fickcast
     // amount it takes from the other; the same on any number
     // of ranks, whatever the cell order. Owned and ghost cells are visited, so every region
     // touching an owned node is seen.
+    // Most nodes see one region: kept in vectors; only nodes where regions meet go to a map.
     struct Candidate
     {
       double value = 0, weight = 0;
     };
-    std::map<types::global_dof_index, std::map<types::material_id, Candidate>> candidates;
+    const auto none = numbers::invalid_material_id;
+    std::vector<types::material_id> first_region(owned_.n_elements(), none);
+    std::vector<Candidate> first(owned_.n_elements());
+    std::map<types::global_dof_index, std::map<types::material_id, Candidate>> shared;
     for (const auto &cell : dof_handler_.active_cell_iterators())
       {
         if (!cell->is_locally_owned() && !cell->is_ghost())
           continue;
         fe_values.reinit(cell);
         cell->get_dof_indices(dofs);
-        const RegionSpec &spec = *regions_[cell->material_id()];
+        const types::material_id id = cell->material_id();
+        const RegionSpec &spec = *regions_[id];
         const double weight =
           cell->measure() * coordinate_weight(cell->center()) * spec.porosity * spec.retardation * spec.partition;
         for (unsigned int i = 0; i < dofs.size(); ++i)
           if (owned_.is_element(dofs[i]))
             {
-              Candidate &c = candidates[dofs[i]][cell->material_id()];
-              c.value = region_value(cell, i);
-              c.weight += weight;
+              const auto k = owned_.index_within_set(dofs[i]);
+              if (first_region[k] == none)
+                {
+                  first_region[k] = id;
+                  first[k] = {region_value(cell, i), 0.0};
+                }
+              if (first_region[k] == id)
+                first[k].weight += weight;
+              else
+                {
+                  Candidate &c = shared[dofs[i]][id];
+                  c.value = region_value(cell, i);
+                  c.weight += weight;
+                }
             }
       }
-    for (const auto &[dof, values] : candidates)
-      {
-        double sum = 0, weights = 0;
-        for (const auto &[region, c] : values)
-          {
-            sum += c.weight * c.value;
-            weights += c.weight;
-          }
-        u[dof] = values.size() == 1 ? values.begin()->second.value : sum / weights;
-      }
+    double scale = 0;
+    for (std::size_t k = 0; k < first.size(); ++k)
+      if (first_region[k] != none)
+        {
+          const auto dof = owned_.nth_index_in_set(k);
+          u[dof] = first[k].value;
+          scale = std::max(scale, std::abs(first[k].value));
+          const auto other = shared.find(dof);
+          if (other == shared.end())
+            continue;
+          double sum = first[k].weight * first[k].value, weights = first[k].weight;
+          for (const auto &[region, c] : other->second)
+            {
+              sum += c.weight * c.value;
+              weights += c.weight;
+              scale = std::max(scale, std::abs(c.value));
+            }
+          u[dof] = sum / weights;
+        }
     u.compress(VectorOperation::insert);
 
     // Higher-degree elements: a cell whose vertex values differ from its own region's (it
@@ -482,10 +507,6 @@ namespace fickcast
         const Vector ghosted = make_ghosted(u);
         const unsigned int n_vertices = GeometryInfo<dim>::vertices_per_cell;
         const auto &unit_points = fe_.get_unit_support_points();
-        double scale = 0;
-        for (const auto &[dof, values] : candidates)
-          for (const auto &[region, c] : values)
-            scale = std::max(scale, std::abs(c.value));
         scale = Utilities::MPI::max(scale, communicator_);
         for (const auto &cell : dof_handler_.active_cell_iterators())
           {

@@ -60,4 +60,8 @@ namespace fickcast
                            "': " + error.what());
       }
   }
+  bool is_event_result(const std::string &name)
+  {
+    return name.rfind("threshold.", 0) == 0 || name.rfind("release.", 0) == 0;
+  }
 } // namespace fickcast

@@ -15,6 +15,10 @@ namespace fickcast
     std::string unit; ///< e.g. s, m, kg/m3, 1
   };
 
+  /// True for results that are times of events (threshold.NAME, release.NAME): absent when
+  /// the event did not happen within the run, and then later than any time.
+  bool is_event_result(const std::string &name);
+
   /// The named results the case's [output] section asks for (as summary.json names them).
   std::vector<ResultName> expected_results(const CaseDescription &description);
 

@@ -108,7 +108,7 @@ namespace fickcast
 
     // Events (a threshold or release level reached) may not happen within time.end; such a run
     // counts as "later than time.end", which brackets a target before time.end.
-    const bool event = outcome.result_name.rfind("threshold.", 0) == 0 || outcome.result_name.rfind("release.", 0) == 0;
+    const bool event = is_event_result(outcome.result_name);
     if (event && !(outcome.target < base.time.end))
       {
         const QuantityText target_text = split_quantity(spec.seek_target, false);
@@ -133,10 +133,8 @@ namespace fickcast
             }
           catch (const InputError &error)
             {
-              const std::string reason =
-                error.where() == "--set" ? error.key() + ": " + error.message() : std::string(error.what());
               throw InputError(spec.seek.origin, "study.seek.key",
-                               "the case rejects " + outcome.key + " = '" + value + "': " + reason);
+                               "the case rejects " + outcome.key + " = '" + value + "': " + rejection_reason(error));
             }
         }
     return outcome;
@@ -148,7 +146,7 @@ namespace fickcast
     const StudySpec &spec = base.study;
     const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(communicator);
     SeekOutcome outcome = prepare_seek(base);
-    const bool event = outcome.result_name.rfind("threshold.", 0) == 0 || outcome.result_name.rfind("release.", 0) == 0;
+    const bool event = is_event_result(outcome.result_name);
     // Results in the target's unit as written, for messages.
     const QuantityText target_text = split_quantity(spec.seek_target, false);
     const auto shown = [&](const double value) {

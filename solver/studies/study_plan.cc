@@ -172,9 +172,8 @@ namespace fickcast
       catch (const InputError &error)
         {
           // The offending value came from the study, not from --set: name the key alone.
-          const std::string reason =
-            error.where() == "--set" ? error.key() + ": " + error.message() : std::string(error.what());
-          throw InputError(p.origin, study_key, "the case rejects " + p.key + " = '" + value + "': " + reason);
+          throw InputError(p.origin, study_key,
+                           "the case rejects " + p.key + " = '" + value + "': " + rejection_reason(error));
         }
     };
     for (const auto &p : base.study.vary)
@@ -193,6 +192,11 @@ namespace fickcast
           }
         check(p, "study.sample." + p.key, format_number(d.median(), d.unit));
       }
+  }
+
+  std::string rejection_reason(const InputError &error)
+  {
+    return error.where() == "--set" ? error.key() + ": " + error.message() : std::string(error.what());
   }
 
   std::string plan_fingerprint(const std::vector<StudyCase> &cases, const std::vector<std::string> &base_overrides)

@@ -2,6 +2,7 @@
 #pragma once
 
 #include "case/case_description.h"
+#include "case/input_error.h"
 
 #include <string>
 #include <vector>
@@ -50,6 +51,13 @@ namespace fickcast
    */
   void check_study_values(const CaseDescription &base, const std::string &case_file,
                           const std::vector<std::string> &base_overrides);
+
+  /**
+   * Why the case rejected a study's value, for a message: the key and explanation alone when
+   * the value came in as a --set override (the study's own way of applying it), else the whole
+   * error.
+   */
+  std::string rejection_reason(const InputError &error);
 
   /// A stable text of the plan (ids and overrides), to recognise a study when it is resumed.
   std::string plan_fingerprint(const std::vector<StudyCase> &cases, const std::vector<std::string> &base_overrides);

@@ -137,9 +137,8 @@ namespace fickcast
           }
         catch (const InputError &error)
           {
-            // The offending value came from the study, not from --set: name the key alone.
             event.status = "input error";
-            event.message = error.where() == "--set" ? error.key() + ": " + error.message() : error.what();
+            event.message = rejection_reason(error);
             write_input_error(folder, event.message);
           }
         catch (const std::exception &error)

@@ -5,6 +5,7 @@
 #include "results/json.h"
 #include "results/summary.h"
 #include "studies/case_summary.h"
+#include "studies/result_names.h"
 #include "studies/study_runner.h"
 
 #include <algorithm>
@@ -127,7 +128,7 @@ namespace fickcast
           {
             // An event never reached within time.end (threshold, release) counts as later than
             // any time: it enters the percentiles as +infinity and leaves the mean undefined.
-            const bool event = name.rfind("threshold.", 0) == 0 || name.rfind("release.", 0) == 0;
+            const bool event = is_event_result(name);
             std::vector<double> values;
             std::size_t not_reached = 0;
             for (const auto &s : summaries)

@@ -155,8 +155,8 @@ namespace fickcast::testing
   };
 
   // Source: scheme orders 1 (implicit Euler) and 2 (Crank-Nicolson, BDF2) from Hairer & Wanner,
-  // Solving Ordinary Differential Equations II, 1996. REFERENCES sec. 11, spatially exact MMS: u = exp(-t)(1 + x + 2y + xy) lies in the Q1 space,
-  // D = 1 + x/2 + y/4, f = -exp(-t)(2 + 1.25x + 2.5y + xy); only the time error remains.
+  // Solving Ordinary Differential Equations II, 1996. REFERENCES sec. 11, spatially exact MMS: u = exp(-t)(1 + x + 2y +
+  // xy) lies in the Q1 space, D = 1 + x/2 + y/4, f = -exp(-t)(2 + 1.25x + 2.5y + xy); only the time error remains.
   TEST_P(TemporalOrder, ErrorFallsWithTheSchemeOrder)
   {
     const TimeCase time_case = GetParam();
