@@ -1,4 +1,4 @@
-// Reading the CSV tables of a results folder or a study (series.csv, profiles.csv, study.csv).
+// Reading the CSV tables of a results folder or a study (series.csv, profiles.csv, sweep.csv).
 #pragma once
 
 #include <cstddef>

@@ -23,7 +23,7 @@ namespace fickcast::post
     /// Markers drawn as text (so the legend shows the same glyph); 8 of them against 7 colours.
     constexpr std::array<const char *, 8> markers{"○", "×", "□", "△", "+", "◇", "▽", "∗"};
     constexpr int colour_base = 8; // cmap0 indices 8.. hold the palette
-    constexpr int grid_colour = 2, reference_colour = 3;
+    constexpr int grid_colour = 2, reference_colour = 3, frame_colour = 4;
 
     std::mutex plplot_mutex; // PLplot keeps global state
 
@@ -102,7 +102,8 @@ namespace fickcast::post
       plscolbg(255, 255, 255);
       plscmap0n(colour_base + static_cast<PLINT>(palette.size()));
       plscol0(1, 0, 0, 0);
-      plscol0(grid_colour, 225, 225, 225);
+      plscol0(grid_colour, 232, 232, 232);
+      plscol0(frame_colour, 150, 150, 150);
       plscol0(reference_colour, 110, 110, 110);
       for (std::size_t i = 0; i < palette.size(); ++i)
         plscol0(colour_base + static_cast<PLINT>(i), palette[i][0], palette[i][1], palette[i][2]);
@@ -123,22 +124,58 @@ namespace fickcast::post
         yr.min = std::max(yr.min, std::floor(yr.max) - 6.0); // six decades below the largest value
       xr.pad(0.02);
       yr.pad(0.05);
+      // One power of ten per axis, written into the label; the drawn numbers stay short.
+      const int x_exponent = axis_exponent(xr.min, xr.max);
+      const int y_exponent = spec.log_y ? 0 : axis_exponent(yr.min, yr.max);
+      const double x_scale = std::pow(10.0, -x_exponent), y_scale = std::pow(10.0, -y_exponent);
+      xr.min *= x_scale;
+      xr.max *= x_scale;
+      yr.min *= y_scale;
+      yr.max *= y_scale;
 
-      // Room on the right for the legend, from its longest label (about 0.0105 of the width a character).
-      std::size_t longest = 0;
+      // The legend goes below the frame, in up to four columns; the frame keeps the full width.
+      std::size_t n_entries = spec.curves.size(), longest = 0;
       for (const auto &curve : spec.curves)
         longest = std::max(longest, curve.label.size());
-      const double right = std::clamp(0.95 - (0.10 + 0.0105 * static_cast<double>(longest)), 0.50, 0.80);
-      plvpor(0.13, right, 0.12, 0.87);
+      const PLINT n_columns =
+        static_cast<PLINT>(std::max<std::size_t>(1, std::min<std::size_t>({n_entries, 4, 90 / (longest + 8)})));
+      const PLINT n_rows =
+        static_cast<PLINT>((n_entries + static_cast<std::size_t>(n_columns) - 1) / static_cast<std::size_t>(n_columns));
+      const double legend_room = 0.045 * n_rows;
+      const double bottom = 0.13 + legend_room;
+      plvpor(0.135, 0.96, bottom, 0.89);
       plwind(xr.min, xr.max, yr.min, yr.max);
-      const std::string ybox = spec.log_y ? "bcnstvl" : "bcnstv";
+      plsxax(5, 0);
+      plsyax(5, 0);
       plcol0(grid_colour);
       plwidth(1);
       plbox("g", 0, 0, "g", 0, 0);
+      plcol0(frame_colour);
+      plbox("bc", 0, 0, "bc", 0, 0); // the frame, no ticks
       plcol0(1);
-      plbox("bcnst", 0, 0, ybox.c_str(), 0, 0);
-      pllab(spec.x_label.c_str(), spec.y_label.c_str(), "");
-      plmtex("t", 2.0, 0.0, 0.0, spec.title.c_str());
+      plbox("bnsti", 0, 0, spec.log_y ? "bnstvil" : "bnstvi", 0, 0); // ticks out, left and bottom only
+      plmtex("b", 3.2, 0.5, 0.5, label_with_exponent(spec.x_label, x_exponent).c_str());
+      plmtex("l", 5.0, 0.5, 0.5, label_with_exponent(spec.y_label, y_exponent).c_str());
+      const std::string title_line = spec.subject.empty() ? spec.title : spec.title + "  \u2013  " + spec.subject;
+      // One line: a long case title shrinks the line's characters rather than running off the page.
+      // About 58 characters fit at full size (measured on the 1000 px page); beyond 116 (at the
+      // smallest size) the line is cut. Characters, not bytes: UTF-8 continuation bytes not counted.
+      std::string shown_title = title_line;
+      auto characters = [](const std::string &text) {
+        return static_cast<std::size_t>(std::count_if(
+          text.begin(), text.end(), [](const char c) { return (static_cast<unsigned char>(c) & 0xC0) != 0x80; }));
+      };
+      if (characters(shown_title) > 116)
+        {
+          std::size_t end = 0;
+          for (std::size_t n = 0; end < shown_title.size() && n <= 113; ++end)
+            n += (static_cast<unsigned char>(shown_title[end]) & 0xC0) != 0x80 ? 1 : 0;
+          shown_title = shown_title.substr(0, end - 1) + "...";
+        }
+      const double fits = 58.0 / static_cast<double>(std::max<std::size_t>(characters(shown_title), 1));
+      plschr(0, 1.15 * std::clamp(fits, 0.5, 1.0));
+      plmtex("t", 1.3, 0.0, 0.0, shown_title.c_str());
+      plschr(0, 1.15);
 
       std::vector<PLINT> opts, line_colours, line_styles, symbol_colours, symbol_numbers, text_colours;
       std::vector<PLFLT> line_widths, symbol_scales;
@@ -147,9 +184,11 @@ namespace fickcast::post
       for (const auto &curve : spec.curves)
         {
           std::vector<double> x(curve.x), y(curve.y.size());
+          for (auto &v : x)
+            v *= x_scale;
           for (std::size_t i = 0; i < y.size(); ++i)
             {
-              y[i] = value_of(curve.y[i], spec.log_y);
+              y[i] = value_of(curve.y[i], spec.log_y) * y_scale;
               if (spec.log_y && y[i] < yr.min)
                 y[i] = std::numeric_limits<double>::quiet_NaN(); // below the axis: left out
             }
@@ -220,15 +259,38 @@ namespace fickcast::post
       PLFLT legend_width = 0, legend_height = 0;
       const PLINT n = static_cast<PLINT>(texts.size());
       plschr(0, 0.95);
-      pllegend(&legend_width, &legend_height, PL_LEGEND_BACKGROUND | PL_LEGEND_BOUNDING_BOX,
-               PL_POSITION_RIGHT | PL_POSITION_OUTSIDE, 0.02, 0.0, 0.06, 0, 1, 1, 0, 0, n, opts.data(), 1.0, 1.0, 2.0,
-               0.0, text_colours.data(), texts.data(), nullptr, nullptr, nullptr, nullptr, line_colours.data(),
-               line_styles.data(), line_widths.data(), symbol_colours.data(), symbol_scales.data(),
-               symbol_numbers.data(), symbols.data());
+      // Below the frame, clear of the x numbers and label (offsets in viewport fractions).
+      const double below = (0.125 / (0.89 - bottom));
+      pllegend(&legend_width, &legend_height, PL_LEGEND_ROW_MAJOR, PL_POSITION_BOTTOM | PL_POSITION_OUTSIDE, 0.0, below,
+               0.05, 0, 1, 1, n_rows, n_columns, n, opts.data(), 0.8, 0.9, 1.6, 0.0, text_colours.data(), texts.data(),
+               nullptr, nullptr, nullptr, nullptr, line_colours.data(), line_styles.data(), line_widths.data(),
+               symbol_colours.data(), symbol_scales.data(), symbol_numbers.data(), symbols.data());
       plend1();
       plsstrm(previous);
     }
   } // namespace
+
+  int axis_exponent(const double low, const double high)
+  {
+    const double largest = std::max(std::abs(low), std::abs(high));
+    if (!(largest > 0) || !std::isfinite(largest))
+      return 0;
+    const int e = static_cast<int>(std::floor(std::log10(largest)));
+    if (e >= -2 && e <= 3)
+      return 0;
+    return 3 * static_cast<int>(std::floor(e / 3.0));
+  }
+
+  std::string label_with_exponent(const std::string &label, const int exponent)
+  {
+    if (exponent == 0)
+      return label;
+    const std::string power = "10#u" + std::to_string(exponent) + "#d";
+    const auto open = label.rfind('[');
+    if (open != std::string::npos && !label.empty() && label.back() == ']')
+      return label.substr(0, open + 1) + power + " " + label.substr(open + 1);
+    return label + " [" + power + "]";
+  }
 
   bool cairo_devices_available()
   {

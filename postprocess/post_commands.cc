@@ -346,12 +346,12 @@ namespace fickcast::post
                   "  Largest difference per field and output time between results folders A and B, and relative to\n"
                   "  the largest magnitude in A. Exit 1 if a relative difference exceeds --tolerance.\n"},
       {"plots", "usage: fickcast-post plots RESULTS [--output DIR] [--sqrt-time] [--png-only|--svg-only]\n"
-                "  Profiles, probe histories, depths, released fraction and amounts as PNG and SVG (default\n"
+                "  Profiles, point histories, depths, released fraction and amounts as PNG and SVG (default\n"
                 "  RESULTS/plots).\n"},
       {"report", "usage: fickcast-post report RESULTS|STUDY [--output DIR] [--verification FILE] [--sqrt-time] "
                  "[--no-svg]\n"
                  "  Plots and a self-contained HTML report, RESULTS/report/index.html by default. A folder with\n"
-                 "  study.csv gets a study report.\n"}};
+                 "  sweep.csv gets a study report.\n"}};
     if (!command.empty() && commands.count(command))
       return commands.at(command);
     std::string text = "usage: fickcast-post COMMAND ARGUMENTS   (COMMAND --help for one command)\n"

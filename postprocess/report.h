@@ -40,24 +40,24 @@ namespace fickcast::post
   ReportOutcome make_report(const std::string &results_folder, const ReportOptions &options = {});
 
   /**
-   * The same for a study folder (study.csv, optional study_summary.json): result against each
+   * The same for a study folder (sweep.csv, optional sweep_summary.json): result against each
    * varied parameter and, for uncertainty studies, distributions and exceedance curves.
    */
   ReportOutcome make_study_report(const std::string &study_folder, const ReportOptions &options = {});
 
-  /// True if @p folder holds a study (a study.csv).
+  /// True if @p folder holds a study (a sweep.csv).
   bool is_study_folder(const std::string &folder);
 
   /**
-   * The same for a sizing search (seek.csv and seek_summary.json, as `fickcast seek` writes):
+   * The same for a sizing search (size.csv and size_summary.json, as `fickcast size` writes):
    * what was sought, the answer with its final bracket, the result against the parameter at
    * every evaluation with the target marked, and the evaluations table.
    */
-  ReportOutcome make_seek_report(const std::string &seek_folder, const ReportOptions &options = {});
+  ReportOutcome make_size_report(const std::string &size_folder, const ReportOptions &options = {});
 
-  /// True if @p folder holds a sizing search (seek.csv and seek_summary.json).
-  bool is_seek_folder(const std::string &folder);
+  /// True if @p folder holds a sizing search (size.csv and size_summary.json).
+  bool is_size_folder(const std::string &folder);
 
-  /// make_study_report, make_seek_report or make_report, after what @p folder holds.
+  /// make_study_report, make_size_report or make_report, after what @p folder holds.
   ReportOutcome make_any_report(const std::string &folder, const ReportOptions &options = {});
 } // namespace fickcast::post

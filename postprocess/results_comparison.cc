@@ -123,7 +123,7 @@ namespace fickcast::post
           return point_of(ids->GetId(0));
         };
 
-        vtkSmartPointer<vtkDataSet> probed;
+        vtkSmartPointer<vtkDataSet> resampled;
         std::vector<bool> inside;
         if (!same)
           {
@@ -134,7 +134,7 @@ namespace fickcast::post
               sample_fields(grid_b, points, names, summary_b.dimension, summary_b.degree, series_b.times()[kb].file);
             inside = samples.inside;
             // Rebuild B's arrays at A's points from the samples (vector components in order).
-            probed = vtkSmartPointer<vtkUnstructuredGrid>::New();
+            resampled = vtkSmartPointer<vtkUnstructuredGrid>::New();
             for (const auto &name : names)
               {
                 vtkDataArray *pa = grid_a->GetPointData()->GetArray(name.c_str());
@@ -159,7 +159,7 @@ namespace fickcast::post
                                             : samples.values[static_cast<std::size_t>(it - samples.columns.begin())]
                                                             [static_cast<std::size_t>(i)]);
                   }
-                probed->GetPointData()->AddArray(array);
+                resampled->GetPointData()->AddArray(array);
               }
           }
 
@@ -199,11 +199,11 @@ namespace fickcast::post
                           for (int k2 = 0; k2 < ca->GetNumberOfComponents(); ++k2)
                             at_points->SetComponent(ids->GetId(j), k2, ca->GetComponent(c, k2));
                       }
-                    largest_difference(at_points, probed->GetPointData()->GetArray(name.c_str()),
+                    largest_difference(at_points, resampled->GetPointData()->GetArray(name.c_str()),
                                        grid_a->GetNumberOfPoints(), &inside, point_of, row);
                   }
                 else
-                  largest_difference(pa, probed->GetPointData()->GetArray(name.c_str()), grid_a->GetNumberOfPoints(),
+                  largest_difference(pa, resampled->GetPointData()->GetArray(name.c_str()), grid_a->GetNumberOfPoints(),
                                      &inside, point_of, row);
               }
             row.relative = row.magnitude > 0 ? row.largest / row.magnitude : row.largest;

@@ -48,7 +48,9 @@ namespace fickcast::post
 
       void emit(const PlotSpec &spec, const std::string &stem, const std::string &caption)
       {
-        if (write_plot(spec, folder + "/" + stem, options.formats))
+        PlotSpec named = spec;
+        named.subject = results.summary.title;
+        if (write_plot(named, folder + "/" + stem, options.formats))
           written.push_back({stem, spec.title, caption});
       }
 
@@ -170,19 +172,19 @@ namespace fickcast::post
                      " at output times (linear between the nodes of each cell's output patch).");
     }
 
-    void probe_histories(Context &context)
+    void point_histories(Context &context)
     {
       const CsvTable &series = context.results.series;
       const auto [t, label] = context.time_axis(false);
       PlotSpec spec;
-      spec.title = "Probe histories";
+      spec.title = "Point histories";
       spec.x_label = label;
       spec.y_label = "concentration" + bracket(context.concentration.symbol);
       for (std::size_t c = 0; c < series.names().size(); ++c)
-        if (series.names()[c].rfind("probe.", 0) == 0)
+        if (series.names()[c].rfind("point.", 0) == 0)
           {
             const std::string name = series.names()[c].substr(6);
-            spec.curves.push_back({"probe " + name, t, scaled(series.numbers(c), context.concentration.si_per_unit)});
+            spec.curves.push_back({"point " + name, t, scaled(series.numbers(c), context.concentration.si_per_unit)});
             const Json::Value &threshold = context.results.summary.results["threshold." + name];
             if (threshold.isObject() && threshold["level"].isNumeric())
               {
@@ -194,8 +196,8 @@ namespace fickcast::post
                 spec.curves.push_back(line);
               }
           }
-      context.emit(spec, "probes",
-                   "Concentration at each named probe against time, from series.csv; dashed grey "
+      context.emit(spec, "points",
+                   "Concentration at each named point against time, from series.csv; dashed grey "
                    "lines are the threshold levels of summary.json.");
     }
 
@@ -324,7 +326,7 @@ namespace fickcast::post
       profiles_from_table(context);
     else if (results.fields)
       profiles_from_fields(context);
-    probe_histories(context);
+    point_histories(context);
     depths(context);
     release(context, false);
     amounts(context, false);

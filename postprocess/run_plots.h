@@ -1,4 +1,4 @@
-// The plots engineers draw from a run by hand: profiles, probe histories, release, amounts, depths.
+// The plots engineers draw from a run by hand: profiles, point histories, release, amounts, depths.
 #pragma once
 
 #include "plot_writer.h"

@@ -39,8 +39,8 @@ namespace fickcast::post
           const std::string unit = r["unit"].isString() ? r["unit"].asString() : "";
           if (name.rfind("threshold.", 0) == 0)
             rows.push_back({name, r["reached"].asBool() ? quantity(value, "s") : "not reached by the end",
-                            "first time probe " + name.substr(10) + " reaches " + in_display(r["level"].asDouble())});
-          else if (name.rfind("probe.", 0) == 0)
+                            "first time point " + name.substr(10) + " reaches " + in_display(r["level"].asDouble())});
+          else if (name.rfind("point.", 0) == 0)
             rows.push_back({name, in_display(value), "at the end of the run"});
           else if (name.rfind("depth.", 0) == 0)
             rows.push_back({name, r["final"].isNumeric() ? quantity(r["final"].asDouble(), "m") : "none",

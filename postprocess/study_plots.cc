@@ -48,12 +48,15 @@ namespace fickcast::post
   } // namespace
 
   std::vector<PlotFile> make_study_plots(const StudyTable &study, const std::string &folder, const bool uncertainty,
-                                         const PlotFormats &formats, const std::size_t max_plots)
+                                         const PlotFormats &formats, const std::size_t max_plots,
+                                         const std::string &subject)
   {
     make_folder(folder);
     std::vector<PlotFile> written;
     const auto emit = [&](const PlotSpec &spec, const std::string &stem, const std::string &caption) {
-      if (written.size() < max_plots && write_plot(spec, folder + "/" + stem, formats))
+      PlotSpec named = spec;
+      named.subject = subject;
+      if (written.size() < max_plots && write_plot(named, folder + "/" + stem, formats))
         written.push_back({stem, spec.title, caption});
     };
 
@@ -159,7 +162,7 @@ namespace fickcast::post
                           result.label,
                           {curve}};
             emit(spec, "result_" + safe(study.table.names()[r]) + "_vs_" + safe(pname),
-                 study.table.names()[r] + " of each completed case against " + pname + ", from study.csv.");
+                 study.table.names()[r] + " of each completed case against " + pname + ", from sweep.csv.");
           }
       }
     return written;

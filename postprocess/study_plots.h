@@ -16,5 +16,6 @@ namespace fickcast::post
    * Results in seconds are shown in a readable time unit. At most @p max_plots plots.
    */
   std::vector<PlotFile> make_study_plots(const StudyTable &study, const std::string &folder, bool uncertainty,
-                                         const PlotFormats &formats, std::size_t max_plots = 24);
+                                         const PlotFormats &formats, std::size_t max_plots = 24,
+                                         const std::string &subject = {});
 } // namespace fickcast::post

@@ -32,23 +32,26 @@ namespace fickcast::post
 
   bool is_study_folder(const std::string &folder)
   {
-    return std::filesystem::is_regular_file(folder + "/study.csv");
+    return std::filesystem::is_regular_file(folder + "/sweep.csv");
   }
 
   ReportOutcome make_study_report(const std::string &study_folder, const ReportOptions &options)
   {
     if (!std::filesystem::is_directory(study_folder))
-      throw PostInputError(study_folder, "a study folder with study.csv", "no such folder");
+      throw PostInputError(study_folder, "a study folder with sweep.csv", "no such folder");
     const StudyTable study = read_study(study_folder);
-    const std::string summary_path = study_folder + "/study_summary.json";
+    const std::string summary_path = study_folder + "/sweep_summary.json";
     const bool uncertainty = std::filesystem::is_regular_file(summary_path);
     Json::Value summary;
     if (uncertainty)
-      summary = read_json_file(summary_path, "the study_summary.json of an uncertainty study");
+      summary = read_json_file(summary_path, "the sweep_summary.json of an uncertainty study");
     const std::string folder = options.output_folder.empty() ? study_folder + "/report" : options.output_folder;
     PlotFormats formats = options.formats;
     formats.png = true;
-    const auto plots = make_study_plots(study, folder, uncertainty, formats);
+    std::string subject;
+    if (std::filesystem::is_regular_file(summary_path))
+      subject = read_json_file(summary_path, "the sweep_summary.json of a sweep")["title"].asString();
+    const auto plots = make_study_plots(study, folder, uncertainty, formats, 24, subject);
 
     const CsvTable &t = study.table;
     std::string body =
@@ -104,14 +107,14 @@ namespace fickcast::post
       }
     body += html_table({"result", "unit", "cases", "mean", "P5", "P50", "P95", "smallest", "largest"}, stats);
     body += "<p class=\"meta\">Percentiles by linear interpolation between order statistics (Hyndman and Fan 1996, "
-            "definition 7), computed here from study.csv. An event (threshold, release) not reached within the "
+            "definition 7), computed here from sweep.csv. An event (threshold, release) not reached within the "
             "simulated time counts as later than any time: it enters the percentiles, and the mean is not "
             "defined.</p>\n";
     if (uncertainty)
       {
         std::vector<std::vector<std::string>> rows;
         flatten(summary, "", rows);
-        body += "<h3>As the study wrote them (study_summary.json)</h3>\n" + html_table({"entry", "value"}, rows);
+        body += "<h3>As the study wrote them (sweep_summary.json)</h3>\n" + html_table({"entry", "value"}, rows);
       }
 
     body += "<h2>Plots</h2>\n";
@@ -136,7 +139,7 @@ namespace fickcast::post
     for (std::size_t c = 0; c < t.names().size(); ++c)
       header.push_back(t.names()[c] + (t.units()[c].empty() ? "" : " [" + t.units()[c] + "]"));
     body += t.n_rows() <= 200 ? html_table(header, t.rows(), "cases")
-                              : "<p>" + std::to_string(t.n_rows()) + " cases: see study.csv.</p>\n";
+                              : "<p>" + std::to_string(t.n_rows()) + " cases: see sweep.csv.</p>\n";
 
     outcome.html = folder + "/index.html";
     write_file(outcome.html, html_document("Study report - fickcast", body));

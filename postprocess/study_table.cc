@@ -16,14 +16,14 @@ namespace fickcast::post
     // Case sections, and `layer` for the study parameter layer.NAME.thickness.
     static const std::vector<std::string> sections{"case",   "geometry", "region",      "boundary", "initial",
                                                    "time",   "numerics", "temperature", "stage",    "output",
-                                                   "solver", "study",    "layer"};
+                                                   "solver", "sweep",    "layer"};
     const std::string first = name.substr(0, name.find('.'));
     return name.find('.') != std::string::npos && std::find(sections.begin(), sections.end(), first) != sections.end();
   }
 
   StudyTable read_study(const std::string &folder)
   {
-    StudyTable study{CsvTable::read(folder + "/study.csv"), {}, {}, {}, 0};
+    StudyTable study{CsvTable::read(folder + "/sweep.csv"), {}, {}, {}, 0};
     const CsvTable &t = study.table;
     if (t.names().empty() || t.names()[0] != "case")
       throw PostInputError(t.path() + ":1", "`case` as the first column", "'" + t.names()[0] + "'");

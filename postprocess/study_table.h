@@ -1,4 +1,4 @@
-// A study's table (study.csv) read generically, and the statistics drawn from its results.
+// A study's table (sweep.csv) read generically, and the statistics drawn from its results.
 #pragma once
 
 #include "csv_table.h"
@@ -9,7 +9,7 @@
 namespace fickcast::post
 {
   /**
-   * study.csv: first column `case`, then the varied parameters (names that start with a case
+   * sweep.csv: first column `case`, then the varied parameters (names that start with a case
    * section: region., boundary., time., ...), then the named results, then `status` and
    * `wall_time [s]` (and `message`). Result cells must be numbers or empty; parameter cells may
    * carry a unit after the number (`2e-10 m2/s`, `72 cm`): a column's values are converted to the
@@ -30,11 +30,11 @@ namespace fickcast::post
     std::string parameter_unit(std::size_t index) const;
     /// Result values of column @p index for usable rows, NaN elsewhere. An event result
     /// (is_event_result) left empty in a completed case was not reached within the run: +infinity,
-    /// as the solver's study_summary.json counts it.
+    /// as the solver's sweep_summary.json counts it.
     std::vector<double> result_values(std::size_t index) const;
   };
 
-  /// Reads FOLDER/study.csv; PostInputError naming the file (and line) if it is not one.
+  /// Reads FOLDER/sweep.csv; PostInputError naming the file (and line) if it is not one.
   StudyTable read_study(const std::string &folder);
 
   /// True for results that are times of events (threshold.NAME, release.NAME): empty when the

@@ -2,6 +2,7 @@
 
 #include "case/input_error.h"
 #include "case/quantity_text.h"
+#include "case/renamed_spellings.h"
 
 #include <boost/program_options.hpp>
 
@@ -16,8 +17,8 @@ namespace fickcast
     static const std::vector<std::pair<std::string, std::string>> list = {
       {"run", "solve one case and write its results folder"},
       {"check", "validate a case and print every effective setting with units; solve nothing"},
-      {"sweep", "run the cases of the [study] section (a grid, zipped lists or random samples); one table"},
-      {"seek", "find the value of one parameter that brings a named result to a target (sizing)"},
+      {"sweep", "run the cases of the [sweep] section (a grid, zipped lists or random samples); one table"},
+      {"size", "find the value of one parameter at which a named result takes an aimed value ([size])"},
       {"verify", "solve the built-in checks against published solutions; print and write a report"},
     };
     return list;
@@ -44,12 +45,12 @@ namespace fickcast
       po::options_description options = common_options();
       if (verb == "check")
         options.add_options()("keys", "list every case key with its default and meaning");
-      if (verb == "run" || verb == "sweep" || verb == "seek")
+      if (verb == "run" || verb == "sweep" || verb == "size")
         options.add_options()("report", "also write the plots and the HTML report (FOLDER/report/index.html)");
       if (verb == "sweep")
         options.add_options()("vary", po::value<std::vector<std::string>>()->composing(),
                               "sweep a case key: --vary key=value,value,... or key=\"text | text\" "
-                              "(repeatable; adds to the case's [study] vary keys, replacing one of the same key)");
+                              "(repeatable; adds to the case's [sweep] vary keys, replacing one of the same key)");
       return options;
     }
 
@@ -93,6 +94,11 @@ namespace fickcast
             list += (list.empty() ? "" : ", ") + name;
           }
         const std::string suggestion = nearest(first, names);
+        const std::string renamed = renamed_verb(first);
+        if (!renamed.empty())
+          throw InputError("command line", "",
+                           "the verb '" + first + "' is a spelling of fickcast 0.7; write 'fickcast " + renamed +
+                             "' instead (and a [" + renamed + "] section in the case)");
         throw InputError("command line", "",
                          "unknown verb '" + first + "'; expected one of " + list +
                            (suggestion.empty() ? "" : " (did you mean '" + suggestion + "'?)"));
@@ -130,7 +136,7 @@ namespace fickcast
           const auto equals = item.find('=');
           if (equals == std::string::npos || equals == 0)
             throw InputError("command line", "--vary", "expected 'key=value,value,...', found '" + item + "'");
-          invocation.vary.push_back("study.vary." + item);
+          invocation.vary.push_back("sweep.vary." + item);
         }
     if (values.count("output"))
       invocation.output = values["output"].as<std::string>();
@@ -182,22 +188,22 @@ namespace fickcast
     else if (verb == "sweep")
       out << "Usage: fickcast sweep [options] CASE.ini\n"
              "       mpirun -np N fickcast sweep [options] CASE.ini\n\n"
-             "Runs the cases the [study] section defines: every combination of the vary.KEY lists\n"
+             "Runs the cases the [sweep] section defines: every combination of the vary.KEY lists\n"
              "(combine = zip pairs them element by element), or `samples` Latin hypercube draws of the\n"
              "sample.KEY distributions. Each case is solved on one rank; ranks take the next case as\n"
-             "they finish. Writes FOLDER/cases/case_NNNN (a results folder each), FOLDER/study.csv\n"
-             "and FOLDER/study_summary.json (statistics and limit probabilities for samples). FOLDER is\n"
+             "they finish. Writes FOLDER/cases/case_NNNN (a results folder each), FOLDER/sweep.csv\n"
+             "and FOLDER/sweep_summary.json (statistics and limit probabilities for samples). FOLDER is\n"
              "--output or the case's output.folder with _sweep appended. Running the same study again\n"
              "into the same folder keeps finished cases and runs only the rest (--overwrite starts over).\n"
              "Exit code 1 if any case failed (the table says which and why).\n\n";
-    else if (verb == "seek")
-      out << "Usage: fickcast seek [options] CASE.ini\n\n"
-             "Finds the value of study.seek.key between study.seek.low and study.seek.high at which the\n"
-             "named result study.seek.result equals study.seek.target, by a bracketing root finder\n"
-             "(TOMS 748), to study.seek.tolerance (relative). Prints every run. Writes\n"
-             "FOLDER/evaluations/eval_NN, FOLDER/seek.csv and FOLDER/seek_summary.json; FOLDER is\n"
-             "--output or the case's output.folder with _seek appended. Exit code 2 if the range does\n"
-             "not bracket the target (the results at both ends are shown).\n\n";
+    else if (verb == "size")
+      out << "Usage: fickcast size [options] CASE.ini\n\n"
+             "Finds the value of size.parameter between size.from and size.to at which the\n"
+             "named result size.result equals size.aim, by a bracketing root finder\n"
+             "(TOMS 748), to size.tolerance (relative). Prints every run. Writes\n"
+             "FOLDER/runs/run_NN, FOLDER/size.csv and FOLDER/size_summary.json; FOLDER is\n"
+             "--output or the case's output.folder with _size appended. Exit code 2 if the range does\n"
+             "not bracket the aim (the results at both ends are shown).\n\n";
     else if (verb == "check")
       out << "Usage: fickcast check [options] CASE.ini\n"
              "       fickcast check --keys\n\n"

@@ -12,7 +12,7 @@ namespace fickcast
     std::string verb; ///< run, check, ... or empty for --help / --version
     std::string case_file;
     std::vector<std::string> overrides; ///< --set section.key=value, in order
-    std::vector<std::string> vary;      ///< sweep --vary key=values, as study.vary.key=values overrides
+    std::vector<std::string> vary;      ///< sweep --vary key=values, as sweep.vary.key=values overrides
     std::string output;                 ///< --output DIR
     bool overwrite = false;
     bool quiet = false;

@@ -20,7 +20,7 @@ namespace fickcast
     std::string concentration(double si) const;
 
     /**
-     * A named result given in SI with its SI unit (as summary.json and study.csv carry it):
+     * A named result given in SI with its SI unit (as summary.json and sweep.csv carry it):
      * times, lengths and concentrations in the case's units, fractions (unit 1) in per cent,
      * anything else in SI. Infinite or, for an @p event, NaN: "not reached"; otherwise NaN: "-".
      */

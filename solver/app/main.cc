@@ -37,8 +37,8 @@ namespace
       return fickcast::verb_check(invocation, communicator);
     if (invocation.verb == "sweep")
       return fickcast::verb_sweep(invocation, communicator);
-    if (invocation.verb == "seek")
-      return fickcast::verb_seek(invocation, communicator);
+    if (invocation.verb == "size")
+      return fickcast::verb_size(invocation, communicator);
     if (invocation.verb == "verify")
       return fickcast::verb_verify(invocation, communicator);
     return fickcast::verb_run(invocation, communicator);

@@ -4,7 +4,7 @@
 #include "case/key_schema.h"
 #include "numerics/mesh_statistics.h"
 #include "studies/result_names.h"
-#include "studies/seek.h"
+#include "studies/sizing.h"
 #include "studies/study_plan.h"
 
 #include <deal.II/base/mpi.h>
@@ -34,35 +34,36 @@ namespace fickcast
         }
     }
 
-    /// The study of the case checked as sweep or seek would check it before running anything
-    /// (every swept value read into the case, limits, seek range and target); one line saying
+    /// The study of the case checked as sweep or sizing would check it before running anything
+    /// (every swept value read into the case, limits, sizing range and target); one line saying
     /// what would run, or empty without a study. Throws InputError.
     std::string check_study(const CaseDescription &description, const Invocation &invocation)
     {
-      const StudySpec &study = description.study;
-      if (study.has_seek())
+      const SizeSpec &size = description.size;
+      if (size.given())
         {
-          const SeekOutcome seek = prepare_seek(description, invocation.case_file, invocation.overrides);
-          return "study: `fickcast seek` would search " + seek.key + " in [" + study.seek.values.at(0) + ", " +
-                 study.seek.values.at(1) + "] for " + seek.result_name + " = " + study.seek_target +
+          const SizingOutcome sizing = prepare_sizing(description, invocation.case_file, invocation.overrides);
+          return "size: `fickcast size` would search " + sizing.key + " from " + size.parameter.values.at(0) + " to " +
+                 size.parameter.values.at(1) + " for " + sizing.result_name + " = " + size.aim +
                  " (both ends accepted by the case)";
         }
-      if (!study.has_sweep())
+      const SweepSpec &sweep = description.sweep;
+      if (!sweep.given())
         return {};
-      for (const auto &limit : study.limits)
+      for (const auto &limit : sweep.limits)
         result_level(description, limit.result, limit.level, limit.origin,
-                     std::string("study.") + (limit.above ? "exceed." : "below.") + limit.result);
+                     std::string("sweep.") + (limit.above ? "exceed." : "below.") + limit.result);
       const std::size_t n = plan_study(description).size();
       check_study_values(description, invocation.case_file, invocation.overrides);
       std::string keys;
-      for (const auto &p : study.sample.empty() ? study.vary : study.sample)
+      for (const auto &p : sweep.sample.empty() ? sweep.vary : sweep.sample)
         keys += (keys.empty() ? "" : ", ") + p.key;
-      if (study.sample.empty())
-        return "study: `fickcast sweep` would run " + std::to_string(n) + " cases (" +
-               (study.zip ? "lists zipped" : "every combination") + " over " + keys +
+      if (sweep.sample.empty())
+        return "sweep: `fickcast sweep` would run " + std::to_string(n) + " cases (" +
+               (sweep.zip ? "lists zipped" : "every combination") + " over " + keys +
                "); every value accepted by the case";
-      return "study: `fickcast sweep` would run " + std::to_string(n) + " Latin hypercube samples of " + keys +
-             " (seed " + std::to_string(study.seed) + "); the case accepts each distribution's median";
+      return "sweep: `fickcast sweep` would run " + std::to_string(n) + " Latin hypercube samples of " + keys +
+             " (seed " + std::to_string(sweep.seed) + "); the case accepts each distribution's median";
     }
   } // namespace
 

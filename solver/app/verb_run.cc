@@ -45,13 +45,14 @@ namespace fickcast
                 r.degree, r.linear_solver.c_str(), r.ranks, r.ranks > 1 ? "s" : "");
     std::printf("  %u steps (%u rejected) to t = %s in %.2f s\n", r.steps_accepted, r.steps_rejected,
                 units.time(r.end_time).c_str(), r.wall_time);
-    for (const auto &probe : r.probes)
+    for (const auto &named_point : r.points)
       {
-        if (std::isfinite(probe.threshold))
-          std::printf("  threshold.%s: %s (probe %s reaches %s)\n", probe.name.c_str(),
-                      units.time(probe.threshold_time).c_str(), probe.name.c_str(),
-                      units.concentration(probe.threshold).c_str());
-        std::printf("  probe.%s at the end: %s\n", probe.name.c_str(), units.concentration(probe.final_value).c_str());
+        if (std::isfinite(named_point.threshold))
+          std::printf("  threshold.%s: %s (point %s reaches %s)\n", named_point.name.c_str(),
+                      units.time(named_point.threshold_time).c_str(), named_point.name.c_str(),
+                      units.concentration(named_point.threshold).c_str());
+        std::printf("  point.%s at the end: %s\n", named_point.name.c_str(),
+                    units.concentration(named_point.final_value).c_str());
       }
     for (const auto &depth : r.depths)
       if (!depth.depths.empty())

@@ -21,13 +21,13 @@ namespace fickcast
   namespace
   {
     /// A sweep's cases with their parameters and results in the case's units, read back from
-    /// each case's summary.json (the same numbers as study.csv). Long sweeps: see study.csv.
+    /// each case's summary.json (the same numbers as sweep.csv). Long sweeps: see sweep.csv.
     void print_case_results(const std::vector<StudyCase> &cases, const std::string &folder, const DisplayUnits &units)
     {
       constexpr std::size_t most = 40;
       if (cases.size() > most)
         {
-          std::printf("  (%zu cases: each one's parameters and results are in study.csv)\n", cases.size());
+          std::printf("  (%zu cases: each one's parameters and results are in sweep.csv)\n", cases.size());
           return;
         }
       for (const auto &c : cases)
@@ -43,7 +43,7 @@ namespace fickcast
             }
           catch (const std::exception &)
             {
-              std::printf("      no results (see study.csv)\n");
+              std::printf("      no results (see sweep.csv)\n");
               continue;
             }
           if (summary.status != "completed")
@@ -68,14 +68,14 @@ namespace fickcast
     std::vector<std::string> overrides = invocation.overrides;
     overrides.insert(overrides.end(), invocation.vary.begin(), invocation.vary.end());
     const CaseDescription base = read_case(invocation.case_file, overrides);
-    const StudySpec &study = base.study;
-    if (!study.has_sweep())
-      throw InputError(base.file, "study",
-                       "expected a [study] section with vary.KEY = values (a sweep) or sample.KEY = distribution "
+    const SweepSpec &sweep = base.sweep;
+    if (!sweep.given())
+      throw InputError(base.file, "sweep",
+                       "expected a [sweep] section with vary.KEY = values (a sweep) or sample.KEY = distribution "
                        "(an uncertainty study), or --vary KEY=values; found neither");
-    for (const auto &limit : study.limits)
+    for (const auto &limit : sweep.limits)
       result_level(base, limit.result, limit.level, limit.origin,
-                   std::string("study.") + (limit.above ? "exceed." : "below.") + limit.result);
+                   std::string("sweep.") + (limit.above ? "exceed." : "below.") + limit.result);
     const std::vector<StudyCase> cases = plan_study(base);
     collectively(communicator, [&] {
       if (rank == 0)
@@ -92,15 +92,15 @@ namespace fickcast
     if (talk && rank == 0)
       {
         std::string keys;
-        for (const auto &p : study.sample.empty() ? study.vary : study.sample)
+        for (const auto &p : sweep.sample.empty() ? sweep.vary : sweep.sample)
           keys += (keys.empty() ? "" : ", ") + p.key;
         std::printf("%s: %s\n", base.file.c_str(), base.title.c_str());
-        if (study.sample.empty())
+        if (sweep.sample.empty())
           std::printf("  sweep of %zu cases (%s over %s) on %u rank%s\n", cases.size(),
-                      study.zip ? "lists zipped" : "every combination", keys.c_str(), n_ranks, n_ranks > 1 ? "s" : "");
+                      sweep.zip ? "lists zipped" : "every combination", keys.c_str(), n_ranks, n_ranks > 1 ? "s" : "");
         else
           std::printf("  uncertainty study: %zu Latin hypercube samples (seed %lu) of %s on %u rank%s\n", cases.size(),
-                      study.seed, keys.c_str(), n_ranks, n_ranks > 1 ? "s" : "");
+                      sweep.seed, keys.c_str(), n_ranks, n_ranks > 1 ? "s" : "");
         std::fflush(stdout);
       }
     const StudyTotals totals = run_study(base, cases, options, communicator, [&](const CaseEvent &event) {
@@ -139,7 +139,7 @@ namespace fickcast
       std::printf(" %u %s", count, status.c_str());
     std::printf("\n");
     const DisplayUnits units(base);
-    if (study.sample.empty())
+    if (sweep.sample.empty())
       print_case_results(cases, options.folder, units);
     for (const auto &s : totals.table.statistics)
       {
@@ -152,11 +152,11 @@ namespace fickcast
           std::printf("    probability %s %s: %.3g (standard error %.2g)\n", limit.above ? "above" : "below",
                       limit.level_text.c_str(), limit.probability, limit.standard_error);
       }
-    std::printf("results: %s/study.csv\n", options.folder.c_str());
+    std::printf("results: %s/sweep.csv\n", options.folder.c_str());
     std::printf("  Model predictions support, but do not replace, testing and engineering judgement; see the\n"
                 "  README's cautions before using them for medical, containment or safety decisions.\n");
     if (not_completed > 0)
-      std::fprintf(stderr, "fickcast: %zu of %zu cases did not complete; study.csv gives each one's message\n",
+      std::fprintf(stderr, "fickcast: %zu of %zu cases did not complete; sweep.csv gives each one's message\n",
                    not_completed, totals.cases);
     std::fflush(stdout);
     const int report_code = invocation.report ? write_report(options.folder, false) : exit_success;

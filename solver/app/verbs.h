@@ -10,6 +10,6 @@ namespace fickcast
   int verb_check(const Invocation &invocation, MPI_Comm communicator);
   int verb_run(const Invocation &invocation, MPI_Comm communicator);
   int verb_sweep(const Invocation &invocation, MPI_Comm communicator);
-  int verb_seek(const Invocation &invocation, MPI_Comm communicator);
+  int verb_size(const Invocation &invocation, MPI_Comm communicator);
   int verb_verify(const Invocation &invocation, MPI_Comm communicator);
 } // namespace fickcast

@@ -39,7 +39,7 @@ namespace fickcast
         build_time(c);
         build_numerics(c);
         build_output(c);
-        build_study(c);
+        build_sweep_and_size(c);
         record_settings(c);
         return c;
       }
@@ -691,12 +691,12 @@ namespace fickcast
         return start ? first : last;
       }
 
-      void build_study(CaseDescription &c) const
+      void build_sweep_and_size(CaseDescription &c) const
       {
-        StudySpec &s = c.study;
+        SweepSpec &s = c.sweep;
         for (const auto &value : settings.all())
           {
-            if (value.section != "study")
+            if (value.section != "sweep")
               continue;
             const auto dot = value.key.find('.');
             const std::string prefix = dot == std::string::npos ? value.key : value.key.substr(0, dot);
@@ -739,38 +739,37 @@ namespace fickcast
             else if (prefix == "exceed" || prefix == "below")
               s.limits.push_back(StudyLimit{rest, value.text, prefix == "exceed", value.origin});
           }
-        s.zip = text("study", "combine") == "zip";
-        s.samples = static_cast<unsigned int>(quantity("study", "samples", 100));
-        s.seed = static_cast<unsigned long>(quantity("study", "seed", 1));
+        s.zip = text("sweep", "combine") == "zip";
+        s.samples = static_cast<unsigned int>(quantity("sweep", "samples", 100));
+        s.seed = static_cast<unsigned long>(quantity("sweep", "seed", 1));
         if (!s.vary.empty() && !s.sample.empty())
-          fail(*get("study", "sample." + s.sample.front().key),
+          fail(*get("sweep", "sample." + s.sample.front().key),
                "expected either vary.* (a sweep) or sample.* (an uncertainty study), found both");
         if (s.zip)
           for (const auto &p : s.vary)
             if (p.values.size() != s.vary.front().values.size())
-              fail(*get("study", "vary." + p.key), "expected as many values as vary." + s.vary.front().key + " (" +
+              fail(*get("sweep", "vary." + p.key), "expected as many values as vary." + s.vary.front().key + " (" +
                                                      std::to_string(s.vary.front().values.size()) +
                                                      ") with combine = zip, found " + std::to_string(p.values.size()));
-        if (const auto *key = get("study", "seek.key"))
+        SizeSpec &z = c.size;
+        if (const auto *key = get("size", "parameter"))
           {
-            s.seek.key = key->text;
-            s.seek.origin = key->origin;
-            for (const char *part : {"seek.low", "seek.high", "seek.result", "seek.target"})
-              if (!get("study", part))
-                missing("study", part,
-                        "the rest of the seek definition (seek.low, seek.high, seek.result, "
-                        "seek.target)");
-            s.seek.values = {get("study", "seek.low")->text, get("study", "seek.high")->text};
-            s.seek_result = get("study", "seek.result")->text;
-            s.seek_target = get("study", "seek.target")->text;
-            s.seek_origin = get("study", "seek.target")->origin;
-            s.seek_tolerance = quantity("study", "seek.tolerance", 1e-4);
-            s.seek_max_evaluations = static_cast<unsigned int>(quantity("study", "seek.max_evaluations", 40));
+            z.parameter.key = key->text;
+            z.parameter.origin = key->origin;
+            for (const char *part : {"from", "to", "result", "aim"})
+              if (!get("size", part))
+                missing("size", part, "the rest of the sizing definition (from, to, result, aim)");
+            z.parameter.values = {get("size", "from")->text, get("size", "to")->text};
+            z.result = get("size", "result")->text;
+            z.aim = get("size", "aim")->text;
+            z.aim_origin = get("size", "aim")->origin;
+            z.tolerance = quantity("size", "tolerance", 1e-4);
+            z.max_runs = static_cast<unsigned int>(quantity("size", "max_runs", 40));
           }
         else
-          for (const char *part : {"seek.low", "seek.high", "seek.result", "seek.target"})
-            if (const auto *v = get("study", part))
-              fail(*v, "expected seek.key with the other seek keys, found none");
+          for (const char *part : {"from", "to", "result", "aim"})
+            if (const auto *v = get("size", part))
+              fail(*v, "expected size.parameter with the other sizing keys, found none");
       }
 
       void build_numerics(CaseDescription &c) const
@@ -815,27 +814,27 @@ namespace fickcast
               continue;
             const std::string prefix = value.key.substr(0, dot);
             const std::string name = value.key.substr(dot + 1);
-            if (prefix == "probe")
+            if (prefix == "point")
               {
-                ProbeSpec probe;
-                probe.name = name;
-                probe.region = value.text;
-                if (!probe.region.empty() && c.find_region(probe.region) == nullptr)
+                NamedPointSpec named_point;
+                named_point.name = name;
+                named_point.region = value.text;
+                if (!named_point.region.empty() && c.find_region(named_point.region) == nullptr)
                   {
                     std::vector<std::string> regions;
                     for (const auto &r : c.regions)
                       regions.push_back(r.name);
-                    const std::string suggestion = nearest(probe.region, regions);
-                    fail(value, "expected '... in REGION' to name a region, found '" + probe.region + "'" +
+                    const std::string suggestion = nearest(named_point.region, regions);
+                    fail(value, "expected '... in REGION' to name a region, found '" + named_point.region + "'" +
                                   (suggestion.empty() ? "" : " (did you mean '" + suggestion + "'?)"));
                   }
                 for (unsigned int d = 0; d < dimension; ++d)
                   {
                     std::string layer;
-                    probe.point[d] = coordinate(c, value, d, d, layer);
+                    named_point.point[d] = coordinate(c, value, d, d, layer);
                     // At a layer's face, read the layer's own side unless told otherwise.
-                    if (!layer.empty() && probe.region.empty())
-                      probe.region = layer;
+                    if (!layer.empty() && named_point.region.empty())
+                      named_point.region = layer;
                   }
                 const GeometrySpec &g = c.geometry;
                 if (g.mesh_file.empty())
@@ -855,12 +854,12 @@ namespace fickcast
                       }
                     const double tolerance = 1e-9 * std::max(total, 1e-30);
                     for (unsigned int d = 0; d < dimension; ++d)
-                      if (probe.point[d] < low[d] - tolerance || probe.point[d] > high[d] + tolerance)
+                      if (named_point.point[d] < low[d] - tolerance || named_point.point[d] > high[d] + tolerance)
                         fail(value, "expected a point inside the geometry (axis " + std::string(1, "xyz"[d]) +
                                       " from " + format_si(low[d], "m") + " to " + format_si(high[d], "m") +
-                                      "), found " + format_si(probe.point[d], "m") + " (the probe is outside)");
+                                      "), found " + format_si(named_point.point[d], "m") + " (the point is outside)");
                   }
-                c.output.probes.push_back(probe);
+                c.output.points.push_back(named_point);
               }
           }
         for (const auto &value : settings.all())
@@ -874,10 +873,10 @@ namespace fickcast
             const std::string name = value.key.substr(dot + 1);
             if (prefix == "threshold")
               {
-                const bool has_probe = std::any_of(c.output.probes.begin(), c.output.probes.end(),
-                                                   [&](const ProbeSpec &p) { return p.name == name; });
-                if (!has_probe)
-                  fail(value, "expected a probe of the same name (output.probe." + name + " = ...), found none");
+                const bool has_point = std::any_of(c.output.points.begin(), c.output.points.end(),
+                                                   [&](const NamedPointSpec &p) { return p.name == name; });
+                if (!has_point)
+                  fail(value, "expected a point of the same name (output.point." + name + " = ...), found none");
                 c.output.thresholds.push_back(LevelSpec{name, value.si});
               }
             else if (prefix == "depth")

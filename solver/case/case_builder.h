@@ -7,6 +7,6 @@
 namespace fickcast
 {
   /// Builds the description from @p settings of a @p dimension-D case. Throws InputError for
-  /// missing keys, inconsistent keys, unknown region or boundary names and probes outside.
+  /// missing keys, inconsistent keys, unknown region or boundary names and points outside.
   CaseDescription build_case(const Settings &settings, unsigned int dimension);
 } // namespace fickcast

@@ -214,7 +214,7 @@ namespace fickcast
     unsigned int max_nonlinear_iterations = 30;
   };
 
-  struct ProbeSpec
+  struct NamedPointSpec
   {
     std::string name;
     std::array<double, 3> point{{0, 0, 0}}; ///< m
@@ -229,7 +229,7 @@ namespace fickcast
     unsigned int samples = 101;
   };
 
-  /// A named level: first time the probe of the same name reaches it (threshold), or the
+  /// A named level: first time the point of the same name reaches it (threshold), or the
   /// depth along the stacking axis where the concentration falls below it (depth).
   struct LevelSpec
   {
@@ -243,7 +243,7 @@ namespace fickcast
     std::vector<double> times; ///< s, extra output times
     double fields_every = 0;   ///< s; 0: only the end (and listed times)
     bool write_fields = true;
-    std::vector<ProbeSpec> probes;
+    std::vector<NamedPointSpec> points;
     std::vector<LevelSpec> thresholds;
     std::vector<LevelSpec> depths;
     std::vector<LineSpec> lines;
@@ -271,24 +271,30 @@ namespace fickcast
     std::string origin;
   };
 
-  /// The [study] section: what `fickcast sweep` and `fickcast seek` do with the case.
-  struct StudySpec
+  /// The [sweep] section: the cases `fickcast sweep` runs (a what-if grid, zipped lists or samples).
+  struct SweepSpec
   {
-    std::vector<StudyParameter> vary;   ///< sweep: values per key
-    bool zip = false;                   ///< sweep: pair the lists element by element instead of every combination
+    std::vector<StudyParameter> vary;   ///< what-if: values per key
+    bool zip = false;                   ///< pair the lists element by element instead of every combination
     std::vector<StudyParameter> sample; ///< uncertainty: a distribution per key
     unsigned int samples = 100;
     unsigned long seed = 1;
     std::vector<StudyLimit> limits;
-    StudyParameter seek;          ///< seek: key, and values {low, high}
-    std::string seek_result;      ///< the named result to bring to the target
-    std::string seek_target;      ///< as written, in the result's dimension
-    double seek_tolerance = 1e-4; ///< relative, on the parameter
-    unsigned int seek_max_evaluations = 40;
-    std::string seek_origin;
 
-    bool has_sweep() const { return !vary.empty() || !sample.empty(); }
-    bool has_seek() const { return !seek.key.empty(); }
+    bool given() const { return !vary.empty() || !sample.empty(); }
+  };
+
+  /// The [size] section: the one parameter `fickcast size` adjusts so that a result takes a value.
+  struct SizeSpec
+  {
+    StudyParameter parameter; ///< the case key, and values {from, to}
+    std::string result;       ///< the named result that must take the aimed value
+    std::string aim;          ///< the aimed value as written, in the result's dimension
+    double tolerance = 1e-4;  ///< relative, on the parameter
+    unsigned int max_runs = 40;
+    std::string aim_origin; ///< file:line of `aim`
+
+    bool given() const { return !parameter.key.empty(); }
   };
 
   /// One effective setting as `fickcast check` prints it and summary.json echoes it.
@@ -326,7 +332,8 @@ namespace fickcast
     NumericsSpec numerics;
     OutputSpec output;
     ConcentrationUnits units;
-    StudySpec study;
+    SweepSpec sweep;
+    SizeSpec size;
     std::vector<SettingRecord> settings;
 
     const RegionSpec *find_region(const std::string &name) const;

@@ -1,4 +1,5 @@
 #include "case/case_reader.h"
+#include "case/renamed_spellings.h"
 
 #include "case/case_builder.h"
 #include "case/expression.h"
@@ -263,7 +264,7 @@ namespace fickcast
       for (const auto &k : keys)
         plain.push_back(k.back() == '*' ? k.substr(0, k.size() - 1) + "NAME" : k);
       std::string suggestion = nearest(entry.key, plain);
-      // probe.x / threshold.x typed with another prefix: suggest by the prefix alone.
+      // point.x / threshold.x typed with another prefix: suggest by the prefix alone.
       if (suggestion.empty() && entry.key.find('.') != std::string::npos)
         suggestion = nearest(entry.key.substr(0, entry.key.find('.')) + ".NAME", plain);
       std::string list;
@@ -728,9 +729,18 @@ namespace fickcast
 
     Settings settings;
     settings.file = name;
+    for (const auto &entry : entries)
+      {
+        const std::string replacement = renamed_spelling(entry.section, entry.key);
+        if (!replacement.empty())
+          throw InputError(entry.origin(), entry.full_key(), renamed_message(entry.section, entry.key, replacement));
+      }
     for (const auto &section : document.sections())
       {
         const std::string where = name + ":" + std::to_string(document.section_line(section));
+        const std::string replacement = renamed_spelling(section, "");
+        if (!replacement.empty())
+          throw InputError(where, "", renamed_message(section, "", replacement));
         check_section_known(section, where);
         settings.section_origins[section] = where;
       }

@@ -10,7 +10,7 @@ namespace fickcast
   struct IniEntry
   {
     std::string section;   ///< `time`, `region.clay`, ...
-    std::string key;       ///< key within the section, e.g. `diffusivity` or `probe.base`
+    std::string key;       ///< key within the section, e.g. `diffusivity` or `point.base`
     std::string value;     ///< the value as written, trimmed, without comment
     std::string file;      ///< file the entry came from, or `--set`
     unsigned int line = 0; ///< 1-based line number; 0 for `--set`

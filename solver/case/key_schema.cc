@@ -214,36 +214,35 @@ namespace fickcast
       s.push_back(bounded(make("numerics", "max_nonlinear_iterations", K::integer, Dim::none, "30",
                                "iterations before a step is retried smaller or the run fails"),
                           1, false, 1000, false));
-      // [study]
-      s.push_back(make("study", "vary.*", K::text, Dim::none, "",
-                       "sweep: values of a case key, comma separated with units, or whole strings separated by |"));
-      s.push_back(choices(make("study", "combine", K::choice, Dim::none, "grid",
+      // [sweep]
+      s.push_back(make("sweep", "vary.*", K::text, Dim::none, "",
+                       "what-if: values of a case key, comma separated with units, or whole strings separated by |"));
+      s.push_back(choices(make("sweep", "combine", K::choice, Dim::none, "grid",
                                "grid (every combination of the vary lists) or zip (element by element)"),
                           {"grid", "zip"}));
-      s.push_back(make("study", "sample.*", K::text, Dim::none, "",
+      s.push_back(make("sweep", "sample.*", K::text, Dim::none, "",
                        "uncertainty: normal(mean, sd), lognormal(median, sigma of ln), uniform(low, high) or "
                        "triangular(low, mode, high), with units"));
-      s.push_back(bounded(make("study", "samples", K::integer, Dim::none, "100", "number of Latin hypercube samples"),
+      s.push_back(bounded(make("sweep", "samples", K::integer, Dim::none, "100", "number of Latin hypercube samples"),
                           2, false, 1000000, false));
-      s.push_back(bounded(make("study", "seed", K::integer, Dim::none, "1", "seed of the sampling (reproducible)"), 0,
+      s.push_back(bounded(make("sweep", "seed", K::integer, Dim::none, "1", "seed of the sampling (reproducible)"), 0,
                           false, 2147483647, false));
-      s.push_back(make("study", "exceed.*", K::text, Dim::none, "",
+      s.push_back(make("sweep", "exceed.*", K::text, Dim::none, "",
                        "a named result and a level: report the probability that the result exceeds it"));
-      s.push_back(make("study", "below.*", K::text, Dim::none, "",
+      s.push_back(make("sweep", "below.*", K::text, Dim::none, "",
                        "a named result and a level: report the probability that the result falls below it"));
-      s.push_back(make("study", "seek.key", K::text, Dim::none, "",
-                       "seek: the case key to adjust (a number with units), or layer.NAME.thickness"));
-      s.push_back(make("study", "seek.low", K::text, Dim::none, "", "seek: one end of the range, with units"));
-      s.push_back(make("study", "seek.high", K::text, Dim::none, "", "seek: the other end of the range"));
+      // [size]
+      s.push_back(make("size", "parameter", K::text, Dim::none, "",
+                       "the case key to adjust (a number with units), or layer.NAME.thickness"));
+      s.push_back(make("size", "from", K::text, Dim::none, "", "one end of the range searched, with units"));
+      s.push_back(make("size", "to", K::text, Dim::none, "", "the other end of the range searched"));
+      s.push_back(make("size", "result", K::text, Dim::none, "", "the named result that must take the aimed value"));
+      s.push_back(make("size", "aim", K::text, Dim::none, "", "the value the result must take, with units"));
+      s.push_back(bounded(
+        make("size", "tolerance", K::quantity, Dim::dimensionless, "1e-4", "relative tolerance on the parameter"), 0,
+        true, 0.1, false));
       s.push_back(
-        make("study", "seek.result", K::text, Dim::none, "", "seek: the named result to bring to the target"));
-      s.push_back(make("study", "seek.target", K::text, Dim::none, "", "seek: the value the result must reach"));
-      s.push_back(bounded(make("study", "seek.tolerance", K::quantity, Dim::dimensionless, "1e-4",
-                               "seek: relative tolerance on the parameter"),
-                          0, true, 0.1, false));
-      s.push_back(
-        bounded(make("study", "seek.max_evaluations", K::integer, Dim::none, "40", "seek: runs before giving up"), 3,
-                false, 1000, false));
+        bounded(make("size", "max_runs", K::integer, Dim::none, "40", "runs before giving up"), 3, false, 1000, false));
       // [temperature]
       s.push_back(make("temperature", "schedule", K::schedule, Dim::temperature, "",
                        "temperature history: '1050 degC', or '800 degC, ramp 10 degC/min to 1100 degC, hold 1 h, "
@@ -263,19 +262,19 @@ namespace fickcast
       s.push_back(
         positive(make("output", "times", K::quantity_list, Dim::time, "", "extra output times, comma separated")));
       s.push_back(make("output", "fields", K::flag, Dim::none, "true", "write VTU fields"));
-      s.push_back(make("output", "probe.*", K::point, Dim::length, "",
+      s.push_back(make("output", "point.*", K::point, Dim::length, "",
                        "a named point: one coordinate per axis, each with its unit; the last may be 'start of "
                        "LAYER' or 'end of LAYER' (follows the layer when its thickness changes); '... in REGION' "
                        "reads that side of an interface"));
       s.push_back(bounded(make("output", "threshold.*", K::quantity, Dim::concentration, "",
-                               "first time the probe of the same name reaches this concentration"),
+                               "first time the point of the same name reaches this concentration"),
                           0, false));
       s.push_back(bounded(make("output", "depth.*", K::quantity, Dim::concentration, "",
                                "depth where the concentration first falls below this level, along the line of "
                                "the same name if there is one, else from the top face (radial: the outer surface)"),
                           0, false));
       s.push_back(make("output", "line.*", K::segment, Dim::length, "",
-                       "a named sampling line 'FROM to TO' (points as for probes); profiles.csv at output times"));
+                       "a named sampling line 'FROM to TO' (points as for points); profiles.csv at output times"));
       s.push_back(bounded(make("output", "samples.*", K::integer, Dim::none, "101",
                                "number of sampling points on the line of the same name"),
                           2, false, 100000, false));
@@ -308,8 +307,8 @@ namespace fickcast
 
   const std::vector<std::string> &fixed_sections()
   {
-    static const std::vector<std::string> names = {"case",     "geometry", "initial",     "time",
-                                                   "numerics", "output",   "temperature", "study"};
+    static const std::vector<std::string> names = {"case",   "geometry",    "initial", "time", "numerics",
+                                                   "output", "temperature", "sweep",   "size"};
     return names;
   }
 

@@ -49,7 +49,7 @@ namespace fickcast
   struct KeySpec
   {
     std::string section; ///< `case`, `geometry`, ... or `region`, `boundary` for named sections
-    std::string key;     ///< key, or a prefix ending in `.*` (for example `probe.*`)
+    std::string key;     ///< key, or a prefix ending in `.*` (for example `point.*`)
     ValueKind kind = ValueKind::text;
     Dim dim = Dim::none;
     std::string fallback; ///< default as it would be written; empty: none

@@ -15,7 +15,7 @@ namespace fickcast
   {
     const KeySpec *spec = nullptr;
     std::string section;              ///< `time`, `region.clay`
-    std::string key;                  ///< `end`, `probe.base`
+    std::string key;                  ///< `end`, `point.base`
     std::string written;              ///< as written in the file or on the command line
     std::string origin;               ///< file:line or --set
     bool is_auto = false;             ///< the word auto

@@ -12,7 +12,7 @@ namespace fickcast
 {
   constexpr double not_a_number = std::numeric_limits<double>::quiet_NaN();
 
-  struct ProbeRecord
+  struct NamedPointRecord
   {
     std::string name;
     double final_value = not_a_number;    ///< concentration at the end, SI
@@ -87,7 +87,7 @@ namespace fickcast
     double decayed_total = 0;
     double balance_error = 0;          ///< cumulative: storage change - (in + source - decay)
     double balance_error_relative = 0; ///< |balance_error| / reference amount
-    std::vector<ProbeRecord> probes;
+    std::vector<NamedPointRecord> points;
     std::vector<DepthRecord> depths;
     std::vector<ReleaseRecord> releases;
     double released_reference = 0;        ///< amount the released fraction refers to

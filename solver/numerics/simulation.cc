@@ -146,8 +146,8 @@ namespace fickcast
       columns.push_back({"decayed.total", amount_unit});
     columns.push_back({"balance_error", amount_unit});
     columns.push_back({"released_fraction", ""});
-    for (const auto &probe : c.output.probes)
-      columns.push_back({"probe." + probe.name, c.units.concentration});
+    for (const auto &named_point : c.output.points)
+      columns.push_back({"point." + named_point.name, c.units.concentration});
     columns.push_back({"linear_iterations", ""});
     if (problem.is_nonlinear())
       columns.push_back({"nonlinear_iterations", ""});
@@ -233,8 +233,8 @@ namespace fickcast
         row.push_back(decayed_total);
       row.push_back(balance);
       row.push_back(observers.released_fraction(total));
-      const auto &probe_values = observers.probe_values();
-      row.insert(row.end(), probe_values.begin(), probe_values.end());
+      const auto &point_values = observers.point_values();
+      row.insert(row.end(), point_values.begin(), point_values.end());
       row.push_back(last_iterations);
       if (problem.is_nonlinear())
         row.push_back(last_nonlinear);

@@ -1,4 +1,4 @@
-// The time loop: steps, error control, mass balance, probes, events and output.
+// The time loop: steps, error control, mass balance, points, events and output.
 #pragma once
 
 #include "case/case_description.h"
@@ -32,7 +32,7 @@ namespace fickcast
    * Runs one case of dimension @p dim on @p communicator, writing series.csv and fields/ into
    * @p folder (which exists and is shared by all ranks). Returns what was found; a numerical
    * failure returns status "failed" with the last good state written. Throws InputError for
-   * input that only shows during the run (a diffusivity expression going negative, a probe
+   * input that only shows during the run (a diffusivity expression going negative, a point
    * outside a mesh).
    */
   template <int dim>

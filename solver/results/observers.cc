@@ -20,21 +20,21 @@ namespace fickcast
   {
     std::vector<Point<dim>> points;
     std::vector<std::string> regions;
-    for (const auto &probe : c_.output.probes)
+    for (const auto &named_point : c_.output.points)
       {
         Point<dim> p;
         for (int d = 0; d < dim; ++d)
-          p[d] = probe.point[d];
+          p[d] = named_point.point[d];
         points.push_back(p);
-        regions.push_back(probe.region);
-        ProbeRecord record;
-        record.name = probe.name;
+        regions.push_back(named_point.region);
+        NamedPointRecord record;
+        record.name = named_point.name;
         for (const auto &threshold : c_.output.thresholds)
-          if (threshold.name == probe.name)
+          if (threshold.name == named_point.name)
             record.threshold = threshold.level;
-        probe_records_.push_back(record);
+        point_records_.push_back(record);
       }
-    probes_ = std::make_unique<PointEvaluator<dim>>(problem, points, "output.probe", regions);
+    named_points_ = std::make_unique<PointEvaluator<dim>>(problem, points, "output.point", regions);
 
     for (const auto &spec : c_.output.lines)
       {
@@ -158,25 +158,25 @@ namespace fickcast
   template <int dim>
   void Observers<dim>::start(const Vector &ghosted, const double remaining)
   {
-    probe_values_ = probes_->concentrations(ghosted);
-    for (std::size_t k = 0; k < probe_records_.size(); ++k)
-      if (std::isfinite(probe_records_[k].threshold) && probe_values_[k] >= probe_records_[k].threshold)
-        probe_records_[k].threshold_time = 0; // reached from the start
+    point_values_ = named_points_->concentrations(ghosted);
+    for (std::size_t k = 0; k < point_records_.size(); ++k)
+      if (std::isfinite(point_records_[k].threshold) && point_values_[k] >= point_records_[k].threshold)
+        point_records_[k].threshold_time = 0; // reached from the start
     last_released_ = released_fraction(remaining);
   }
 
   template <int dim>
   void Observers<dim>::step(const double t0, const double t1, const Vector &ghosted, const double remaining)
   {
-    const std::vector<double> values = probes_->concentrations(ghosted);
-    for (std::size_t k = 0; k < probe_records_.size(); ++k)
+    const std::vector<double> values = named_points_->concentrations(ghosted);
+    for (std::size_t k = 0; k < point_records_.size(); ++k)
       {
-        auto &p = probe_records_[k];
-        const double v0 = probe_values_[k], v1 = values[k];
+        auto &p = point_records_[k];
+        const double v0 = point_values_[k], v1 = values[k];
         if (std::isfinite(p.threshold) && !std::isfinite(p.threshold_time) && v0 < p.threshold && v1 >= p.threshold)
           p.threshold_time = t0 + (p.threshold - v0) / (v1 - v0) * (t1 - t0);
       }
-    probe_values_ = values;
+    point_values_ = values;
     const double released = released_fraction(remaining);
     for (auto &event : releases_)
       if (!std::isfinite(event.time) && last_released_ < event.level && released >= event.level)
@@ -227,9 +227,9 @@ namespace fickcast
   template <int dim>
   void Observers<dim>::finish(RunRecord &record)
   {
-    for (std::size_t k = 0; k < probe_records_.size(); ++k)
-      probe_records_[k].final_value = probe_values_[k];
-    record.probes = probe_records_;
+    for (std::size_t k = 0; k < point_records_.size(); ++k)
+      point_records_[k].final_value = point_values_[k];
+    record.points = point_records_;
     record.depths = depths_;
     record.releases = releases_;
     record.released_reference = reference_;

@@ -1,4 +1,4 @@
-// What a run watches: probes and their thresholds, sampling lines (profiles.csv) and the depths
+// What a run watches: points and their thresholds, sampling lines (profiles.csv) and the depths
 // along them, the released fraction and its events, spread moments.
 #pragma once
 
@@ -24,13 +24,13 @@ namespace fickcast
   public:
     using Vector = typename DiffusionProblem<dim>::Vector;
 
-    /// Locates probes and line points (InputError if outside the mesh); opens profiles.csv in
+    /// Locates points and line points (InputError if outside the mesh); opens profiles.csv in
     /// @p folder on rank 0 when there are lines. @p initial_amount is the content at t = 0.
     Observers(const DiffusionProblem<dim> &problem, const CaseDescription &description, const std::string &folder,
               double initial_amount);
 
-    /// Probe values at the last observed state (SI concentrations).
-    const std::vector<double> &probe_values() const { return probe_values_; }
+    /// Point values at the last observed state (SI concentrations).
+    const std::vector<double> &point_values() const { return point_values_; }
     /// Released fraction for a remaining content @p remaining (NaN without a reference amount).
     double released_fraction(double remaining) const;
     bool has_release() const { return reference_ > 0; }
@@ -60,9 +60,9 @@ namespace fickcast
     const DiffusionProblem<dim> &problem_;
     const CaseDescription &c_;
     bool root_;
-    std::unique_ptr<PointEvaluator<dim>> probes_;
-    std::vector<double> probe_values_;
-    std::vector<ProbeRecord> probe_records_;
+    std::unique_ptr<PointEvaluator<dim>> named_points_;
+    std::vector<double> point_values_;
+    std::vector<NamedPointRecord> point_records_;
     std::vector<Line> lines_;       ///< named sampling lines
     std::vector<Line> depth_lines_; ///< one per depth (a named line, or the default one)
     std::vector<DepthRecord> depths_;

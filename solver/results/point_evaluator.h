@@ -14,7 +14,7 @@ namespace fickcast
    * and evaluates the phase concentration c = K u there, exactly as the finite-element function
    * gives it. Collective: every rank calls concentrations() and gets every value. A point on a
    * face between cells reads the cell the mesh search returns; at an interface with a partition
-   * jump that is one side or the other, so probes belong inside regions.
+   * jump that is one side or the other, so points belong inside regions.
    */
   template <int dim>
   class PointEvaluator

@@ -171,15 +171,15 @@ namespace fickcast
 
     Json &results = s["results"];
     results["amount.final_total"] = quantity(final, c.units.amount);
-    for (const auto &probe : r.probes)
+    for (const auto &named_point : r.points)
       {
-        results["probe." + probe.name + ".final"] = quantity(probe.final_value, c.units.concentration);
-        if (std::isfinite(probe.threshold))
+        results["point." + named_point.name + ".final"] = quantity(named_point.final_value, c.units.concentration);
+        if (std::isfinite(named_point.threshold))
           {
-            Json t = quantity(probe.threshold_time, "s");
-            t["level"] = probe.threshold;
-            t["reached"] = std::isfinite(probe.threshold_time);
-            results["threshold." + probe.name] = t;
+            Json t = quantity(named_point.threshold_time, "s");
+            t["level"] = named_point.threshold;
+            t["reached"] = std::isfinite(named_point.threshold_time);
+            results["threshold." + named_point.name] = t;
           }
       }
     if (std::isfinite(r.released_final))

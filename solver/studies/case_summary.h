@@ -9,7 +9,7 @@ namespace fickcast
   /// One named scalar result of a case.
   struct NamedResult
   {
-    std::string name; ///< e.g. threshold.base, depth.front (its final value), probe.base.final
+    std::string name; ///< e.g. threshold.base, depth.front (its final value), point.base.final
     double value = 0; ///< SI; NaN if absent or not reached
     std::string unit;
   };

@@ -10,8 +10,8 @@ namespace fickcast
   {
     std::vector<ResultName> names;
     names.push_back({"amount.final_total", c.units.amount});
-    for (const auto &probe : c.output.probes)
-      names.push_back({"probe." + probe.name + ".final", c.units.concentration});
+    for (const auto &named_point : c.output.points)
+      names.push_back({"point." + named_point.name + ".final", c.units.concentration});
     for (const auto &threshold : c.output.thresholds)
       names.push_back({"threshold." + threshold.name, "s"});
     names.push_back({"released_fraction.final", "1"});

@@ -73,7 +73,7 @@ namespace fickcast
     if (thickness.empty())
       return overrides;
     if (layers_key)
-      throw InputError(first_edit->origin, "study." + first_edit->key,
+      throw InputError(first_edit->origin, "sweep." + first_edit->key,
                        "expected either geometry.layers or layer.NAME.thickness in one study (the layer list would "
                        "undo the thickness), found both");
     std::string layers;
@@ -95,13 +95,13 @@ namespace fickcast
 
   std::vector<StudyCase> plan_study(const CaseDescription &base)
   {
-    const StudySpec &study = base.study;
+    const SweepSpec &sweep = base.sweep;
     std::vector<StudyCase> cases;
-    if (!study.vary.empty())
+    if (!sweep.vary.empty())
       {
-        std::size_t count = study.zip ? study.vary.front().values.size() : 1;
-        if (!study.zip)
-          for (const auto &p : study.vary)
+        std::size_t count = sweep.zip ? sweep.vary.front().values.size() : 1;
+        if (!sweep.zip)
+          for (const auto &p : sweep.vary)
             count *= p.values.size();
         for (std::size_t index = 0; index < count; ++index)
           {
@@ -109,17 +109,17 @@ namespace fickcast
             c.id = case_id(index);
             // Grid: the first key varies slowest; zip: element `index` of every list.
             std::size_t rest = index;
-            std::vector<std::size_t> pick(study.vary.size());
-            for (std::size_t j = study.vary.size(); j-- > 0;)
+            std::vector<std::size_t> pick(sweep.vary.size());
+            for (std::size_t j = sweep.vary.size(); j-- > 0;)
               {
-                const std::size_t n = study.vary[j].values.size();
-                pick[j] = study.zip ? index : rest % n;
-                rest /= study.zip ? 1 : n;
+                const std::size_t n = sweep.vary[j].values.size();
+                pick[j] = sweep.zip ? index : rest % n;
+                rest /= sweep.zip ? 1 : n;
               }
             std::vector<ParameterValue> chosen;
-            for (std::size_t j = 0; j < study.vary.size(); ++j)
+            for (std::size_t j = 0; j < sweep.vary.size(); ++j)
               {
-                const auto &p = study.vary[j];
+                const auto &p = sweep.vary[j];
                 c.parameters.emplace_back(p.key, p.values[pick[j]]);
                 chosen.push_back({p.key, p.values[pick[j]], p.origin});
               }
@@ -129,7 +129,7 @@ namespace fickcast
         return cases;
       }
     std::vector<Distribution> inputs;
-    for (const auto &p : study.sample)
+    for (const auto &p : sweep.sample)
       {
         try
           {
@@ -137,10 +137,10 @@ namespace fickcast
           }
         catch (const UnitError &error)
           {
-            throw InputError(p.origin, "study.sample." + p.key, error.what());
+            throw InputError(p.origin, "sweep.sample." + p.key, error.what());
           }
       }
-    const auto values = latin_hypercube(inputs, study.samples, study.seed);
+    const auto values = latin_hypercube(inputs, sweep.samples, sweep.seed);
     for (std::size_t i = 0; i < values.size(); ++i)
       {
         StudyCase c;
@@ -149,8 +149,8 @@ namespace fickcast
         for (std::size_t j = 0; j < inputs.size(); ++j)
           {
             const std::string value = format_number(values[i][j], inputs[j].unit);
-            c.parameters.emplace_back(study.sample[j].key, value);
-            chosen.push_back({study.sample[j].key, value, study.sample[j].origin});
+            c.parameters.emplace_back(sweep.sample[j].key, value);
+            chosen.push_back({sweep.sample[j].key, value, sweep.sample[j].origin});
           }
         c.overrides = case_overrides(base, chosen);
         cases.push_back(c);
@@ -176,10 +176,10 @@ namespace fickcast
                            "the case rejects " + p.key + " = '" + value + "': " + rejection_reason(error));
         }
     };
-    for (const auto &p : base.study.vary)
+    for (const auto &p : base.sweep.vary)
       for (const auto &value : p.values)
-        check(p, "study.vary." + p.key, value);
-    for (const auto &p : base.study.sample)
+        check(p, "sweep.vary." + p.key, value);
+    for (const auto &p : base.sweep.sample)
       {
         Distribution d;
         try
@@ -188,9 +188,9 @@ namespace fickcast
           }
         catch (const UnitError &error)
           {
-            throw InputError(p.origin, "study.sample." + p.key, error.what());
+            throw InputError(p.origin, "sweep.sample." + p.key, error.what());
           }
-        check(p, "study.sample." + p.key, format_number(d.median(), d.unit));
+        check(p, "sweep.sample." + p.key, format_number(d.median(), d.unit));
       }
   }
 

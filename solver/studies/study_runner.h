@@ -71,14 +71,14 @@ namespace fickcast
    * under FOLDER/cases/ID; a case whose folder already holds a summary is kept, not recomputed,
    * when the same study (same plan) is run again into the same folder. A failing case is
    * recorded with its message and the study goes on. On SIGINT/SIGTERM the ranks stop after
-   * removing the case they were solving. Rank 0 then writes FOLDER/study.csv (and, for uncertainty
-   * studies, study_summary.json). Throws InputError if FOLDER holds something else.
+   * removing the case they were solving. Rank 0 then writes FOLDER/sweep.csv (and, for uncertainty
+   * studies, sweep_summary.json). Throws InputError if FOLDER holds something else.
    */
   StudyTotals run_study(const CaseDescription &base, const std::vector<StudyCase> &cases, const StudyOptions &options,
                         MPI_Comm communicator, const std::function<void(const CaseEvent &)> &on_case);
 
-  /// Writes FOLDER/study.csv (one row per case: parameters, named results, status, message,
-  /// wall time) and FOLDER/study_summary.json (status counts; for an uncertainty study the mean,
+  /// Writes FOLDER/sweep.csv (one row per case: parameters, named results, status, message,
+  /// wall time) and FOLDER/sweep_summary.json (status counts; for an uncertainty study the mean,
   /// P5, P50, P95 of each result and the probabilities of crossing the stated limits). Rank 0
   /// only.
   StudyTable tabulate_study(const CaseDescription &base, const std::vector<StudyCase> &cases,

@@ -1,4 +1,4 @@
-// study.csv and study_summary.json from the case folders of a study.
+// sweep.csv and sweep_summary.json from the case folders of a study.
 #include "case/input_error.h"
 #include "case/quantity_text.h"
 #include "case/units.h"
@@ -74,7 +74,7 @@ namespace fickcast
         summaries.push_back(s);
       }
 
-    const std::string table_path = folder + "/study.csv";
+    const std::string table_path = folder + "/sweep.csv";
     {
       std::ofstream out(table_path + ".partial");
       out << "case";
@@ -111,16 +111,17 @@ namespace fickcast
 
     Json summary = Json::object();
     summary["program"] = "fickcast";
-    summary["kind"] = base.study.sample.empty() ? "sweep" : "uncertainty";
+    summary["title"] = base.title;
+    summary["kind"] = base.sweep.sample.empty() ? "sweep" : "uncertainty";
     summary["cases"] = static_cast<unsigned long>(cases.size());
     Json counts = Json::object();
     for (const auto &[status, count] : statuses)
       counts[status] = count;
     summary["status_counts"] = counts;
-    if (!base.study.sample.empty())
+    if (!base.sweep.sample.empty())
       {
-        summary["samples"] = base.study.samples;
-        summary["seed"] = base.study.seed;
+        summary["samples"] = base.sweep.samples;
+        summary["seed"] = base.sweep.seed;
         summary["sampling"] = "Latin hypercube, one point per stratum, strata paired by random permutations";
         summary["percentiles"] = "linear interpolation between order statistics (Hyndman and Fan 1996, type 7)";
         Json results = Json::object();
@@ -178,7 +179,7 @@ namespace fickcast
                                         quantile(values, 0.95),
                                         not_reached,
                                         {}};
-            for (const auto &limit : base.study.limits)
+            for (const auto &limit : base.sweep.limits)
               {
                 if (limit.result != name)
                   continue;
@@ -190,7 +191,7 @@ namespace fickcast
                   }
                 catch (const UnitError &error)
                   {
-                    throw InputError(limit.origin, std::string("study.") + (limit.above ? "exceed." : "below.") + name,
+                    throw InputError(limit.origin, std::string("sweep.") + (limit.above ? "exceed." : "below.") + name,
                                      error.what());
                   }
                 // An event never reached (threshold, release) counts as later than any limit.
@@ -225,11 +226,11 @@ namespace fickcast
           }
         summary["results"] = results;
       }
-    for (const auto &limit : base.study.limits)
+    for (const auto &limit : base.sweep.limits)
       if (std::none_of(columns.begin(), columns.end(), [&](const auto &col) { return col.first == limit.result; }))
-        throw InputError(limit.origin, "study." + std::string(limit.above ? "exceed." : "below.") + limit.result,
+        throw InputError(limit.origin, "sweep." + std::string(limit.above ? "exceed." : "below.") + limit.result,
                          "expected a named result of the cases, found none called '" + limit.result + "'");
-    write_json(summary, folder + "/study_summary.json");
+    write_json(summary, folder + "/sweep_summary.json");
     return table;
   }
 } // namespace fickcast

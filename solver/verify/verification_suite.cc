@@ -122,18 +122,18 @@ namespace fickcast
       list.push_back({"Semi-infinite medium, surface concentration held: profile",
                       "Crank, The Mathematics of Diffusion, 2nd ed. (1975), sec. 2.3-2.4: C/C0 = erfc(x / 2 sqrt(Dt)) "
                       "(erfc from Boost.Math)",
-                      "largest |C - C_exact| / C0 at three probes and t = 0.1, 0.5, 1 s", 1e-3,
+                      "largest |C - C_exact| / C0 at three points and t = 0.1, 0.5, 1 s", 1e-3,
                       [](const std::string &dir) {
                         const Run run =
                           run_text(dir, "erfc",
                                    "[geometry]\nlayers = m 12 m\ncell_size = 0.05 m\n[region.m]\ndiffusivity = 1 m2/s\n"
                                    "[boundary.top]\ntype = concentration\nvalue = 1 mol/m3\n[time]\nend = 1 s\n"
                                    "tolerance = 1e-6\n[output]\nfields = false\ntimes = 0.1 s, 0.5 s\n"
-                                   "probe.a = 0.2 m\nprobe.b = 0.5 m\nprobe.c = 1 m\n");
+                                   "point.a = 0.2 m\npoint.b = 0.5 m\npoint.c = 1 m\n");
                         double worst = 0;
                         for (const double t : {0.1, 0.5, 1.0})
                           for (const auto &[p, x] :
-                               {std::pair<const char *, double>{"probe.a", 0.2}, {"probe.b", 0.5}, {"probe.c", 1.0}})
+                               {std::pair<const char *, double>{"point.a", 0.2}, {"point.b", 0.5}, {"point.c", 1.0}})
                             worst = std::max(worst, std::abs(run.at(p, t) - boost::math::erfc(x / (2 * std::sqrt(t)))));
                         return worst;
                       }});
@@ -157,17 +157,17 @@ namespace fickcast
       list.push_back(
         {"Semi-infinite medium with surface mass transfer",
          "Carslaw & Jaeger, Conduction of Heat in Solids, 2nd ed. (1959), sec. 2.7 (section number from memory)",
-         "largest |C - C_exact| / Cs at three probes and t = 0.25, 1, 4 s", 1e-3, [](const std::string &dir) {
+         "largest |C - C_exact| / Cs at three points and t = 0.25, 1, 4 s", 1e-3, [](const std::string &dir) {
            const Run run =
              run_text(dir, "transfer",
                       "[geometry]\nlayers = m 25 m\ncell_size = 0.05 m\n[region.m]\ndiffusivity = 1 m2/s\n"
                       "[boundary.top]\ntype = transfer\ncoefficient = 1 m/s\nambient = 1 mol/m3\n"
                       "[time]\nend = 4 s\ntolerance = 1e-6\n[output]\nfields = false\n"
-                      "times = 0.25 s, 1 s\nprobe.a = 0 m\nprobe.b = 0.5 m\nprobe.c = 2 m\n");
+                      "times = 0.25 s, 1 s\npoint.a = 0 m\npoint.b = 0.5 m\npoint.c = 2 m\n");
            double worst = 0;
            for (const double t : {0.25, 1.0, 4.0})
              for (const auto &[p, x] :
-                  {std::pair<const char *, double>{"probe.a", 0.0}, {"probe.b", 0.5}, {"probe.c", 2.0}})
+                  {std::pair<const char *, double>{"point.a", 0.0}, {"point.b", 0.5}, {"point.c", 2.0}})
                {
                  const double eta = x / (2 * std::sqrt(t));
                  const double exact = boost::math::erfc(eta) - std::exp(x + t) * boost::math::erfc(eta + std::sqrt(t));
@@ -238,11 +238,11 @@ namespace fickcast
                                     "m2/s\n[region.b]\ndiffusivity = 0.25 m2/s\npartition = 3\n[boundary.top]\ntype = "
                                     "concentration\nambient = 1 mol/m3\n[boundary.bottom]\ntype = concentration\n"
                                     "ambient = 0 mol/m3\n[time]\nend = 2000 s\n[output]\nfields = false\n"
-                                    "probe.left = 1 m in a\nprobe.right = 1 m in b\n");
+                                    "point.left = 1 m in a\npoint.right = 1 m in b\n");
            const auto &flux = run.column("flux_in.top");
            return std::max({std::abs(flux.back() / (3.0 / 11) - 1),
-                            std::abs(run.record.probes[0].final_value / (8.0 / 11) - 1),
-                            std::abs(run.record.probes[1].final_value / (24.0 / 11) - 1)});
+                            std::abs(run.record.points[0].final_value / (8.0 / 11) - 1),
+                            std::abs(run.record.points[1].final_value / (24.0 / 11) - 1)});
          }});
       list.push_back({"Sphere releasing into a perfect sink", "Crank (1975) eq. 6.20, p. 91",
                       "largest |F - F_exact| at five times", 1e-3, [](const std::string &dir) {
@@ -293,19 +293,19 @@ namespace fickcast
         {"Sorbing, decaying solute entering a semi-infinite porous medium",
          "Crank (1975) ch. 14 (first-order reaction); van Genuchten & Alves, USDA Tech. Bull. 1661 (1982), "
          "zero velocity",
-         "largest |c - c_exact| / c0 at three probes, 10 and 100 yr", 1e-3, [](const std::string &dir) {
+         "largest |c - c_exact| / c0 at three points, 10 and 100 yr", 1e-3, [](const std::string &dir) {
            const Run run =
              run_text(dir, "sorption",
                       "[geometry]\nlayers = clay 8 m\ncell_size = 1 cm\ngrade_toward = top\ngrading = 1.02\n"
                       "[region.clay]\ndiffusivity = 5e-10 m2/s\nporosity = 0.4\nbulk_density = 1.6 g/cm3\n"
                       "distribution_coefficient = 0.5 mL/g\nhalf_life = 10 yr\n[boundary.top]\ntype = concentration\n"
                       "value = 1 mg/L\n[time]\nend = 100 yr\ntolerance = 1e-6\n[output]\nfields = false\n"
-                      "times = 10 yr\nprobe.a = 0.3 m\nprobe.b = 0.6 m\nprobe.c = 0.9 m\n");
+                      "times = 10 yr\npoint.a = 0.3 m\npoint.b = 0.6 m\npoint.c = 0.9 m\n");
            const double year = 365.25 * 86400, d = 5e-10 / 3, k = std::log(2.0) / (10 * year);
            double worst = 0;
            for (const double years : {10.0, 100.0})
              for (const auto &[p, x] :
-                  {std::pair<const char *, double>{"probe.a", 0.3}, {"probe.b", 0.6}, {"probe.c", 0.9}})
+                  {std::pair<const char *, double>{"point.a", 0.3}, {"point.b", 0.6}, {"point.c", 0.9}})
                {
                  const double t = years * year, eta = x / (2 * std::sqrt(d * t)), root = std::sqrt(k * t),
                               m = std::sqrt(k / d);
@@ -348,7 +348,7 @@ namespace fickcast
            const Run run = run_text(dir, "breakthrough",
                                     "[geometry]\nlayers = slab 1 m\ncell_size = 0.01 m\n[region.slab]\ndiffusivity = "
                                     "1e-9 m2/s\n[boundary.top]\ntype = concentration\nvalue = 1 mol/m3\n[time]\n"
-                                    "end = 1e9 s\ntolerance = 1e-6\n[output]\nfields = false\nprobe.base = 1 m\n"
+                                    "end = 1e9 s\ntolerance = 1e-6\n[output]\nfields = false\npoint.base = 1 m\n"
                                     "threshold.base = 0.1 mol/m3\n");
            // c(L, t) / c0 = 1 - (4/pi) sum (-1)^n / (2n+1) exp(-(2n+1)^2 pi^2 T / 4), T = D t / L^2.
            auto base = [](double T) {
@@ -362,7 +362,7 @@ namespace fickcast
              boost::math::tools::toms748_solve([&](double T) { return base(T) - 0.1; }, 0.01, 1.0,
                                                boost::math::tools::eps_tolerance<double>(50), iterations);
            const double exact = 0.5 * (root.first + root.second) / 1e-9;
-           return std::abs(run.record.probes.at(0).threshold_time / exact - 1);
+           return std::abs(run.record.points.at(0).threshold_time / exact - 1);
          }});
       list.push_back({"Junction depth of an erfc profile",
                       "Jaeger, Introduction to Microelectronic Fabrication, 2nd ed. (2002), ch. 4: x_j = 2 sqrt(D t) "
@@ -381,10 +381,10 @@ namespace fickcast
         {"Temperature schedule against constant diffusivity at the same integral of D dt",
          "exact change of time variable (the thermal budget, common practice); integral by Boost.Math "
          "Gauss-Kronrod",
-         "largest relative difference of three probes", 1e-6, [](const std::string &dir) {
+         "largest relative difference of three points", 1e-6, [](const std::string &dir) {
            const std::string common = "[geometry]\nlayers = si 2 um\ncell_size = 10 nm\n[boundary.top]\ntype = "
-                                      "concentration\nvalue = 1e20 1/cm3\n[output]\nfields = false\nprobe.a = 50 nm\n"
-                                      "probe.b = 150 nm\nprobe.c = 300 nm\n";
+                                      "concentration\nvalue = 1e20 1/cm3\n[output]\nfields = false\npoint.a = 50 nm\n"
+                                      "point.b = 150 nm\npoint.c = 300 nm\n";
            const Run ramp = run_text(dir, "schedule",
                                      common + "[region.si]\ndiffusivity_prefactor = 0.76 cm2/s\nactivation_energy = "
                                               "3.46 eV\n[temperature]\nschedule = 900 degC, ramp 10 degC/min to 1100 "
@@ -406,7 +406,7 @@ namespace fickcast
            double worst = 0;
            for (std::size_t i = 0; i < 3; ++i)
              worst =
-               std::max(worst, std::abs(ramp.record.probes[i].final_value / constant.record.probes[i].final_value - 1));
+               std::max(worst, std::abs(ramp.record.points[i].final_value / constant.record.points[i].final_value - 1));
            return worst;
          }});
       return list;

@@ -69,7 +69,7 @@ namespace
                                  "[boundary.top]\ntype = concentration\nvalue = 1 kg/m3\n[boundary.bottom]\n"
                                  "type = transfer\ncoefficient = 1e-8 m/s\nambient = 0 kg/m3\n[time]\nend = 30 yr\n"
                                  "step = 0.03 yr\n[numerics]\ndegree = " +
-                                 std::to_string(degree) + "\n[output]\nprobe.base = 0.6 m\n";
+                                 std::to_string(degree) + "\n[output]\npoint.base = 0.6 m\n";
         const RunRecord r = run_text(text, "one_d_q" + std::to_string(degree), MPI_COMM_SELF, 1);
         std::printf("%8u %10lu %12.3f %12u %14.3f\n", degree, r.unknowns, r.wall_time, r.steps_accepted, r.wall_time);
       }
@@ -127,7 +127,7 @@ namespace
   // difference at 30 depths (5 mm to 150 mm) at the end time, relative to c0. The domain
   // (0.5 m, about 16 diffusion lengths) is deep enough that its far face does not matter.
   constexpr double accuracy_d = 1e-9, accuracy_end = 1e6, accuracy_depth = 0.5;
-  constexpr int accuracy_probes = 30;
+  constexpr int accuracy_points = 30;
 
   std::string number(const double value)
   {
@@ -136,7 +136,7 @@ namespace
     return buffer;
   }
 
-  double probe_depth(const int i)
+  double point_depth(const int i)
   {
     return 0.005 * (i + 1);
   }
@@ -161,14 +161,15 @@ namespace
                        number(accuracy_end) + " s\n" +
                        (step > 0 ? "step = " + number(step) + " s" : "tolerance = " + number(tolerance)) +
                        "\n[numerics]\ndegree = " + std::to_string(degree) + "\n[output]\nfields = false\n";
-    for (int i = 0; i < accuracy_probes; ++i)
-      text += "probe.p" + std::to_string(i) + " = " + number(probe_depth(i)) + " m\n";
+    for (int i = 0; i < accuracy_points; ++i)
+      text += "point.p" + std::to_string(i) + " = " + number(point_depth(i)) + " m\n";
     const auto start = std::chrono::steady_clock::now();
     const RunRecord r = run_text(text, "accuracy", MPI_COMM_SELF, 1);
     const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
     double error = 0;
-    for (const auto &probe : r.probes)
-      error = std::max(error, std::abs(probe.final_value - erfc_profile(probe_depth(std::stoi(probe.name.substr(1))))));
+    for (const auto &named_point : r.points)
+      error = std::max(
+        error, std::abs(named_point.final_value - erfc_profile(point_depth(std::stoi(named_point.name.substr(1))))));
     char what[96];
     if (step > 0)
       std::snprintf(what, sizeof(what), "Q%u, h = %.3g mm, fixed step, %u steps", degree, 1e3 * cell, r.steps_accepted);
@@ -179,7 +180,7 @@ namespace
   }
 
   // The comparison: the finite-difference script an engineer writes by hand. Uniform grid,
-  // Crank-Nicolson with a fixed step, Thomas algorithm, linear interpolation to the probes.
+  // Crank-Nicolson with a fixed step, Thomas algorithm, linear interpolation to the points.
   Cost finite_difference_run(const int intervals, const int steps)
   {
     const auto start = std::chrono::steady_clock::now();
@@ -206,12 +207,12 @@ namespace
         c[0] = 1;
       }
     double error = 0;
-    for (int i = 0; i < accuracy_probes; ++i)
+    for (int i = 0; i < accuracy_points; ++i)
       {
-        const double x = probe_depth(i) / h;
+        const double x = point_depth(i) / h;
         const int k = std::min(static_cast<int>(x), intervals - 1);
         const double value = c[k] + (x - k) * (c[k + 1] - c[k]);
-        error = std::max(error, std::abs(value - erfc_profile(probe_depth(i))));
+        error = std::max(error, std::abs(value - erfc_profile(point_depth(i))));
       }
     const double seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
     char what[96];

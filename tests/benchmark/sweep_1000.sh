@@ -13,17 +13,17 @@ for ranks in 1 2; do
   mpirun -np "$ranks" --oversubscribe "$fickcast" sweep "$here/sweep_1000.ini" --quiet \
     --output "$work/ranks_$ranks" || true
   end=$(date +%s.%N)
-  rows=$(($(wc -l < "$work/ranks_$ranks/study.csv") - 1))
-  completed=$(grep -c ',completed,' "$work/ranks_$ranks/study.csv" || true)
+  rows=$(($(wc -l < "$work/ranks_$ranks/sweep.csv") - 1))
+  completed=$(grep -c ',completed,' "$work/ranks_$ranks/sweep.csv" || true)
   awk -v r="$ranks" -v s="$start" -v e="$end" -v n="$rows" -v c="$completed" 'BEGIN {
     printf "%d rank(s): %d cases (%d completed) in %.1f s, %.1f ms per case\n", r, n, c, e - s, 1000 * (e - s) / n }'
 done
 # Every column but the last (wall time) must agree between 1 and 2 ranks.
 strip() { sed 's/,[^,]*$//' "$1"; }
-if cmp -s <(strip "$work/ranks_1/study.csv") <(strip "$work/ranks_2/study.csv"); then
-  echo "study.csv identical on 1 and 2 ranks (all columns but wall time)"
+if cmp -s <(strip "$work/ranks_1/sweep.csv") <(strip "$work/ranks_2/sweep.csv"); then
+  echo "sweep.csv identical on 1 and 2 ranks (all columns but wall time)"
 else
-  echo "study.csv DIFFERS between 1 and 2 ranks:"
-  diff <(strip "$work/ranks_1/study.csv") <(strip "$work/ranks_2/study.csv") | head -5 || true
+  echo "sweep.csv DIFFERS between 1 and 2 ranks:"
+  diff <(strip "$work/ranks_1/sweep.csv") <(strip "$work/ranks_2/sweep.csv") | head -5 || true
   exit 1
 fi

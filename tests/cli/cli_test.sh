@@ -23,9 +23,24 @@ grep -q -- "--overwrite" "$scratch/out.txt" || fail "run --help lacks --overwrit
 expect_code 0 "check --help" "$fickcast" check --help
 expect_code 0 "check --keys" "$fickcast" check --keys
 grep -q "diffusivity" "$scratch/out.txt" || fail "check --keys does not list diffusivity"
+grep -q "^\[sweep\]" "$scratch/out.txt" && grep -q "^\[size\]" "$scratch/out.txt" && grep -q "max_runs" "$scratch/out.txt" ||
+  fail "check --keys does not show the [sweep] and [size] sections"
+grep -q "study\|seek\|probe" "$scratch/out.txt" && fail "check --keys still shows an old spelling"
 
 expect_code 2 "unknown verb" "$fickcast" rnu "$case_file"
 grep -q "did you mean 'run'" "$scratch/err.txt" || fail "unknown verb gives no suggestion"
+# Spellings of fickcast 0.7 on the command line: one line naming the new spelling, exit 2.
+expect_code 2 "the old sizing verb" "$fickcast" seek "$case_file"
+grep -q "write 'fickcast size'" "$scratch/err.txt" || fail "the old verb seek does not name size: $(cat "$scratch/err.txt")"
+[ "$(wc -l <"$scratch/err.txt")" -eq 1 ] || fail "the old verb seek gives more than one line"
+expect_code 2 "--set of an old sizing key" "$fickcast" check "$case_file" --set "study.seek.key=time.end"
+grep -q -- "--set: study.seek.key: .*write \`parameter\` in a \[size\] section" "$scratch/err.txt" ||
+  fail "--set study.seek.key does not name [size] parameter: $(cat "$scratch/err.txt")"
+expect_code 2 "--set of an old point key" "$fickcast" check "$case_file" --set "output.probe.x=0.1 m"
+grep -q -- "write \`point.x\` in \[output\]" "$scratch/err.txt" ||
+  fail "--set output.probe.x does not name point.x: $(cat "$scratch/err.txt")"
+expect_code 2 "sweep --vary into an old section" "$fickcast" check "$case_file" --set "study.vary.time.end=1 yr, 2 yr"
+grep -q "in a \[sweep\] section" "$scratch/err.txt" || fail "--set study.vary does not name [sweep]: $(cat "$scratch/err.txt")"
 expect_code 2 "missing case file argument" "$fickcast" run
 expect_code 2 "case file that does not exist" "$fickcast" run "$scratch/nowhere.ini"
 grep -q "nowhere.ini" "$scratch/err.txt" || fail "missing file not named"

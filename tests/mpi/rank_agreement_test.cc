@@ -46,7 +46,7 @@ ambient = 0.3 mol/m3
 end = 5 yr
 [output]
 fields_every = 1 yr
-probe.a = 0.75 m, 0.3 m
+point.a = 0.75 m, 0.3 m
 )";
 
     struct Observed
@@ -111,7 +111,7 @@ probe.a = 0.75 m, 0.3 m
         << "boundary " << one.record.boundaries[b];
     EXPECT_EQ(one.record.steps_accepted, many.record.steps_accepted);
   }
-  // Probes, fluxes and events (threshold, release, depth, time lag) of a 2-D case on one and two
+  // Points, fluxes and events (threshold, release, depth, time lag) of a 2-D case on one and two
   // ranks, both with CG and algebraic multigrid to a relative residual of 1e-14 and fixed steps,
   // agree to 1e-10 relative.
   TEST(RankAgreement, ProbesFluxesAndEventsAgreeTo1e10)
@@ -144,7 +144,7 @@ solver_tolerance = 1e-14
 [output]
 fields = false
 fields_every = 0.5 yr
-probe.mid = 0.55 m, 0.7 m
+point.mid = 0.55 m, 0.7 m
 threshold.mid = 1.2 mol/m3
 line.down = 0.4 m, 0.7 m to 0.4 m, 1 m
 depth.down = 0.3 mol/m3
@@ -168,8 +168,8 @@ time_lag.out = bottom
       EXPECT_NEAR(a, b, 1e-10 * std::max(std::abs(a), std::abs(b))) << what;
       std::printf("%s: one rank %.15g, two ranks %.15g\n", what.c_str(), a, b);
     };
-    same(one.probes[0].final_value, many.probes[0].final_value, "probe.mid");
-    same(one.probes[0].threshold_time, many.probes[0].threshold_time, "threshold.mid");
+    same(one.points[0].final_value, many.points[0].final_value, "point.mid");
+    same(one.points[0].threshold_time, many.points[0].threshold_time, "threshold.mid");
     same(one.releases[0].time, many.releases[0].time, "release.some");
     same(one.time_lags[0].final_flux, many.time_lags[0].final_flux, "flux through bottom");
     same(one.time_lags[0].time_lag, many.time_lags[0].time_lag, "time_lag.out");

@@ -37,7 +37,7 @@ awk -F, 'NR>2 && $3 > 0 { found = 1 } END { exit !found }' "$out/c1.csv" || fail
 
 # plots and report
 "$post" plots "$base" --output "$out/plots" >"$out/plots.txt" || fail "plots"
-for f in profile_depth probes amounts; do
+for f in profile_depth points amounts; do
   [ -s "$out/plots/$f.png" ] && [ -s "$out/plots/$f.svg" ] || fail "plot $f missing"
 done
 "$post" report "$base" --output "$out/report" >/dev/null || fail "report"

@@ -23,7 +23,7 @@ value = 5 mg/L
 end = 10 s
 [output]
 fields_every = 2.5 s
-probe.mid = 0.5 m
+point.mid = 0.5 m
 threshold.mid = 1 mg/L
 line.depth = 0 m to 1 m
 samples.depth = 41

@@ -46,7 +46,7 @@ value = 3 mg/L
 end = 20 s
 [output]
 fields_every = 5 s
-probe.middle = 0.5 m
+point.middle = 0.5 m
 threshold.middle = 0.5 mg/L
 line.depth = 0 m to 1 m
 samples.depth = 51
@@ -115,9 +115,9 @@ samples.depth = 51
         EXPECT_TRUE(std::filesystem::is_regular_file(image)) << image;
         pngs += image.size() > 4 && image.substr(image.size() - 4) == ".png" ? 1 : 0;
       }
-    // Profile along the line, probe history, amounts (no released fraction: the body starts empty).
+    // Profile along the line, point history, amounts (no released fraction: the body starts empty).
     EXPECT_EQ(pngs, 3u);
-    for (const char *stem : {"profile_depth.png", "probes.png", "amounts.png"})
+    for (const char *stem : {"profile_depth.png", "points.png", "amounts.png"})
       EXPECT_TRUE(std::filesystem::is_regular_file(folder + "/report/" + stem)) << stem;
 
     // Images load: the page's own script counts them after load.

@@ -1,5 +1,5 @@
 // Sampling the written fields along the depth reproduces the erfc profile of a semi-infinite
-// medium with its surface concentration held, to the tolerance the solver's own probes meet.
+// medium with its surface concentration held, to the tolerance the solver's own points meet.
 #include "case_runner.h"
 
 #include "csv_table.h"
@@ -34,14 +34,14 @@ end = 1 s
 tolerance = 1e-6
 [output]
 times = 0.1 s, 0.5 s
-probe.one = 1 m
-probe.two = 2.5 m
+point.one = 1 m
+point.two = 2.5 m
 )";
   } // namespace
 
   // Crank, The Mathematics of Diffusion, 2nd ed. (1975), ch. 2-3 (sec. 2.3-2.4, eq. 2.45; numbers
   // from memory): C/C0 = erfc(x / (2 sqrt(D t))) for C(0, t) = C0, C(x, 0) = 0, here D = 1 m2/s,
-  // C0 = 1 mol/m3. erfc from Boost.Math. The solver's own fields and probes meet 1e-3 of C0
+  // C0 = 1 mol/m3. erfc from Boost.Math. The solver's own fields and points meet 1e-3 of C0
   // (tests/verification/semi_infinite_test.cc); sampling must meet the same along 0..10 m
   // (the 12 m domain keeps the far-boundary effect near erfc(5)).
   TEST(Sampling, DepthProfileFromFieldsMatchesErfc)
@@ -72,19 +72,19 @@ probe.two = 2.5 m
       }
   }
 
-  // Consistency with the solver: sampling at a probe's position gives the value the solver
-  // recorded for that probe in series.csv at the same output time (VTU values are float32,
+  // Consistency with the solver: sampling at a point's position gives the value the solver
+  // recorded for that point in series.csv at the same output time (VTU values are float32,
   // so agreement is to about 1e-6 of C0, not to round-off).
-  TEST(Sampling, ValueAtProbeEqualsSolverProbe)
+  TEST(Sampling, ValueAtPointEqualsSolverPoint)
   {
-    const CaseDescription description = testing::describe(erfc_case, "post_sampling_probe");
+    const CaseDescription description = testing::describe(erfc_case, "post_sampling_point");
     ASSERT_EQ(testing::run(description).status, "completed");
     const std::string folder = description.output.folder;
     const RunSummary summary = read_run_summary(folder + "/summary.json");
     const FieldSeries series(folder);
     const CsvTable table = CsvTable::read(folder + "/series.csv");
     const auto times = table.numbers("time");
-    const auto one = table.numbers("probe.one"), two = table.numbers("probe.two");
+    const auto one = table.numbers("point.one"), two = table.numbers("point.two");
     std::size_t checked = 0;
     for (std::size_t k = 1; k < series.times().size(); ++k)
       for (std::size_t r = 0; r < times.size(); ++r)
@@ -93,8 +93,8 @@ probe.two = 2.5 m
             const auto grid = series.load(k);
             const Samples s = sample_fields(grid, {{1, 0, 0}, {2.5, 0, 0}}, {"concentration"}, 1, summary.degree,
                                             series.times()[k].file);
-            EXPECT_NEAR(s.values[0][0], one[r], 1e-6) << "probe one at t = " << times[r];
-            EXPECT_NEAR(s.values[0][1], two[r], 1e-6) << "probe two at t = " << times[r];
+            EXPECT_NEAR(s.values[0][0], one[r], 1e-6) << "point one at t = " << times[r];
+            EXPECT_NEAR(s.values[0][1], two[r], 1e-6) << "point two at t = " << times[r];
             ++checked;
           }
     EXPECT_EQ(checked, 3u);

@@ -1,4 +1,4 @@
-// Study plots and report from study.csv, read generically. The study tables here are synthetic
+// Study plots and report from sweep.csv, read generically. The study tables here are synthetic
 // fixtures written by the test (invented numbers), not output of the solver.
 #include "case_runner.h"
 
@@ -52,7 +52,7 @@ namespace fickcast::post
   {
     const std::string folder = testing::scratch_folder("post_study_sweep");
     // Synthetic fixture: a one-parameter sweep; one case failed and must be left out.
-    write_file(folder + "/study.csv", "case,region.clay.porosity,threshold.mid [s],probe.mid.final [kg/m3],status,"
+    write_file(folder + "/sweep.csv", "case,region.clay.porosity,threshold.mid [s],point.mid.final [kg/m3],status,"
                                       "wall_time [s]\n"
                                       "c1,0.30,7.1e7,0.91,completed,0.4\n"
                                       "c2,0.35,7.6e7,0.97,completed,0.4\n"
@@ -91,22 +91,22 @@ namespace fickcast::post
                       1.2 + 0.02 * ((i * 7) % 40) - 0.5 * (porosity - 0.3));
         csv += row;
       }
-    write_file(folder + "/study.csv", csv);
-    write_file(folder + "/study_summary.json", R"({"results": {"depth.front.final": {"mean": 1.58, "p5": 1.25,
+    write_file(folder + "/sweep.csv", csv);
+    write_file(folder + "/sweep_summary.json", R"({"results": {"depth.front.final": {"mean": 1.58, "p5": 1.25,
       "p50": 1.58, "p95": 1.93, "exceedance": {"1.5 m": 0.6}}}})");
     const ReportOutcome outcome = make_study_report(folder, ReportOptions{});
     // distribution + exceedance + 2 scatter plots, PNG and SVG each
     EXPECT_EQ(outcome.images.size(), 8u);
     const std::string html = read_file(outcome.html, "the report");
     EXPECT_NE(html.find("Uncertainty study"), std::string::npos);
-    EXPECT_NE(html.find("results.depth.front.final.p95"), std::string::npos); // study_summary.json shown
+    EXPECT_NE(html.find("results.depth.front.final.p95"), std::string::npos); // sweep_summary.json shown
     EXPECT_NE(html.find("exceedance_depth_front_final.svg"), std::string::npos);
   }
 
-  // The study.csv the solver itself writes (an invented liner scenario): parameters with units
+  // The sweep.csv the solver itself writes (an invented liner scenario): parameters with units
   // (one of them a layer thickness), a message column, and a threshold that some samples do
   // not reach within the run. The report's percentiles must be those of the solver's
-  // study_summary.json (both by Hyndman and Fan 1996, definition 7, with an event not reached
+  // sweep_summary.json (both by Hyndman and Fan 1996, definition 7, with an event not reached
   // counted as later than any time).
   TEST(Study, ReadsTheSolversStudyTableAndAgreesOnItsPercentiles)
   {
@@ -129,9 +129,9 @@ value = 1500 mg/L
 end = 25 yr
 [output]
 fields = false
-probe.base = end of clay
+point.base = end of clay
 threshold.base = 250 mg/L
-[study]
+[sweep]
 sample.region.clay.tortuosity = lognormal(0.33, 0.4)
 sample.layer.clay.thickness = uniform(70 cm, 110 cm)
 samples = 24
@@ -144,7 +144,7 @@ seed = 3
     options.folder = file.substr(0, file.rfind('/')) + "/study";
     options.overwrite = true;
     const StudyTotals totals = run_study(base, plan_study(base), options, MPI_COMM_SELF, {});
-    ASSERT_EQ(totals.table.statistics.size(), 3u); // amount, probe final value, threshold
+    ASSERT_EQ(totals.table.statistics.size(), 3u); // amount, point final value, threshold
 
     const StudyTable study = read_study(options.folder);
     ASSERT_EQ(study.parameters.size(), 2u); // the message column is not a result
@@ -191,7 +191,7 @@ seed = 3
   TEST(Study, MalformedStudyTableIsAnInputError)
   {
     const std::string folder = testing::scratch_folder("post_study_bad");
-    write_file(folder + "/study.csv", "case,region.clay.porosity,threshold.mid [s],status\nc1,0.3,soon,completed\n");
+    write_file(folder + "/sweep.csv", "case,region.clay.porosity,threshold.mid [s],status\nc1,0.3,soon,completed\n");
     try
       {
         make_study_report(folder, {});
@@ -199,7 +199,7 @@ seed = 3
       }
     catch (const PostInputError &error)
       {
-        EXPECT_NE(std::string(error.what()).find("study.csv:2"), std::string::npos) << error.what();
+        EXPECT_NE(std::string(error.what()).find("sweep.csv:2"), std::string::npos) << error.what();
       }
   }
 } // namespace fickcast::post

@@ -23,7 +23,7 @@ value = 1500 mg/L
 [time]
 end = 60 yr
 [output]
-probe.base = 0.9 m
+point.base = 0.9 m
 threshold.base = 250 mg/L
 )";
 
@@ -106,9 +106,9 @@ threshold.base = 250 mg/L
     EXPECT_NE(error_of(minimal, {"region.clay.porosity=1.2"}).find("(0, 1]"), std::string::npos);
     EXPECT_NE(error_of(minimal, {"region.clay.retardation=0.5"}).find(">= 1"), std::string::npos);
     EXPECT_NE(error_of(minimal, {"time.end=0 s"}).find("time.end"), std::string::npos);
-    EXPECT_NE(error_of(minimal, {"output.probe.base=2 m"}).find("outside"), std::string::npos);
+    EXPECT_NE(error_of(minimal, {"output.point.base=2 m"}).find("outside"), std::string::npos);
     EXPECT_NE(error_of(minimal, {"boundary.side.type=sealed"}).find("boundary.side"), std::string::npos);
-    EXPECT_NE(error_of(minimal, {"output.threshold.nowhere=1 mg/L"}).find("probe"), std::string::npos);
+    EXPECT_NE(error_of(minimal, {"output.threshold.nowhere=1 mg/L"}).find("point"), std::string::npos);
     // The first concentration written decides the family; a later one in another family names it.
     const std::string family = error_of(minimal, {"boundary.top.value=2 mol/m3"});
     EXPECT_NE(family.find("output.threshold.base"), std::string::npos) << family;

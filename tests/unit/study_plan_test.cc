@@ -24,9 +24,9 @@ value = 1500 mg/L
 [time]
 end = 60 yr
 [output]
-probe.base = 0.9 m
+point.base = 0.9 m
 threshold.base = 250 mg/L
-[study]
+[sweep]
 )";
 
     std::vector<StudyCase> plan(const std::string &study)

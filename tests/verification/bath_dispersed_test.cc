@@ -47,7 +47,8 @@ namespace fickcast::testing
   TEST_P(FiniteBath, ReleaseMatchesCrankFiniteVolumeSolution)
   {
     const double alpha = GetParam();
-    // Check values of ../shared/references sec. 4 (computed there in 30 digits) for the series as coded.
+    // Check values computed in 30 digits for the series as coded (tests/verification/REFERENCES.md,
+    // "Finite bath and dispersed loading").
     if (alpha == 1)
       EXPECT_NEAR(bath_fraction(1, 0.2), 0.711628480561, 1e-9);
     else
@@ -85,8 +86,9 @@ namespace fickcast::testing
   // Dispersed drug in a planar matrix releasing into a perfect sink. Higuchi, J. Pharm. Sci. 50
   // (1961) 874: Q = sqrt(D (2A - Cs) Cs t) per unit area, valid for A >> Cs before depletion; and
   // the exact moving-front solution (Paul & McSpadden, J. Membr. Sci. 1 (1976) 33; citation from
-  // memory, solution re-derived in ../shared/references sec. 9): Q = 2 Cs sqrt(D t) / (sqrt(pi) erf a),
-  // sqrt(pi) a exp(a^2) erf(a) = Cs / (A - Cs). D = 1e-7 cm2/s, Cs = 1 mg/cm3, A = 50 mg/cm3.
+  // memory, solution re-derived in tests/verification/REFERENCES.md, "Finite bath and dispersed loading"):
+  // Q = 2 Cs sqrt(D t) / (sqrt(pi) erf a), sqrt(pi) a exp(a^2) erf(a) = Cs / (A - Cs). D = 1e-7 cm2/s,
+  // Cs = 1 mg/cm3, A = 50 mg/cm3.
   TEST(DispersedLoading, ReleaseFollowsTheSquareRootLaw)
   {
     const std::string text = R"(

@@ -25,7 +25,8 @@ namespace fickcast::testing
   {
     using dealii::Point;
 
-    // REFERENCES sec. 11, designed there and checked against numerical differentiation:
+    // Designed for this project, f checked against numerical differentiation (tests/verification/REFERENCES.md,
+    // "Manufactured solutions"):
     // u = exp(-t/2) [2 + x y^2 + sin(pi x) cos(1.5 pi y)], D = 1 + 0.5 sin(2 pi x) cos(pi y).
     const std::string exact_u = "exp(-t/2)*(2 + x*y^2 + sin(pi*x)*cos(1.5*pi*y))";
     const std::string diffusivity = "1 + 0.5*sin(2*pi*x)*cos(pi*y)";
@@ -95,11 +96,12 @@ namespace fickcast::testing
     }
   } // namespace
 
-  // Source: the manufactured solution and its check values of ../shared/references/REFERENCES.md
-  // section 11 (procedure of Roache 1998 and Salari & Knupp, SAND2000-1444).
+  // Source: the manufactured solution and its check values in tests/verification/REFERENCES.md,
+  // "Manufactured solutions" (procedure of Roache 1998 and Salari & Knupp, SAND2000-1444).
   TEST(ManufacturedSolution, SourceExpressionMatchesReferenceValues)
   {
-    // REFERENCES sec. 11 check values of f = u_t - div(D grad u) (computed in 30 digits).
+    // Check values of f = u_t - div(D grad u), computed in 30 digits (tests/verification/REFERENCES.md,
+    // "Manufactured solutions").
     const Expression f(source, {"x", "y", "t"});
     EXPECT_NEAR(f({0.25, 0.5, 0.0}), -20.6277597205, 1e-9);
     EXPECT_NEAR(f({0.5, 0.25, 0.5}), 7.94914884857, 1e-9);
@@ -112,7 +114,8 @@ namespace fickcast::testing
   };
 
   // Source: L2 error O(h^(p+1)) for Lagrange elements of degree p (Thomee, Galerkin Finite
-  // Element Methods for Parabolic Problems, 2nd ed. 2006), on the REFERENCES section 11 solution.
+  // Element Methods for Parabolic Problems, 2nd ed. 2006), on the solution of tests/verification/REFERENCES.md,
+  // "Manufactured solutions".
   TEST_P(SpatialOrder, L2ErrorFallsAsHToThePPlusOne)
   {
     const unsigned int p = GetParam();
@@ -155,8 +158,9 @@ namespace fickcast::testing
   };
 
   // Source: scheme orders 1 (implicit Euler) and 2 (Crank-Nicolson, BDF2) from Hairer & Wanner,
-  // Solving Ordinary Differential Equations II, 1996. REFERENCES sec. 11, spatially exact MMS: u = exp(-t)(1 + x + 2y +
-  // xy) lies in the Q1 space, D = 1 + x/2 + y/4, f = -exp(-t)(2 + 1.25x + 2.5y + xy); only the time error remains.
+  // Solving Ordinary Differential Equations II, 1996. Spatially exact MMS (tests/verification/REFERENCES.md,
+  // "Manufactured solutions"): u = exp(-t)(1 + x + 2y + xy) lies in the Q1 space, D = 1 + x/2 + y/4,
+  // f = -exp(-t)(2 + 1.25x + 2.5y + xy); only the time error remains.
   TEST_P(TemporalOrder, ErrorFallsWithTheSchemeOrder)
   {
     const TimeCase time_case = GetParam();

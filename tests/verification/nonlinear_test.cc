@@ -17,7 +17,7 @@ namespace fickcast::testing
     struct Uptake
     {
       double at_quarter, at_end;        ///< amount in at t = 0.25 s and 1 s
-      std::vector<double> quarter, end; ///< probes at 0.2, 0.4, 0.8, 1.6 m at those times
+      std::vector<double> quarter, end; ///< points at 0.2, 0.4, 0.8, 1.6 m at those times
       unsigned long nonlinear_iterations;
     };
 
@@ -32,7 +32,7 @@ namespace fickcast::testing
         "tolerance = 1e-7\n[numerics]\ndegree = " +
         std::to_string(degree) + "\nnonlinear_solver = " + solver +
         "\nnonlinear_tolerance = 1e-11\n[output]\nfields = false\ntimes = 0.25 s\n"
-        "probe.a = 0.2 m\nprobe.b = 0.4 m\nprobe.c = 0.8 m\nprobe.d = 1.6 m\n";
+        "point.a = 0.2 m\npoint.b = 0.4 m\npoint.c = 0.8 m\npoint.d = 1.6 m\n";
       const CaseDescription description =
         describe(text, "nonlinear_" + solver + "_" + std::to_string(static_cast<int>(1000 * cell)));
       const RunRecord record = run(description);
@@ -46,8 +46,8 @@ namespace fickcast::testing
       uptake.at_end = series.column("amount_in.top").back();
       for (const char *name : {"a", "b", "c", "d"})
         {
-          uptake.quarter.push_back(series.column(std::string("probe.") + name)[quarter]);
-          uptake.end.push_back(series.column(std::string("probe.") + name).back());
+          uptake.quarter.push_back(series.column(std::string("point.") + name)[quarter]);
+          uptake.end.push_back(series.column(std::string("point.") + name).back());
         }
       uptake.nonlinear_iterations = record.nonlinear_iterations;
       return uptake;

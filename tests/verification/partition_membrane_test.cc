@@ -11,9 +11,9 @@ namespace fickcast::testing
 {
   // Two layers in series with a partition jump (common practice: series resistances with
   // R_i = l_i / (D_i K_i), Crank 1975 ch. 4 on composite membranes; values derived and computed
-  // in ../shared/references sec. 6): l1 = 1 m, D1 = 1, K1 = 1; l2 = 2 m, D2 = 0.25, K2 = 3;
-  // reference-phase 1 at x = 0, 0 at x = 3: J = 3/11, interface phase concentrations 8/11 (layer 1)
-  // and 24/11 (layer 2).
+  // in tests/verification/REFERENCES.md, "Partition and membrane"): l1 = 1 m, D1 = 1, K1 = 1;
+  // l2 = 2 m, D2 = 0.25, K2 = 3; reference-phase 1 at x = 0, 0 at x = 3: J = 3/11, interface phase
+  // concentrations 8/11 (layer 1) and 24/11 (layer 2).
   TEST(Partition, TwoLayersAtSteadyStateMatchSeriesResistances)
   {
     const std::string text = R"(
@@ -37,8 +37,8 @@ ambient = 0 mol/m3
 end = 2000 s
 [output]
 fields = false
-probe.left = 1 m in first
-probe.right = 1 m in second
+point.left = 1 m in first
+point.right = 1 m in second
 )";
     const CaseDescription description = describe(text, "partition_jump");
     const RunRecord record = run(description);
@@ -46,12 +46,12 @@ probe.right = 1 m in second
     const CsvTable series = read_csv(description.output.folder + "/series.csv");
     const double flux = 3.0 / 11.0;
     std::printf("partition: flux %.12g (expected %.12g), interface %.12g | %.12g (expected %.12g | %.12g)\n",
-                series.column("flux_in.top").back(), flux, record.probes[0].final_value, record.probes[1].final_value,
+                series.column("flux_in.top").back(), flux, record.points[0].final_value, record.points[1].final_value,
                 8.0 / 11.0, 24.0 / 11.0);
     EXPECT_NEAR(series.column("flux_in.top").back() / flux, 1.0, 1e-6);
     EXPECT_NEAR(-series.column("flux_in.bottom").back() / flux, 1.0, 1e-6);
-    EXPECT_NEAR(record.probes[0].final_value / (8.0 / 11.0), 1.0, 1e-6);
-    EXPECT_NEAR(record.probes[1].final_value / (24.0 / 11.0), 1.0, 1e-6);
+    EXPECT_NEAR(record.points[0].final_value / (8.0 / 11.0), 1.0, 1e-6);
+    EXPECT_NEAR(record.points[1].final_value / (24.0 / 11.0), 1.0, 1e-6);
   }
 
   // Membrane permeation, time-lag method (Crank 1975 ch. 4, eqs 4.24a-c; Daynes 1920, Barrer

@@ -100,7 +100,8 @@ namespace fickcast::testing
             EXPECT_NEAR(fractions[k], expected, 1e-3) << shape << " at T = " << times[k];
           }
       }
-    // The series as coded against ../shared/references sec. 4 (computed in 30 digits).
+    // The series as coded against values computed in 30 digits (tests/verification/REFERENCES.md,
+    // "Radial and axisymmetric").
     EXPECT_NEAR(sphere_fraction(0.05), 0.606939756679, 1e-9);
     EXPECT_NEAR(cylinder_fraction(0.05), 0.452120997997, 1e-9);
   }
@@ -189,8 +190,8 @@ value = 0 mol/m3
 end = 1e5 s
 [output]
 fields = false
-probe.centre = 0 mm
-probe.interface = 1 mm in core
+point.centre = 0 mm
+point.interface = 1 mm in core
 )";
     const CaseDescription description = describe(text, "coated_sphere");
     const RunRecord record = run(description);
@@ -201,10 +202,10 @@ probe.interface = 1 mm in core
     const double centre = interface + s * a * a / (6 * d1);
     const CsvTable series = read_csv(description.output.folder + "/series.csv");
     std::printf("coated sphere: outflow %.8e (expected %.8e), c(a) %.8f (%.8f), c(0) %.8f (%.8f)\n",
-                -series.column("flux_in.outer").back(), q, record.probes[1].final_value, interface,
-                record.probes[0].final_value, centre);
+                -series.column("flux_in.outer").back(), q, record.points[1].final_value, interface,
+                record.points[0].final_value, centre);
     EXPECT_NEAR(-series.column("flux_in.outer").back() / q, 1.0, 1e-4);
-    EXPECT_NEAR(record.probes[1].final_value / interface, 1.0, 1e-4);
-    EXPECT_NEAR(record.probes[0].final_value / centre, 1.0, 1e-4);
+    EXPECT_NEAR(record.points[1].final_value / interface, 1.0, 1e-4);
+    EXPECT_NEAR(record.points[0].final_value / centre, 1.0, 1e-4);
   }
 } // namespace fickcast::testing

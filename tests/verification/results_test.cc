@@ -62,7 +62,7 @@ namespace fickcast::testing
     const double half = record.releases[0].time / 4; // D t / l^2 with l = 2 m
     std::printf("sheet half-time: D t / l^2 = %.8f (exact 0.0491826848809)\n", half);
     EXPECT_NEAR(half / 0.0491826848809, 1.0, 0.005);
-    // 90 %: D t / L^2 = 0.848085408046 (../shared/references sec. 3, computed).
+    // 90 %: D t / L^2 = 0.848085408046 (computed; tests/verification/REFERENCES.md, "Results").
     EXPECT_NEAR(record.releases[1].time / 0.848085408046, 1.0, 0.005);
   }
 
@@ -90,7 +90,7 @@ end = 20 yr
 tolerance = 1e-6
 [output]
 fields = false
-probe.base = 0.5 m
+point.base = 0.5 m
 threshold.base = 75 mg/L
 )";
     const CaseDescription description = describe(text, "breakthrough");
@@ -107,8 +107,8 @@ threshold.base = 75 mg/L
     const auto root = boost::math::tools::toms748_solve([&](double T) { return base(T) - 0.05; }, 1e-3, 1.0,
                                                         boost::math::tools::eps_tolerance<double>(50), iterations);
     const double exact = 0.5 * (root.first + root.second) * l * l / d;
-    std::printf("breakthrough: %.6e s, analytic %.6e s\n", record.probes[0].threshold_time, exact);
-    EXPECT_NEAR(record.probes[0].threshold_time / exact, 1.0, 0.005);
+    std::printf("breakthrough: %.6e s, analytic %.6e s\n", record.points[0].threshold_time, exact);
+    EXPECT_NEAR(record.points[0].threshold_time / exact, 1.0, 0.005);
   }
 
   // Junction depths (Jaeger, Introduction to Microelectronic Fabrication, 2nd ed. 2002, ch. 4; also

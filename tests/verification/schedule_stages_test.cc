@@ -18,8 +18,8 @@ namespace fickcast::testing
   {
     constexpr double boltzmann_ev = 8.617333262e-5; // eV/K, CODATA 2018 (exact from k and e)
     // Boron in silicon (intrinsic), D0 = 0.76 cm2/s, Ea = 3.46 eV: values from memory, as listed in
-    // ../shared/references sec. 8 (Fair's model as tabulated by Plummer, Deal & Griffin, Silicon
-    // VLSI Technology, 2000, ch. 7). They only set the scale here; the checks do not rest on them.
+    // tests/verification/REFERENCES.md, "Schedules and stages" (Fair's model as tabulated by Plummer, Deal &
+    // Griffin, Silicon VLSI Technology, 2000, ch. 7). They only set the scale here; the checks do not rest on them.
     double boron(const double kelvin)
     {
       return 0.76e-4 * std::exp(-3.46 / (boltzmann_ev * kelvin));
@@ -43,9 +43,9 @@ type = concentration
 value = 1e20 1/cm3
 [output]
 fields = false
-probe.a = 0.05 um
-probe.b = 0.15 um
-probe.c = 0.3 um
+point.a = 0.05 um
+point.b = 0.15 um
+point.c = 0.3 um
 )";
     const std::string scheduled = "[case]\ntitle = schedule\n" + common +
                                   "[region.silicon]\ndiffusivity_prefactor = 0.76 cm2/s\nactivation_energy = 3.46 eV\n"
@@ -78,20 +78,20 @@ probe.c = 0.3 um
     const RunRecord b = run(describe(constant_exact, "schedule_constant"));
     ASSERT_EQ(a.status, "completed");
     ASSERT_EQ(b.status, "completed");
-    for (std::size_t k = 0; k < a.probes.size(); ++k)
+    for (std::size_t k = 0; k < a.points.size(); ++k)
       {
-        std::printf("schedule: probe %s %.10e vs constant-D %.10e (relative %.2e)\n", a.probes[k].name.c_str(),
-                    a.probes[k].final_value, b.probes[k].final_value,
-                    a.probes[k].final_value / b.probes[k].final_value - 1);
-        EXPECT_NEAR(a.probes[k].final_value / b.probes[k].final_value, 1.0, 1e-6) << a.probes[k].name;
+        std::printf("schedule: point %s %.10e vs constant-D %.10e (relative %.2e)\n", a.points[k].name.c_str(),
+                    a.points[k].final_value, b.points[k].final_value,
+                    a.points[k].final_value / b.points[k].final_value - 1);
+        EXPECT_NEAR(a.points[k].final_value / b.points[k].final_value, 1.0, 1e-6) << a.points[k].name;
       }
     // And both against erfc with sqrt(Dt) = sqrt(budget) (Crank 1975 ch. 2-3): discretisation only.
     const double ns = 1e26;
-    for (std::size_t k = 0; k < a.probes.size(); ++k)
+    for (std::size_t k = 0; k < a.points.size(); ++k)
       {
         const double x = std::vector<double>{0.05e-6, 0.15e-6, 0.3e-6}[k];
         const double exact = ns * boost::math::erfc(x / (2 * std::sqrt(budget)));
-        EXPECT_NEAR(a.probes[k].final_value / exact, 1.0, 1e-3) << a.probes[k].name;
+        EXPECT_NEAR(a.points[k].final_value / exact, 1.0, 1e-3) << a.points[k].name;
       }
   }
 
@@ -100,7 +100,7 @@ probe.c = 0.3 um
   // to the limited-source Gaussian N = Q / sqrt(pi D2 t2) exp(-x^2 / (4 D2 t2)) (Jaeger, Introduction
   // to Microelectronic Fabrication, 2nd ed. 2002, ch. 4; Plummer et al. 2000 ch. 7). Here
   // D2 t2 / D1 t1 is about 99, so the Gaussian is expected within about 0.5 % (the exact two-step
-  // profile of ../shared/references sec. 8 differs from it by 3 % at a ratio of 10).
+  // profile differs from it by 3 % at a ratio of 10; tests/verification/REFERENCES.md, "Schedules and stages").
   TEST(Stages, PredepositionThenDriveInTendsToTheGaussian)
   {
     const std::string text = R"(
@@ -128,7 +128,7 @@ tolerance = 1e-6
 [output]
 fields = false
 times = 1 h
-probe.surface = 0 um
+point.surface = 0 um
 depth.junction = 1e16 1/cm3
 )";
     const CaseDescription description = describe(text, "two_step");
@@ -154,8 +154,8 @@ depth.junction = 1e16 1/cm3
     const double nb = 1e22; // 1e16 cm^-3
     const double junction = 2 * std::sqrt(dt2) * std::sqrt(std::log(q / (nb * std::sqrt(pi * dt2))));
     std::printf("two-step: surface %.6e vs Gaussian %.6e; junction %.6e m vs Gaussian %.6e m\n",
-                record.probes[0].final_value, surface, record.depths[0].depths.back(), junction);
-    EXPECT_NEAR(record.probes[0].final_value / surface, 1.0, 0.005);
+                record.points[0].final_value, surface, record.depths[0].depths.back(), junction);
+    EXPECT_NEAR(record.points[0].final_value / surface, 1.0, 0.005);
     EXPECT_NEAR(record.depths[0].depths.back() / junction, 1.0, 0.005);
   }
 } // namespace fickcast::testing

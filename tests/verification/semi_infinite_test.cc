@@ -65,7 +65,7 @@ times = 0.1 s, 0.5 s
   // transfer at the surface; section number from memory), in diffusion form (Crank 1975 ch. 3):
   // -D dC/dx = k (Cs - C) at x = 0, H = k / D:
   // C/Cs = erfc(eta) - exp(H x + H^2 D t) erfc(eta + H sqrt(D t)), eta = x / (2 sqrt(D t)).
-  // Check values from ../shared/references (D = 1, k = 1): C(0, 1) = 0.5724164238.
+  // Check value from tests/verification/REFERENCES.md, "Semi-infinite medium" (D = 1, k = 1): C(0, 1) = 0.5724164238.
   TEST(SemiInfinite, SurfaceMassTransferMatchesCarslawJaeger)
   {
     const std::string text = R"(

@@ -27,7 +27,7 @@ namespace fickcast::testing
     }
   } // namespace
 
-  // Inputs of ../shared/references sec. 7 (typical magnitudes, chosen there): D* = 5e-10 m2/s,
+  // Inputs chosen as typical magnitudes (tests/verification/REFERENCES.md, "Sorption and decay"): D* = 5e-10 m2/s,
   // porosity 0.4, dry density 1.6 g/cm3, Kd = 0.5 mL/g (R = 3), half-life 10 yr.
   class SorptionDecay : public ::testing::TestWithParam<bool>
   {
@@ -61,9 +61,9 @@ tolerance = 1e-6
 [output]
 fields = false
 times = 10 yr, 30 yr
-probe.a = 0.3 m
-probe.b = 0.6 m
-probe.c = 0.9 m
+point.a = 0.3 m
+point.b = 0.6 m
+point.c = 0.9 m
 )";
     const CaseDescription description = describe(text, dissolved_only ? "sorption_dissolved" : "sorption_total");
     ASSERT_NEAR(description.regions[0].retardation, 3.0, 1e-12); // 1 + 1.6 * 0.5 / 0.4
@@ -74,8 +74,8 @@ probe.c = 0.9 m
     const double k = dissolved_only ? lambda / r : lambda;
     const auto &time = series.column("time");
     const double c0 = 1e-3; // kg/m3
-    // Reference check of the formula as coded: sec. 7 table, R = 3, decay in both phases,
-    // t = 30 yr, x = 0.6 m: 0.1028171173.
+    // Reference check of the formula as coded (tests/verification/REFERENCES.md, "Sorption and decay"):
+    // R = 3, decay in both phases, t = 30 yr, x = 0.6 m: 0.1028171173.
     EXPECT_NEAR(closed_form(0.6, 30 * year, d_r, lambda), 0.1028171173, 1e-9);
     for (const double years : {10.0, 30.0, 100.0})
       {
@@ -85,7 +85,7 @@ probe.c = 0.9 m
         ASSERT_LT(row, time.size());
         for (const auto &[name, x] : {std::pair<std::string, double>{"a", 0.3}, {"b", 0.6}, {"c", 0.9}})
           {
-            const double computed = series.column("probe." + name)[row] / c0;
+            const double computed = series.column("point." + name)[row] / c0;
             const double expected = closed_form(x, years * year, d_r, k);
             std::printf("sorption/decay (%s) t = %g yr, x = %.1f m: %.8f vs %.8f\n",
                         dissolved_only ? "dissolved" : "total", years, x, computed, expected);

@@ -33,7 +33,7 @@ value = 0 mol/m3
 end = 1000 s
 [output]
 fields = false
-probe.interface = 1 m
+point.interface = 1 m
 )";
     const CaseDescription description = describe(text, "steady_layers");
     const RunRecord record = run(description);
@@ -45,6 +45,6 @@ probe.interface = 1 m
     EXPECT_NEAR(in_top / expected, 1.0, 1e-8);
     EXPECT_NEAR(-in_bottom / expected, 1.0, 1e-8);
     // Interface concentration: 1 - J l1 / D1 = 8/9.
-    EXPECT_NEAR(record.probes.at(0).final_value, 8.0 / 9.0, 1e-8);
+    EXPECT_NEAR(record.points.at(0).final_value, 8.0 / 9.0, 1e-8);
   }
 } // namespace fickcast::testing

@@ -1,10 +1,10 @@
-// Studies against analytic answers: seek inverts the membrane time lag, and a Latin hypercube
+// Studies against analytic answers: sizing inverts the membrane time lag, and a Latin hypercube
 // sample of a normal input reproduces the analytic mean and percentiles of a linear result.
 #include "case_runner.h"
 
 #include "case/case_reader.h"
 #include "case/input_error.h"
-#include "studies/seek.h"
+#include "studies/sizing.h"
 #include "studies/study_plan.h"
 #include "studies/study_runner.h"
 
@@ -20,51 +20,51 @@ namespace fickcast::testing
 {
   namespace
   {
-    /// The folder a seek of the case file @p file writes.
-    std::string seek_folder(const std::string &file)
+    /// The folder a sizing of the case file @p file writes.
+    std::string size_folder(const std::string &file)
     {
-      return file.substr(0, file.rfind('/')) + "/seek";
+      return file.substr(0, file.rfind('/')) + "/sizing";
     }
 
-    SeekOutcome seek_file(const std::string &file)
+    SizingOutcome size_file(const std::string &file)
     {
-      SeekOptions options;
+      SizingOptions options;
       options.case_file = file;
-      options.folder = seek_folder(file);
+      options.folder = size_folder(file);
       options.overwrite = true;
-      return run_seek(read_case(file), options, MPI_COMM_WORLD, {});
+      return run_sizing(read_case(file), options, MPI_COMM_WORLD, {});
     }
 
-    SeekOutcome seek(const std::string &text, const std::string &name)
+    SizingOutcome sizing(const std::string &text, const std::string &name)
     {
-      return seek_file(write_case(text, name));
+      return size_file(write_case(text, name));
     }
-    /// A membrane between a fixed top concentration and a sink, sized by seek for a time lag
+    /// A membrane between a fixed top concentration and a sink, sized by sizing for a time lag
     /// of 400 s between @p low and @p high (cell size and run length as given).
-    std::string membrane_seek_case(const std::string &title, const std::string &cell, const std::string &end,
+    std::string membrane_size_case(const std::string &title, const std::string &cell, const std::string &end,
                                    const std::string &low, const std::string &high, const std::string &extra)
     {
       return "[case]\ntitle = " + title + "\n[geometry]\nlayers = membrane 100 um\ncell_size = " + cell +
              "\n[region.membrane]\ndiffusivity = 1e-11 m2/s\n[boundary.top]\ntype = concentration\nvalue = 5 "
              "mol/m3\n[boundary.bottom]\ntype = concentration\nvalue = 0 mol/m3\n[time]\nend = " +
              end +
-             "\n[output]\nfields = false\ntime_lag.cell = bottom\n[study]\nseek.key = layer.membrane.thickness\n"
-             "seek.low = " +
-             low + "\nseek.high = " + high + "\nseek.result = time_lag.cell\nseek.target = 400 s\n" + extra;
+             "\n[output]\nfields = false\ntime_lag.cell = bottom\n[size]\nparameter = layer.membrane.thickness\n"
+             "from = " +
+             low + "\nto = " + high + "\nresult = time_lag.cell\naim = 400 s\n" + extra;
     }
   } // namespace
 
   // Daynes-Barrer time lag of a membrane, t_L = l^2 / (6 D) (Crank 1975, The Mathematics of
-  // Diffusion, ch. 4, eq. 4.24c). Seek inverts it: the thickness giving t_L = 400 s with
+  // Diffusion, ch. 4, eq. 4.24c). Sizing inverts it: the thickness giving t_L = 400 s with
   // D = 1e-11 m2/s is l = sqrt(6 D t_L) = 154.919 um. Required: within 0.2 %.
-  TEST(Seek, MembraneThicknessForATimeLag)
+  TEST(Sizing, MembraneThicknessForATimeLag)
   {
     const std::string text =
-      membrane_seek_case("membrane sized for a time lag", "2 um", "3 h", "50 um", "300 um", "seek.tolerance = 1e-5\n");
-    const SeekOutcome outcome = seek(text, "seek_membrane");
+      membrane_size_case("membrane sized for a time lag", "2 um", "3 h", "50 um", "300 um", "tolerance = 1e-5\n");
+    const SizingOutcome outcome = sizing(text, "size_membrane");
     const double exact = std::sqrt(6 * 1e-11 * 400) * 1e6; // um
-    std::printf("seek: membrane %.9g um (exact %.9g um, error %.2e) after %zu runs; lag there %.9g s\n", outcome.value,
-                exact, outcome.value / exact - 1, outcome.evaluations.size(), outcome.result);
+    std::printf("sizing: membrane %.9g um (exact %.9g um, error %.2e) after %zu runs; lag there %.9g s\n",
+                outcome.value, exact, outcome.value / exact - 1, outcome.evaluations.size(), outcome.result);
     EXPECT_TRUE(outcome.bracketed);
     EXPECT_TRUE(outcome.converged);
     EXPECT_EQ(outcome.parameter_unit, "um");
@@ -73,11 +73,11 @@ namespace fickcast::testing
     EXPECT_LE(outcome.evaluations.size(), 20u);
   }
 
-  // Laminate time lag (Ash, Barrer & Palmer 1965, as given in ../shared/references sec. 6):
+  // Laminate time lag (Ash, Barrer & Palmer 1965; tests/verification/REFERENCES.md, "Studies"):
   // t_L = [(l1^2/D1)(R1/6 + R2/2) + (l2^2/D2)(R2/6 + R1/2)] / (R1 + R2), R_i = l_i / (D_i K_i).
   // With l1 = 1, D1 = 1, K1 = 1, D2 = 0.25, K2 = 3 the lag is 4.5303030303 at l2 = 2 (computed
-  // value in the reference). Seek recovers l2 = 2 from that lag, across a partition jump.
-  TEST(Seek, SecondLayerThicknessForALaminateTimeLag)
+  // value, same section). Sizing recovers l2 = 2 from that lag, across a partition jump.
+  TEST(Sizing, SecondLayerThicknessForALaminateTimeLag)
   {
     const std::string text = R"(
 [case]
@@ -101,15 +101,15 @@ end = 200 s
 [output]
 fields = false
 time_lag.stack = bottom
-[study]
-seek.key = layer.second.thickness
-seek.low = 1 m
-seek.high = 3 m
-seek.result = time_lag.stack
-seek.target = 4.5303030303 s
+[size]
+parameter = layer.second.thickness
+from = 1 m
+to = 3 m
+result = time_lag.stack
+aim = 4.5303030303 s
 )";
-    const SeekOutcome outcome = seek(text, "seek_laminate");
-    std::printf("seek: second layer %.9g m (exact 2, error %.2e) after %zu runs\n", outcome.value,
+    const SizingOutcome outcome = sizing(text, "size_laminate");
+    std::printf("sizing: second layer %.9g m (exact 2, error %.2e) after %zu runs\n", outcome.value,
                 outcome.value / 2 - 1, outcome.evaluations.size());
     EXPECT_TRUE(outcome.converged);
     EXPECT_NEAR(outcome.value / 2.0, 1.0, 2e-3);
@@ -117,13 +117,13 @@ seek.target = 4.5303030303 s
 
   // A range that does not bracket the target is bad input (exit 2), and the message gives the
   // result at both ends; nothing is left behind.
-  TEST(Seek, RangeThatDoesNotBracketIsRejectedWithBothEnds)
+  TEST(Sizing, RangeThatDoesNotBracketIsRejectedWithBothEnds)
   {
-    const std::string text = membrane_seek_case("unreachable lag", "5 um", "1 h", "50 um", "100 um", "");
-    const std::string file = write_case(text, "seek_no_bracket");
+    const std::string text = membrane_size_case("unreachable lag", "5 um", "1 h", "50 um", "100 um", "");
+    const std::string file = write_case(text, "size_no_bracket");
     try
       {
-        seek_file(file);
+        size_file(file);
         FAIL() << "expected InputError";
       }
     catch (const InputError &error)
@@ -131,10 +131,10 @@ seek.target = 4.5303030303 s
         const std::string message = error.what();
         EXPECT_NE(message.find("50 um"), std::string::npos) << message;
         EXPECT_NE(message.find("100 um"), std::string::npos) << message;
-        EXPECT_NE(message.find("study.seek.target"), std::string::npos) << message;
+        EXPECT_NE(message.find("size.aim"), std::string::npos) << message;
       }
     const std::string parent = file.substr(0, file.rfind('/'));
-    EXPECT_FALSE(std::filesystem::exists(seek_folder(file)));
+    EXPECT_FALSE(std::filesystem::exists(size_folder(file)));
     for (const auto &entry : std::filesystem::directory_iterator(parent))
       EXPECT_EQ(entry.path().filename().string().find("partial"), std::string::npos) << entry.path();
   }
@@ -168,7 +168,7 @@ value = 1e-6 mol/(m2 s)
 end = 1000 s
 [output]
 fields = false
-[study]
+[sweep]
 sample.boundary.top.value = normal(1 umol/(m2 s), 0.2 umol/(m2 s))
 samples = 200
 seed = 11

@@ -1,5 +1,5 @@
-// make_seek_report: the HTML report of a sizing search (fickcast seek): what was sought, the
-// answer, every evaluation, and the result against the parameter with the target marked.
+// make_size_report: the HTML report of a sizing search (fickcast size): what was sought, the
+// answer, every evaluation, and the result against the parameter with the aim marked.
 #include "csv_table.h"
 #include "html_page.h"
 #include "output_file.h"
@@ -15,43 +15,43 @@
 
 namespace fickcast::post
 {
-  bool is_seek_folder(const std::string &folder)
+  bool is_size_folder(const std::string &folder)
   {
-    return std::filesystem::is_regular_file(folder + "/seek.csv") &&
-           std::filesystem::is_regular_file(folder + "/seek_summary.json");
+    return std::filesystem::is_regular_file(folder + "/size.csv") &&
+           std::filesystem::is_regular_file(folder + "/size_summary.json");
   }
 
-  ReportOutcome make_seek_report(const std::string &seek_folder, const ReportOptions &options)
+  ReportOutcome make_size_report(const std::string &size_folder, const ReportOptions &options)
   {
-    if (!is_seek_folder(seek_folder))
-      throw PostInputError(seek_folder, "a seek folder with seek.csv and seek_summary.json", "neither or only one");
-    const Json::Value summary = read_json_file(seek_folder + "/seek_summary.json", "the seek_summary.json of a seek");
-    const CsvTable table = CsvTable::read(seek_folder + "/seek.csv");
-    const std::string key = summary["key"].asString(), result = summary["result_name"].asString();
+    if (!is_size_folder(size_folder))
+      throw PostInputError(size_folder, "a sizing folder with size.csv and size_summary.json", "neither or only one");
+    const Json::Value summary = read_json_file(size_folder + "/size_summary.json", "the size_summary.json of a sizing");
+    const CsvTable table = CsvTable::read(size_folder + "/size.csv");
+    const std::string key = summary["parameter"].asString(), result = summary["result_name"].asString();
     const std::string unit = summary["unit"].asString(), result_unit = summary["result_unit"].asString();
-    if (key.empty() || result.empty() || !summary["target"].isNumeric())
-      throw PostInputError(seek_folder + "/seek_summary.json", "key, result_name and target", "some missing");
+    if (key.empty() || result.empty() || !summary["aim"].isNumeric())
+      throw PostInputError(size_folder + "/size_summary.json", "parameter, result_name and aim", "some missing");
     const std::vector<double> x = table.numbers(table.require(key)), y = table.numbers(table.require(result));
 
-    // Times in a readable unit; other results in the unit the seek wrote.
+    // Times in a readable unit; other results in the unit the sizing wrote.
     double scale = 1;
     std::string shown_unit = result_unit;
     if (result_unit == "s")
       {
-        const TimeUnit readable = readable_time_unit(std::abs(summary["target"].asDouble()));
+        const TimeUnit readable = readable_time_unit(std::abs(summary["aim"].asDouble()));
         scale = readable.seconds;
         shown_unit = readable.symbol;
       }
-    const double target = summary["target"].asDouble() / scale;
+    const double target = summary["aim"].asDouble() / scale;
 
-    const std::string folder = options.output_folder.empty() ? seek_folder + "/report" : options.output_folder;
+    const std::string folder = options.output_folder.empty() ? size_folder + "/report" : options.output_folder;
     make_folder(folder);
     PlotFormats formats = options.formats;
     formats.png = true;
     std::vector<std::size_t> order(x.size());
     std::iota(order.begin(), order.end(), 0);
     std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return x[a] < x[b]; });
-    PlotCurve runs{"evaluations", {}, {}};
+    PlotCurve runs{"runs", {}, {}};
     double low = INFINITY, high = -INFINITY;
     for (const std::size_t i : order)
       if (std::isfinite(x[i]) && std::isfinite(y[i]))
@@ -61,18 +61,19 @@ namespace fickcast::post
           low = std::min(low, x[i]);
           high = std::max(high, x[i]);
         }
-    PlotCurve goal{"target " + format_number(target) + " " + shown_unit, {low, high}, {target, target}};
+    PlotCurve goal{"aim " + format_number(target) + " " + shown_unit, {low, high}, {target, target}};
     goal.reference = true;
     PlotSpec spec{result + " against " + key,
                   key + (unit.empty() ? "" : " [" + unit + "]"),
                   result + (shown_unit.empty() ? "" : " [" + shown_unit + "]"),
                   {runs, goal}};
-    const bool plotted = write_plot(spec, folder + "/seek_evaluations", formats);
+    spec.subject = summary["title"].asString();
+    const bool plotted = write_plot(spec, folder + "/size_runs", formats);
 
     std::string body = "<h1>Sizing search: " + html_escape(key) + "</h1>\n<p class=\"meta\">Read from <code>" +
-                       html_escape(seek_folder) + "</code> (seek.csv, seek_summary.json).</p>\n";
+                       html_escape(size_folder) + "</code> (size.csv, size_summary.json).</p>\n";
     body += html_cautions();
-    body += "<p><strong>A sizing answer is the value at which the model meets the target exactly. It carries the "
+    body += "<p><strong>A sizing answer is the value at which the model meets the aim exactly. It carries the "
             "uncertainty of every input and no safety margin.</strong></p>\n";
     body += "<h2>What was sought</h2>\n";
     body +=
@@ -81,7 +82,7 @@ namespace fickcast::post
                   {"range", format_number(summary["range"][0].asDouble(), 6) + " to " +
                               format_number(summary["range"][1].asDouble(), 6) + " " + unit},
                   {"result", result},
-                  {"target", format_number(target, 7) + " " + shown_unit},
+                  {"aim", format_number(target, 7) + " " + shown_unit},
                   {"tolerance (relative, on the parameter)", format_number(summary["tolerance_relative"].asDouble())},
                   {"method", summary["method"].asString()}});
     body += "<h2>Answer</h2>\n";
@@ -90,17 +91,17 @@ namespace fickcast::post
                         {result + " there", format_number(summary["result"].asDouble() / scale, 7) + " " + shown_unit},
                         {"final bracket", format_number(summary["bracket"][0].asDouble(), 9) + " to " +
                                             format_number(summary["bracket"][1].asDouble(), 9) + " " + unit},
-                        {"evaluations", std::to_string(summary["evaluations"].asInt())},
+                        {"runs", std::to_string(summary["runs"].asInt())},
                         {"results folder of the answer", summary["answer_folder"].asString()}});
     ReportOutcome outcome;
     if (plotted)
       {
-        body += "<h2>Plot</h2>\n<figure>" + html_embedded_png(folder + "/seek_evaluations.png", spec.title) +
-                "\n<figcaption>Each evaluation (a full run) and the target; an evaluation whose event was not reached "
+        body += "<h2>Plot</h2>\n<figure>" + html_embedded_png(folder + "/size_runs.png", spec.title) +
+                "\n<figcaption>Each evaluation (a full run) and the aim; an evaluation whose event was not reached "
                 "within the run has no point.</figcaption></figure>\n";
-        outcome.images.push_back(folder + "/seek_evaluations.png");
+        outcome.images.push_back(folder + "/size_runs.png");
         if (options.formats.svg)
-          outcome.images.push_back(folder + "/seek_evaluations.svg");
+          outcome.images.push_back(folder + "/size_runs.svg");
       }
     body += "<h2>Evaluations</h2>\n";
     std::vector<std::string> header;
@@ -116,8 +117,8 @@ namespace fickcast::post
   {
     if (is_study_folder(folder))
       return make_study_report(folder, options);
-    if (is_seek_folder(folder))
-      return make_seek_report(folder, options);
+    if (is_size_folder(folder))
+      return make_size_report(folder, options);
     return make_report(folder, options);
   }
 } // namespace fickcast::post

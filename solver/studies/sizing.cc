@@ -1,4 +1,4 @@
-#include "studies/seek.h"
+#include "studies/sizing.h"
 
 #include "case/case_reader.h"
 #include "case/input_error.h"
@@ -41,33 +41,33 @@ namespace fickcast
       return buffer;
     }
 
-    /// The range ends in the unit of seek.low.
-    void read_range(const CaseDescription &base, SeekOutcome &outcome)
+    /// The range ends in the unit of size.from.
+    void read_range(const CaseDescription &base, SizingOutcome &outcome)
     {
-      const StudySpec &s = base.study;
+      const SizeSpec &s = base.size;
       QuantityText low, high;
       try
         {
-          low = split_quantity(s.seek.values.at(0), false);
+          low = split_quantity(s.parameter.values.at(0), false);
         }
       catch (const UnitError &error)
         {
-          throw InputError(s.seek.origin, "study.seek.low", error.what());
+          throw InputError(s.parameter.origin, "size.from", error.what());
         }
       try
         {
-          high = split_quantity(s.seek.values.at(1), false);
+          high = split_quantity(s.parameter.values.at(1), false);
         }
       catch (const UnitError &error)
         {
-          throw InputError(s.seek.origin, "study.seek.high", error.what());
+          throw InputError(s.parameter.origin, "size.to", error.what());
         }
       outcome.parameter_unit = low.unit;
       outcome.low = low.number;
       if (low.unit.empty() != high.unit.empty())
-        throw InputError(s.seek.origin, "study.seek.high",
-                         "expected seek.low and seek.high both with units or both without, found '" + s.seek.values[0] +
-                           "' and '" + s.seek.values[1] + "'");
+        throw InputError(s.parameter.origin, "size.to",
+                         "expected size.from and size.to both with units or both without, found '" +
+                           s.parameter.values[0] + "' and '" + s.parameter.values[1] + "'");
       try
         {
           outcome.high =
@@ -75,33 +75,33 @@ namespace fickcast
         }
       catch (const UnitError &error)
         {
-          throw InputError(s.seek.origin, "study.seek.high",
-                           "expected the same kind of unit as seek.low ('" + low.unit + "'): " + error.what());
+          throw InputError(s.parameter.origin, "size.to",
+                           "expected the same kind of unit as size.from ('" + low.unit + "'): " + error.what());
         }
       if (!(outcome.low != outcome.high))
-        throw InputError(s.seek.origin, "study.seek.high",
+        throw InputError(s.parameter.origin, "size.to",
                          "expected a range, found both ends at " + format_value(outcome.low, low.unit));
       if (outcome.low > outcome.high)
         std::swap(outcome.low, outcome.high);
     }
   } // namespace
 
-  SeekOutcome prepare_seek(const CaseDescription &base, const std::string &case_file,
-                           const std::vector<std::string> &base_overrides)
+  SizingOutcome prepare_sizing(const CaseDescription &base, const std::string &case_file,
+                               const std::vector<std::string> &base_overrides)
   {
-    const StudySpec &spec = base.study;
-    if (!spec.has_seek())
-      throw InputError(base.file, "study.seek.key",
-                       "expected a [study] section with seek.key, seek.low, seek.high, seek.result and seek.target, "
-                       "found no seek.key");
-    SeekOutcome outcome;
-    outcome.key = spec.seek.key;
-    outcome.result_name = spec.seek_result;
+    const SizeSpec &spec = base.size;
+    if (!spec.given())
+      throw InputError(base.file, "size.parameter",
+                       "expected a [size] section with parameter, from, to, result and aim, "
+                       "found no size.parameter");
+    SizingOutcome outcome;
+    outcome.key = spec.parameter.key;
+    outcome.result_name = spec.result;
     read_range(base, outcome);
     // Checks the key before any run: a layer the case lacks fails here.
-    parameter_overrides(base, outcome.key, format_value(outcome.low, outcome.parameter_unit), spec.seek.origin);
+    parameter_overrides(base, outcome.key, format_value(outcome.low, outcome.parameter_unit), spec.parameter.origin);
 
-    outcome.target = result_level(base, outcome.result_name, spec.seek_target, spec.seek_origin, "study.seek.target");
+    outcome.target = result_level(base, outcome.result_name, spec.aim, spec.aim_origin, "size.aim");
     for (const auto &r : expected_results(base))
       if (r.name == outcome.result_name)
         outcome.result_unit = r.unit;
@@ -111,13 +111,13 @@ namespace fickcast
     const bool event = is_event_result(outcome.result_name);
     if (event && !(outcome.target < base.time.end))
       {
-        const QuantityText target_text = split_quantity(spec.seek_target, false);
+        const QuantityText target_text = split_quantity(spec.aim, false);
         const double end = target_text.unit.empty()
                              ? base.time.end
                              : base.time.end / UnitSystem::instance().to_si(1.0, target_text.unit, outcome.result_unit);
-        throw InputError(spec.seek_origin, "study.seek.target",
+        throw InputError(spec.aim_origin, "size.aim",
                          "expected a time before time.end (" + format_value(end, target_text.unit) + ") for " +
-                           outcome.result_name + ", found '" + spec.seek_target + "': lengthen time.end");
+                           outcome.result_name + ", found '" + spec.aim + "': lengthen time.end");
       }
 
     if (!case_file.empty())
@@ -125,7 +125,7 @@ namespace fickcast
         {
           const std::string value = format_value(end, outcome.parameter_unit);
           std::vector<std::string> overrides = base_overrides;
-          for (const auto &o : parameter_overrides(base, outcome.key, value, spec.seek.origin))
+          for (const auto &o : parameter_overrides(base, outcome.key, value, spec.parameter.origin))
             overrides.push_back(o);
           try
             {
@@ -133,22 +133,22 @@ namespace fickcast
             }
           catch (const InputError &error)
             {
-              throw InputError(spec.seek.origin, "study.seek.key",
+              throw InputError(spec.parameter.origin, "size.parameter",
                                "the case rejects " + outcome.key + " = '" + value + "': " + rejection_reason(error));
             }
         }
     return outcome;
   }
 
-  SeekOutcome run_seek(const CaseDescription &base, const SeekOptions &options, MPI_Comm communicator,
-                       const std::function<void(const SeekEvaluation &)> &on_evaluation)
+  SizingOutcome run_sizing(const CaseDescription &base, const SizingOptions &options, MPI_Comm communicator,
+                           const std::function<void(const SizingRun &)> &on_evaluation)
   {
-    const StudySpec &spec = base.study;
+    const SizeSpec &spec = base.size;
     const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(communicator);
-    SeekOutcome outcome = prepare_seek(base);
+    SizingOutcome outcome = prepare_sizing(base);
     const bool event = is_event_result(outcome.result_name);
     // Results in the target's unit as written, for messages.
-    const QuantityText target_text = split_quantity(spec.seek_target, false);
+    const QuantityText target_text = split_quantity(spec.aim, false);
     const auto shown = [&](const double value) {
       if (!std::isfinite(value))
         return std::string(event ? "not reached" : "missing");
@@ -158,7 +158,7 @@ namespace fickcast
                           target_text.unit);
     };
 
-    // The seek folder, complete or absent; rank 0 owns it, every rank learns its path.
+    // The sizing folder, complete or absent; rank 0 owns it, every rank learns its path.
     std::unique_ptr<ResultsFolder> folder;
 
     std::string path;
@@ -172,23 +172,23 @@ namespace fickcast
     path = dealii::Utilities::MPI::broadcast(communicator, path, 0);
 
     auto evaluate = [&](const double p) -> double {
-      SeekEvaluation e;
+      SizingRun e;
       e.index = static_cast<unsigned int>(outcome.evaluations.size() + 1);
       e.parameter = p;
       e.value = format_value(p, outcome.parameter_unit);
       char name[32];
-      std::snprintf(name, sizeof(name), "eval_%02u", e.index);
+      std::snprintf(name, sizeof(name), "run_%02u", e.index);
       std::vector<std::string> overrides = options.base_overrides;
-      for (const auto &o : parameter_overrides(base, outcome.key, e.value, spec.seek.origin))
+      for (const auto &o : parameter_overrides(base, outcome.key, e.value, spec.parameter.origin))
         overrides.push_back(o);
       const CaseDescription description = read_case(options.case_file, overrides);
       RunOptions run;
-      run.folder = path + "/evaluations/" + name;
+      run.folder = path + "/runs/" + name;
       run.overwrite = true;
       const RunOutcome ran = run_case(description, run, communicator);
       e.status = ran.record.status;
       e.message = ran.record.message;
-      e.folder = options.folder + "/evaluations/" + name;
+      e.folder = options.folder + "/runs/" + name;
 
       double value = std::nan("");
       collectively(communicator, [&] {
@@ -201,7 +201,7 @@ namespace fickcast
             std::string names;
             for (const auto &n : summary.results)
               names += (names.empty() ? "" : ", ") + n.name;
-            throw InputError(spec.seek_origin, "study.seek.result",
+            throw InputError(spec.aim_origin, "size.result",
                              "expected a named result of the case (" + names + "), found '" + outcome.result_name +
                                "'");
           }
@@ -215,7 +215,7 @@ namespace fickcast
       if (on_evaluation)
         on_evaluation(e);
       if (e.status != "completed")
-        throw RunFailure("seek: the run at " + outcome.key + " = " + e.value + " failed: " + e.message);
+        throw RunFailure("sizing: the run at " + outcome.key + " = " + e.value + " failed: " + e.message);
       return e.difference;
     };
 
@@ -225,13 +225,13 @@ namespace fickcast
     const std::string ends = "at " + outcome.key + " = " + first.value + ", " + outcome.result_name + " = " +
                              shown(first.result) + "; at " + second.value + ", " + shown(second.result);
     if (!std::isfinite(f_low) || !std::isfinite(f_high))
-      throw InputError(spec.seek_origin, "study.seek.result",
+      throw InputError(spec.aim_origin, "size.result",
                        "expected " + outcome.result_name + " at both ends of the range, found it missing (" + ends +
                          ")");
     if ((f_low > 0 && f_high > 0) || (f_low < 0 && f_high < 0))
-      throw InputError(spec.seek_origin, "study.seek.target",
-                       "expected a range whose ends give results on either side of the target " +
-                         shown(outcome.target) + ", found " + ends + ": widen or move the range");
+      throw InputError(spec.aim_origin, "size.aim",
+                       "expected a range whose ends give results on either side of the aim " + shown(outcome.target) +
+                         ", found " + ends + ": widen or move the range");
     outcome.bracketed = true;
 
     double a = outcome.low, b = outcome.high, fa = f_low, fb = f_high;
@@ -243,8 +243,8 @@ namespace fickcast
       }
     else
       {
-        const double tolerance = spec.seek_tolerance;
-        boost::uintmax_t allowed = spec.seek_max_evaluations > 3 ? spec.seek_max_evaluations - 3 : 1;
+        const double tolerance = spec.tolerance;
+        boost::uintmax_t allowed = spec.max_runs > 3 ? spec.max_runs - 3 : 1;
         const auto narrow_enough = [tolerance](const double x, const double y) {
           return std::abs(y - x) <= tolerance * std::min(std::abs(x), std::abs(y));
         };
@@ -265,8 +265,8 @@ namespace fickcast
     outcome.bracket_low = a;
     outcome.bracket_high = b;
     if (!outcome.converged)
-      throw RunFailure("seek: no convergence in " + std::to_string(outcome.evaluations.size()) +
-                       " runs (study.seek.max_evaluations); the target lies between " + outcome.key + " = " +
+      throw RunFailure("sizing: no convergence in " + std::to_string(outcome.evaluations.size()) +
+                       " runs (size.max_runs); the answer lies between " + outcome.key + " = " +
                        format_value(a, outcome.parameter_unit) + " and " + format_value(b, outcome.parameter_unit));
 
     // The answer: the secant point of the final bracket, run once more (unless it is an end).
@@ -274,11 +274,11 @@ namespace fickcast
     if (a != b)
       answer = fb != fa ? std::clamp(a - fa * (b - a) / (fb - fa), a, b) : 0.5 * (a + b);
     const auto existing = std::find_if(outcome.evaluations.begin(), outcome.evaluations.end(),
-                                       [answer](const SeekEvaluation &e) { return e.parameter == answer; });
+                                       [answer](const SizingRun &e) { return e.parameter == answer; });
     if (existing == outcome.evaluations.end())
       evaluate(answer);
     const auto final = std::find_if(outcome.evaluations.begin(), outcome.evaluations.end(),
-                                    [answer](const SeekEvaluation &e) { return e.parameter == answer; });
+                                    [answer](const SizingRun &e) { return e.parameter == answer; });
     outcome.value = answer;
     outcome.result = final->result;
 
@@ -289,23 +289,23 @@ namespace fickcast
       const std::string unit_r =
         outcome.result_unit.empty() || outcome.result_unit == "1" ? "" : " [" + outcome.result_unit + "]";
       {
-        std::ofstream out(path + "/seek.csv");
-        out << "evaluation," << outcome.key << unit_p << ',' << outcome.result_name << unit_r
-            << ",status,answer,folder\n";
+        std::ofstream out(path + "/size.csv");
+        out << "run," << outcome.key << unit_p << ',' << outcome.result_name << unit_r << ",status,answer,folder\n";
         for (const auto &e : outcome.evaluations)
           out << e.index << ',' << csv_number(e.parameter) << ',' << csv_number(e.result) << ',' << e.status << ','
-              << (e.index == final->index ? "yes" : "no") << ",evaluations/eval_" << (e.index < 10 ? "0" : "")
-              << e.index << '\n';
+              << (e.index == final->index ? "yes" : "no") << ",runs/run_" << (e.index < 10 ? "0" : "") << e.index
+              << '\n';
         if (!out)
-          throw IoError("cannot write " + path + "/seek.csv");
+          throw IoError("cannot write " + path + "/size.csv");
       }
       Json summary = Json::object();
       summary["program"] = "fickcast";
       summary["version"] = fickcast_version();
-      summary["kind"] = "seek";
+      summary["kind"] = "size";
+      summary["title"] = base.title;
       summary["method"] = "bracketing root finder of Alefeld, Potra and Shi (ACM TOMS algorithm 748), "
                           "Boost.Math toms748_solve; answer at the secant point of the final bracket";
-      summary["key"] = outcome.key;
+      summary["parameter"] = outcome.key;
       summary["unit"] = outcome.parameter_unit;
       Json range = Json::array();
       range.push_back(outcome.low);
@@ -313,8 +313,8 @@ namespace fickcast
       summary["range"] = range;
       summary["result_name"] = outcome.result_name;
       summary["result_unit"] = outcome.result_unit;
-      summary["target"] = outcome.target;
-      summary["tolerance_relative"] = spec.seek_tolerance;
+      summary["aim"] = outcome.target;
+      summary["tolerance_relative"] = spec.tolerance;
       summary["value"] = outcome.value;
       summary["value_text"] = format_value(outcome.value, outcome.parameter_unit);
       summary["result"] = outcome.result;
@@ -322,9 +322,9 @@ namespace fickcast
       bracket.push_back(outcome.bracket_low);
       bracket.push_back(outcome.bracket_high);
       summary["bracket"] = bracket;
-      summary["evaluations"] = static_cast<unsigned long>(outcome.evaluations.size());
+      summary["runs"] = static_cast<unsigned long>(outcome.evaluations.size());
       summary["answer_folder"] = final->folder;
-      write_json(summary, path + "/seek_summary.json");
+      write_json(summary, path + "/size_summary.json");
       folder->commit();
     });
     outcome.folder = options.folder;

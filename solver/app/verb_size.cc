@@ -5,7 +5,7 @@
 
 #include "case/case_reader.h"
 #include "studies/result_names.h"
-#include "studies/seek.h"
+#include "studies/sizing.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -14,40 +14,40 @@
 
 namespace fickcast
 {
-  int verb_seek(const Invocation &invocation, MPI_Comm communicator)
+  int verb_size(const Invocation &invocation, MPI_Comm communicator)
   {
     const bool root = dealii::Utilities::MPI::this_mpi_process(communicator) == 0;
     const CaseDescription base = read_case(invocation.case_file, invocation.overrides);
     const DisplayUnits units(base, 7);
     const bool talk = root && !invocation.quiet;
 
-    SeekOptions options;
+    SizingOptions options;
     options.case_file = invocation.case_file;
     options.base_overrides = invocation.overrides;
-    options.folder = invocation.output.empty() ? base.output.folder + "_seek" : invocation.output;
+    options.folder = invocation.output.empty() ? base.output.folder + "_size" : invocation.output;
     options.overwrite = invocation.overwrite;
 
-    prepare_seek(base, invocation.case_file, invocation.overrides); // every check before the first run
+    prepare_sizing(base, invocation.case_file, invocation.overrides); // every check before the first run
     if (talk)
       {
         std::printf("%s: %s\n", base.file.c_str(), base.title.c_str());
-        std::printf("  seek %s in [%s, %s] so that %s = %s\n", base.study.seek.key.c_str(),
-                    base.study.seek.values.at(0).c_str(), base.study.seek.values.at(1).c_str(),
-                    base.study.seek_result.c_str(), base.study.seek_target.c_str());
+        std::printf("  size %s from %s to %s so that %s = %s\n", base.size.parameter.key.c_str(),
+                    base.size.parameter.values.at(0).c_str(), base.size.parameter.values.at(1).c_str(),
+                    base.size.result.c_str(), base.size.aim.c_str());
         std::fflush(stdout);
       }
     std::string result_unit;
     for (const auto &r : expected_results(base))
-      if (r.name == base.study.seek_result)
+      if (r.name == base.size.result)
         result_unit = r.unit;
-    const SeekOutcome outcome = run_seek(base, options, communicator, [&](const SeekEvaluation &e) {
+    const SizingOutcome outcome = run_sizing(base, options, communicator, [&](const SizingRun &e) {
       if (!talk)
         return;
       if (e.status == "completed")
-        std::printf("  run %2u: %s = %-20s %s = %s\n", e.index, base.study.seek.key.c_str(), e.value.c_str(),
-                    base.study.seek_result.c_str(), units.result(e.result, result_unit, true).c_str());
+        std::printf("  run %2u: %s = %-20s %s = %s\n", e.index, base.size.parameter.key.c_str(), e.value.c_str(),
+                    base.size.result.c_str(), units.result(e.result, result_unit, true).c_str());
       else
-        std::printf("  run %2u: %s = %-20s %s: %s\n", e.index, base.study.seek.key.c_str(), e.value.c_str(),
+        std::printf("  run %2u: %s = %-20s %s: %s\n", e.index, base.size.parameter.key.c_str(), e.value.c_str(),
                     e.status.c_str(), e.message.c_str());
       std::fflush(stdout);
     });
@@ -55,10 +55,10 @@ namespace fickcast
       return invocation.report && root ? write_report(outcome.folder, true) : exit_success;
     std::printf("  answer: %s = %.8g %s (bracket %.8g to %.8g after %zu runs)\n", outcome.key.c_str(), outcome.value,
                 outcome.parameter_unit.c_str(), outcome.bracket_low, outcome.bracket_high, outcome.evaluations.size());
-    std::printf("          %s = %s at the answer (target %s)\n", outcome.result_name.c_str(),
+    std::printf("          %s = %s at the answer (aim %s)\n", outcome.result_name.c_str(),
                 units.result(outcome.result, result_unit, true).c_str(),
                 units.result(outcome.target, result_unit, true).c_str());
-    std::printf("results: %s (seek.csv, seek_summary.json, evaluations/)\n", outcome.folder.c_str());
+    std::printf("results: %s (size.csv, size_summary.json, runs/)\n", outcome.folder.c_str());
     std::printf("  Model predictions support, but do not replace, testing and engineering judgement; see the\n"
                 "  README's cautions before using them for medical, containment or safety decisions.\n");
     std::fflush(stdout);
