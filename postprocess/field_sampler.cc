@@ -44,7 +44,7 @@ namespace fickcast::post
 
   Samples sample_fields(vtkUnstructuredGrid *grid, const std::vector<Point> &points,
                         const std::vector<std::string> &fields, const unsigned int dimension, const unsigned int degree,
-                        const std::string &file)
+                        const std::string &file, const std::vector<Point> &sides)
   {
     for (const auto &name : fields)
       require_field(grid, name, file);
@@ -62,7 +62,8 @@ namespace fickcast::post
     for (std::size_t i = 0; i < points.size(); ++i)
       {
         std::array<double, 3> xi;
-        samples.inside[i] = mesh.locate(points[i], element[i], xi);
+        samples.inside[i] = i < sides.size() ? mesh.locate_beside(points[i], sides[i], element[i], xi)
+                                             : mesh.locate(points[i], element[i], xi);
         if (samples.inside[i])
           mesh.shape_values(xi, shape[i]);
       }

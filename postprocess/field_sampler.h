@@ -35,7 +35,7 @@ namespace fickcast::post
    */
   Samples sample_fields(vtkUnstructuredGrid *grid, const std::vector<Point> &points,
                         const std::vector<std::string> &fields, unsigned int dimension, unsigned int degree,
-                        const std::string &file);
+                        const std::string &file, const std::vector<Point> &sides = {});
 
   /// Parses `X[,Y[,Z]]` with exactly @p dimension coordinates in metres; PostInputError otherwise.
   Point parse_point(const std::string &text, unsigned int dimension, const std::string &where);

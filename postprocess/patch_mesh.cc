@@ -11,6 +11,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 namespace fickcast::post
 {
@@ -197,6 +198,34 @@ namespace fickcast::post
       for (unsigned int d = 0; d < dim_; ++d)
         xi[d] = std::clamp(pcoords[d], 0.0, 1.0);
     return true;
+  }
+
+  bool PatchMesh::locate_beside(const std::array<double, 3> &point, const std::array<double, 3> &inside_point,
+                                std::size_t &element, std::array<double, 3> &xi) const
+  {
+    std::array<double, 3> unused;
+    if (!locate(inside_point, element, unused))
+      return false;
+    const unsigned int m = order_;
+    const vtkIdType per_cells = patches_ ? power(m, dim_) : 1;
+    const double tolerance = 1e-7 * grid_->GetLength();
+    auto cell = vtkSmartPointer<vtkGenericCell>::New();
+    double x[3] = {point[0], point[1], point[2]};
+    double best = std::numeric_limits<double>::infinity();
+    for (vtkIdType local = 0; local < per_cells; ++local)
+      {
+        grid_->GetCell(static_cast<vtkIdType>(element) * per_cells + local, cell);
+        double closest[3], pcoords[3], distance2 = 0, weights[8];
+        int sub_id = 0;
+        if (cell->EvaluatePosition(x, closest, sub_id, pcoords, distance2, weights) < 0 || !(distance2 < best))
+          continue;
+        best = distance2;
+        const auto l = static_cast<unsigned int>(local);
+        const unsigned int sub[3] = {l % m, (l / m) % m, l / (m * m)};
+        for (unsigned int d = 0; d < 3; ++d)
+          xi[d] = d < dim_ ? std::clamp(patches_ ? (sub[d] + pcoords[d]) / m : pcoords[d], 0.0, 1.0) : 0.0;
+      }
+    return best <= tolerance * tolerance;
   }
 
   void PatchMesh::shape_gradients(const std::array<double, 3> &xi, std::vector<double> &values,

@@ -42,6 +42,13 @@ namespace fickcast::post
     /// Element containing @p point and its reference coordinates in [0,1]^dim; false if outside.
     bool locate(const std::array<double, 3> &point, std::size_t &element, std::array<double, 3> &xi) const;
 
+    /// As locate, but on the side of @p inside_point: the element containing @p inside_point (a
+    /// point strictly inside an element, say its centre) and @p point's reference coordinates in
+    /// it, so a point on a face between two elements is read from the element wanted. False if
+    /// @p point is not in (or on the boundary of) that element.
+    bool locate_beside(const std::array<double, 3> &point, const std::array<double, 3> &inside_point,
+                       std::size_t &element, std::array<double, 3> &xi) const;
+
     /// Lagrange shape values (one per node, lexicographic) at reference point @p xi.
     void shape_values(const std::array<double, 3> &xi, std::vector<double> &values) const;
     /// Shape values and reference gradients at @p xi.

@@ -1,6 +1,7 @@
 #include "results_comparison.h"
 
 #include "field_series.h"
+#include "patch_mesh.h"
 #include "post_error.h"
 #include "run_summary.h"
 #include "time_units.h"
@@ -130,8 +131,22 @@ namespace fickcast::post
             std::vector<Point> points(static_cast<std::size_t>(grid_a->GetNumberOfPoints()));
             for (vtkIdType i = 0; i < grid_a->GetNumberOfPoints(); ++i)
               points[static_cast<std::size_t>(i)] = point_of(i);
-            const Samples samples =
-              sample_fields(grid_b, points, names, summary_b.dimension, summary_b.degree, series_b.times()[kb].file);
+            // Like with like: each point of A is read in B on the side of A's own cell (the cell
+            // holding its centre), so values that jump at region interfaces and gradients that
+            // jump across faces compare each side with the same side.
+            const PatchMesh mesh_a(grid_a, summary_a.dimension, summary_a.degree, series_a.times()[k].file);
+            std::vector<Point> sides(points.size());
+            for (const auto &element : mesh_a.elements())
+              {
+                Point centre{0, 0, 0};
+                for (const vtkIdType node : element.nodes)
+                  for (unsigned int d = 0; d < 3; ++d)
+                    centre[d] += points[static_cast<std::size_t>(node)][d] / static_cast<double>(element.nodes.size());
+                for (const vtkIdType node : element.nodes)
+                  sides[static_cast<std::size_t>(node)] = centre;
+              }
+            const Samples samples = sample_fields(grid_b, points, names, summary_b.dimension, summary_b.degree,
+                                                  series_b.times()[kb].file, sides);
             inside = samples.inside;
             // Rebuild B's arrays at A's points from the samples (vector components in order).
             resampled = vtkSmartPointer<vtkUnstructuredGrid>::New();

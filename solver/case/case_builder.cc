@@ -818,6 +818,7 @@ namespace fickcast
               {
                 NamedPointSpec named_point;
                 named_point.name = name;
+                named_point.origin = value.origin;
                 named_point.region = value.text;
                 if (!named_point.region.empty() && c.find_region(named_point.region) == nullptr)
                   {

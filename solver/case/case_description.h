@@ -219,6 +219,7 @@ namespace fickcast
     std::string name;
     std::array<double, 3> point{{0, 0, 0}}; ///< m
     std::string region;                     ///< side to read at an interface (`... in REGION`); empty: any
+    std::string origin;                     ///< file:line or --set
   };
 
   /// A named sampling line from one point to another, with its number of points.

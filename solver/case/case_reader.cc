@@ -742,6 +742,13 @@ namespace fickcast
         if (!replacement.empty())
           throw InputError(where, "", renamed_message(section, "", replacement));
         check_section_known(section, where);
+        // An empty named section would be silently ignored (a stage without keys, a region or a
+        // boundary that names nothing): say so instead. Empty fixed sections keep their defaults.
+        const auto &named = named_section_kinds();
+        if (std::find(named.begin(), named.end(), section_kind(section)) != named.end() &&
+            std::none_of(entries.begin(), entries.end(), [&](const IniEntry &e) { return e.section == section; }))
+          throw InputError(where, "",
+                           "expected keys in [" + section + "], found an empty section (give its keys or remove it)");
         settings.section_origins[section] = where;
       }
     for (const auto &entry : entries)

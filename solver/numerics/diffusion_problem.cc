@@ -36,6 +36,16 @@ namespace fickcast
         std::snprintf(buffer, sizeof(buffer), "(x, y, z) = (%.6g, %.6g, %.6g) m", x, y, z);
       return buffer;
     }
+
+    /// A value in a message: six significant digits, any magnitude (-1e-09, not -0.000000).
+    std::string number_text(const double value)
+    {
+      if (std::isnan(value))
+        return "NaN";
+      char buffer[32];
+      std::snprintf(buffer, sizeof(buffer), "%.6g", value);
+      return buffer;
+    }
   } // namespace
 
   template <int dim>
@@ -124,6 +134,30 @@ namespace fickcast
         k = Utilities::MPI::max(k, communicator_);
         if (k < 0)
           k = 1.0;
+      }
+    // A `value` on a face is a phase concentration: on a face whose cells have different
+    // partition coefficients it is ambiguous (the built-in geometries are checked when the case
+    // is read; a mesh file's faces here, collectively).
+    std::vector<double> lowest_partition(names_.boundaries.size(), std::numeric_limits<double>::infinity());
+    for (const auto &cell : triangulation_->active_cell_iterators())
+      if (cell->is_locally_owned())
+        for (const unsigned int f : cell->face_indices())
+          if (cell->face(f)->at_boundary())
+            lowest_partition[cell->face(f)->boundary_id()] =
+              std::min(lowest_partition[cell->face(f)->boundary_id()], partition(cell->material_id()));
+    for (std::size_t b = 0; b < lowest_partition.size(); ++b)
+      {
+        const double low = Utilities::MPI::min(lowest_partition[b], communicator_);
+        if (!(low < boundary_partition_[b] * (1 - 1e-12)))
+          continue;
+        for (const StageSpec &stage : description_.stages)
+          if (const BoundarySpec *face = stage.find_boundary(names_.boundaries[b]))
+            if (face->kind == BoundaryKind::concentration && !face->value_is_ambient)
+              throw InputError(description_.file, "boundary." + face->name + ".value",
+                               "ambiguous: the face touches regions with different partition coefficients (" +
+                                 number_text(low) + " and " + number_text(boundary_partition_[b]) +
+                                 "); give 'ambient' (the outside concentration, reference phase) instead, or "
+                                 "split the face into one physical group per region in the mesh");
       }
 
     setup_dofs();
@@ -286,8 +320,8 @@ namespace fickcast
     const double d = diffusivity_[region](x, y, z, t, c);
     if ((!(d > 0) || !std::isfinite(d)) && bad_coefficient_.empty())
       bad_coefficient_ = "region." + spec.name + ".diffusivity: expected a diffusivity > 0 everywhere, found " +
-                         std::to_string(d) + " m2/s at " + describe_point(x, y, z, dim) + ", t = " + std::to_string(t) +
-                         " s" + (diffusivity_[region].depends_on_concentration() ? ", c = " + std::to_string(c) : "");
+                         number_text(d) + " m2/s at " + describe_point(x, y, z, dim) + ", t = " + number_text(t) +
+                         " s" + (diffusivity_[region].depends_on_concentration() ? ", c = " + number_text(c) : "");
     return spec.tortuosity * d;
   }
 
@@ -428,6 +462,10 @@ namespace fickcast
       const RegionSpec &region = *regions_[cell->material_id()];
       const auto &p = fe_values.quadrature_point(i);
       double c = initial[cell->material_id()](p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, 0.0);
+      if (!std::isfinite(c) && bad_coefficient_.empty())
+        bad_coefficient_ = (region.initial ? "region." + region.name + ".initial" : std::string("initial.value")) +
+                           ": expected a finite concentration everywhere, found " + number_text(c) + " at " +
+                           describe_point(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, dim);
       if (region.has_dispersed_phase() && region.loading > 0)
         c = std::min(region.loading / (region.porosity * region.retardation), region.solubility);
       return c / region.partition;
@@ -558,6 +596,7 @@ namespace fickcast
         reserve_.compress(VectorOperation::add);
       }
     reserve_trial_ = reserve_;
+    check_coefficients(); // a non-finite initial value on any rank: one InputError on every rank
   }
 
   template <int dim>

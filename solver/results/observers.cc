@@ -19,9 +19,11 @@ namespace fickcast
     , root_(Utilities::MPI::this_mpi_process(problem.communicator()) == 0)
   {
     std::vector<Point<dim>> points;
-    std::vector<std::string> regions;
+    std::vector<std::string> regions, names, origins;
     for (const auto &named_point : c_.output.points)
       {
+        names.push_back(named_point.name);
+        origins.push_back(named_point.origin);
         Point<dim> p;
         for (int d = 0; d < dim; ++d)
           p[d] = named_point.point[d];
@@ -34,7 +36,7 @@ namespace fickcast
             record.threshold = threshold.level;
         point_records_.push_back(record);
       }
-    named_points_ = std::make_unique<PointEvaluator<dim>>(problem, points, "output.point", regions);
+    named_points_ = std::make_unique<PointEvaluator<dim>>(problem, points, "output.point", regions, names, origins);
 
     for (const auto &spec : c_.output.lines)
       {

@@ -6,6 +6,7 @@
 #include <deal.II/grid/grid_tools.h>
 
 #include <algorithm>
+#include <cstdio>
 #include <limits>
 
 namespace fickcast
@@ -14,7 +15,9 @@ namespace fickcast
 
   template <int dim>
   PointEvaluator<dim>::PointEvaluator(const DiffusionProblem<dim> &problem, const std::vector<Point<dim>> &points,
-                                      const std::string &what, const std::vector<std::string> &regions)
+                                      const std::string &what, const std::vector<std::string> &regions,
+                                      const std::vector<std::string> &point_names,
+                                      const std::vector<std::string> &origins)
     : communicator_(problem.communicator())
     , n_points_(points.size())
   {
@@ -73,9 +76,16 @@ namespace fickcast
           {
             std::string coordinates;
             for (int d = 0; d < dim; ++d)
-              coordinates += (d ? ", " : "") + std::to_string(points[i][d]);
+              {
+                char buffer[32];
+                std::snprintf(buffer, sizeof(buffer), "%.6g", points[i][d]);
+                coordinates += (d ? ", " : "") + std::string(buffer);
+              }
             const bool in_region = i < regions.size() && !regions[i].empty();
-            throw InputError(problem.description().file, what,
+            const std::string where =
+              i < origins.size() && !origins[i].empty() ? origins[i] : problem.description().file;
+            const std::string key = i < point_names.size() ? what + "." + point_names[i] : what;
+            throw InputError(where, key,
                              "expected a point inside the mesh" +
                                (in_region ? " and on the side of region " + regions[i] : std::string()) + ", found (" +
                                coordinates + ") m outside it");
