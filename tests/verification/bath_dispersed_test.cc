@@ -73,7 +73,7 @@ namespace fickcast::testing
         ASSERT_LT(row, time.size());
         const double fraction = alpha * bath[row] / final_amount;
         std::printf("finite bath alpha = %g, T = %g: %.6f vs %.6f\n", alpha, T, fraction, bath_fraction(alpha, T));
-        EXPECT_NEAR(fraction, bath_fraction(alpha, T), 1e-3);
+        EXPECT_NEAR(fraction, bath_fraction(alpha, T), 5e-5); // measured 1.4e-5
       }
     EXPECT_LT(std::abs(series.column("balance_error").back()), 1e-10);
   }
@@ -135,8 +135,8 @@ times = 1 h, 4 h
         const double exact = 2 * cs * std::sqrt(d * t) / (std::sqrt(pi) * std::erf(alpha));
         std::printf("dispersed loading, %g h: Q = %.6e kg/m2, Higuchi %.6e (%.2f %%), moving front %.6e (%.2f %%)\n",
                     hours, q, higuchi, 100 * (q / higuchi - 1), exact, 100 * (q / exact - 1));
-        EXPECT_NEAR(q / higuchi, 1.0, 0.03);
-        EXPECT_NEAR(q / exact, 1.0, 0.01);
+        EXPECT_NEAR(q / higuchi, 1.00168, 2e-4); // Higuchi is 0.168 % below the exact front at A/Cs = 50
+        EXPECT_NEAR(q / exact, 1.0, 2e-5);       // measured 4e-6
       }
     EXPECT_LT(std::abs(series.column("balance_error").back()), 1e-9 * a * 1e-3);
   }

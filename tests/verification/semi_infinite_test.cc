@@ -57,7 +57,7 @@ times = 0.1 s, 0.5 s
       {
         const double error = largest_error(snapshots[k], 10.0, exact);
         std::printf("erfc at t = %g s: largest error %.3e of the surface value\n", snapshots[k].time, error);
-        EXPECT_LT(error, 1e-3) << "at t = " << snapshots[k].time << " s"; // of the surface value 1
+        EXPECT_LT(error, 5e-5) << "at t = " << snapshots[k].time << " s"; // of C0; measured 1.3e-5
       }
   }
 
@@ -100,7 +100,7 @@ times = 0.25 s, 1 s
       {
         const double error = largest_error(snapshots[k], 20.0, exact);
         std::printf("surface transfer at t = %g s: largest error %.3e of Cs\n", snapshots[k].time, error);
-        EXPECT_LT(error, 1e-3) << "at t = " << snapshots[k].time << " s";
+        EXPECT_LT(error, 5e-5) << "at t = " << snapshots[k].time << " s";
       }
   }
 } // namespace fickcast::testing

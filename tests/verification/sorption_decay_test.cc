@@ -89,7 +89,7 @@ point.c = 0.9 m
             const double expected = closed_form(x, years * year, d_r, k);
             std::printf("sorption/decay (%s) t = %g yr, x = %.1f m: %.8f vs %.8f\n",
                         dissolved_only ? "dissolved" : "total", years, x, computed, expected);
-            EXPECT_NEAR(computed, expected, 1e-3) << "x = " << x << " m, t = " << years << " yr";
+            EXPECT_NEAR(computed, expected, 5e-5) << "x = " << x << " m, t = " << years << " yr";
           }
       }
   }
