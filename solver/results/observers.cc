@@ -64,6 +64,7 @@ namespace fickcast
         depths_.push_back(DepthRecord{depth.name, depth.level, {}, {}});
       }
 
+    initial_amount_ = initial_amount;
     reference_ = c_.output.loading > 0 ? c_.output.loading : initial_amount;
     for (const auto &release : c_.output.releases)
       releases_.push_back(ReleaseRecord{release.name, release.level, not_a_number});
@@ -154,7 +155,9 @@ namespace fickcast
   {
     if (reference_ <= 0)
       return not_a_number;
-    return (reference_ - remaining) / reference_;
+    // What has left since the start, as a fraction of the reference (the initial content, or
+    // output.loading: a label claim that may differ from what the body holds at t = 0).
+    return (initial_amount_ - remaining) / reference_;
   }
 
   template <int dim>

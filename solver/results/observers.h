@@ -66,7 +66,8 @@ namespace fickcast
     std::vector<Line> lines_;       ///< named sampling lines
     std::vector<Line> depth_lines_; ///< one per depth (a named line, or the default one)
     std::vector<DepthRecord> depths_;
-    double reference_ = 0;
+    double reference_ = 0;      ///< what the released fraction refers to: output.loading or the initial content
+    double initial_amount_ = 0; ///< content at t = 0
     double last_released_ = 0;
     std::vector<ReleaseRecord> releases_;
     std::vector<MomentsRecord> moments_;

@@ -106,5 +106,15 @@ expect_code 0 "sweep --report" "$fickcast" sweep "$case_file" --vary "time.end=1
 [ -s "$scratch/reported_sweep/report/index.html" ] || fail "sweep --report wrote no study report"
 expect_code 2 "check --report is not an option of check" "$fickcast" check "$case_file" --report
 
+# An I/O error: the results folder cannot be created because a file stands where a folder is
+# needed (works as root, where chmod 555 would not stop the write): exit 3, one line naming the path.
+: >"$scratch/not_a_folder"
+expect_code 3 "results folder under a file" "$fickcast" run "$case_file" --output "$scratch/not_a_folder/results" \
+  --set "time.end=1 yr"
+grep -q "$scratch/not_a_folder/results" "$scratch/err.txt" ||
+  fail "the I/O error does not name the path: $(cat "$scratch/err.txt")"
+[ "$(wc -l <"$scratch/err.txt")" -eq 1 ] || fail "the I/O error gives more than one line: $(cat "$scratch/err.txt")"
+[ -e "$scratch/not_a_folder/results" ] && fail "a results folder appeared after an I/O error"
+
 if [ "$failures" -ne 0 ]; then echo "$failures failure(s)"; exit 1; fi
 echo "all command-line checks passed"

@@ -1,5 +1,9 @@
 // The HTML report renders in a real browser (Debian's headless Chromium): every image loads,
-// the console stays silent, and the screenshot shows a drawn page, not a blank one.
+// the console stays silent, the screenshot shows a drawn page, not a blank one, and its plots show
+// curves: a page whose plot images are blank still has text and tables enough for the whole-page
+// checks (measured on this report: 474 colours, 3.9 % non-white), so a plot check counts the
+// pixels in the plot writer's curve colours, in each plot image and in the screenshot, and a
+// negative control shows that blank plots fail it.
 #include "case_runner.h"
 
 #include "html_page.h"
@@ -8,17 +12,20 @@
 
 #include <vtkImageData.h>
 #include <vtkPNGReader.h>
+#include <vtkPNGWriter.h>
 #include <vtkSmartPointer.h>
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
+#include <array>
 #include <cstdio>
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <regex>
-#include <set>
 #include <sstream>
+#include <vector>
 
 #ifndef FICKCAST_CHROMIUM
 #define FICKCAST_CHROMIUM "/usr/bin/chromium"
@@ -97,6 +104,97 @@ samples.depth = 51
       const std::regex attribute("<body[^>]*data-images-ok=\"([0-9]+/[0-9]+)\"");
       return std::regex_search(dom, match, attribute) ? match[1].str() : "";
     }
+
+    /// The screenshot: tall enough for the whole report (its three plots end near 4300 px at this
+    /// width; at 2000 px only the top of the first plot was in view).
+    const char *screenshot_size = "--window-size=1200,5000";
+
+    /// Okabe & Ito's curve colours as postprocess/plot_writer.cc draws them (its seventh, black,
+    /// left out: text, ticks and frames are black too).
+    constexpr std::array<std::array<int, 3>, 6> curve_colours{
+      {{0, 114, 178}, {213, 94, 0}, {0, 158, 115}, {204, 121, 167}, {230, 159, 0}, {86, 180, 233}}};
+
+    /// What the checks read from a PNG (a plot image or a screenshot of the page).
+    struct Look
+    {
+      int width = 0, height = 0;
+      std::size_t colours = 0; ///< distinct RGB colours
+      double non_white = 0;    ///< fraction of pixels with a channel below 245
+      long curve_pixels = 0;   ///< pixels within an L1 distance of 40 of a curve colour
+    };
+
+    /// Reads @p png. The slack of 40 (as in plot_look_test.cc) takes the cores of the drawn lines
+    /// and markers, not their anti-aliased edges; no colour of text, tables or grid comes near.
+    Look look_at(const std::string &png)
+    {
+      Look look;
+      if (!std::filesystem::is_regular_file(png))
+        return look;
+      auto reader = vtkSmartPointer<vtkPNGReader>::New();
+      reader->SetFileName(png.c_str());
+      reader->Update();
+      vtkImageData *image = reader->GetOutput();
+      int dims[3];
+      image->GetDimensions(dims);
+      look.width = dims[0];
+      look.height = dims[1];
+      if (image->GetNumberOfScalarComponents() < 3 || image->GetScalarType() != VTK_UNSIGNED_CHAR)
+        return look; // greyscale or 16-bit: no curve colour to find (ours are 8-bit RGB)
+      // One flag per RGB colour, to count the distinct ones.
+      std::vector<bool> seen(1 << 24, false);
+      long non_white = 0;
+      for (int y = 0; y < dims[1]; ++y)
+        for (int x = 0; x < dims[0]; ++x)
+          {
+            const auto *p = static_cast<unsigned char *>(image->GetScalarPointer(x, y, 0));
+            const std::size_t colour = (std::size_t(p[0]) << 16) | (std::size_t(p[1]) << 8) | std::size_t(p[2]);
+            look.colours += seen[colour] ? 0 : 1;
+            seen[colour] = true;
+            non_white += (p[0] < 245 || p[1] < 245 || p[2] < 245) ? 1 : 0;
+            for (const auto &c : curve_colours)
+              if (std::abs(p[0] - c[0]) + std::abs(p[1] - c[1]) + std::abs(p[2] - c[2]) <= 40)
+                {
+                  ++look.curve_pixels;
+                  break;
+                }
+          }
+      const long pixels = static_cast<long>(dims[0]) * dims[1];
+      look.non_white = pixels > 0 ? static_cast<double>(non_white) / static_cast<double>(pixels) : 0.0;
+      return look;
+    }
+
+    /// The whole-page check: many colours and a fair share of non-white pixels. Rendered text
+    /// and tables alone pass it.
+    bool page_drawn(const Look &shot)
+    {
+      return shot.width == 1200 && shot.colours >= 16 && shot.non_white > 0.03;
+    }
+
+    /// The plot checks, one threshold per plot image and one for the page. Measured on this
+    /// report's plots (1000 x 640): 1558 curve pixels in the point history (one curve), 4218 in
+    /// the amounts, 6702 in the profiles; 6606 in the 1200 x 5000 screenshot of the page (the
+    /// browser scales the images by 0.99 and blends edges); 0 for blank plots. The minimum of 500
+    /// per image is a third of the smallest, the page's 1500 is 500 for each of three plots.
+    constexpr long minimum_curve_pixels_per_plot = 500, minimum_curve_pixels_on_page = 1500;
+
+    bool plot_drawn(const Look &plot)
+    {
+      return plot.curve_pixels >= minimum_curve_pixels_per_plot;
+    }
+    bool plots_on_page_drawn(const Look &shot)
+    {
+      return shot.curve_pixels >= minimum_curve_pixels_on_page;
+    }
+
+    /// The PNG images among a report's images.
+    std::vector<std::string> png_images(const ReportOutcome &outcome)
+    {
+      std::vector<std::string> pngs;
+      for (const auto &image : outcome.images)
+        if (image.size() > 4 && image.substr(image.size() - 4) == ".png")
+          pngs.push_back(image);
+      return pngs;
+    }
   } // namespace
 
   TEST(ReportBrowser, RendersWithAllImagesAndNoConsoleErrors)
@@ -109,16 +207,22 @@ samples.depth = 51
     const std::string scratch = std::filesystem::path(folder).parent_path().string();
     const ReportOutcome outcome = make_report(folder, {});
     ASSERT_TRUE(std::filesystem::is_regular_file(outcome.html));
-    std::size_t pngs = 0;
     for (const auto &image : outcome.images)
-      {
-        EXPECT_TRUE(std::filesystem::is_regular_file(image)) << image;
-        pngs += image.size() > 4 && image.substr(image.size() - 4) == ".png" ? 1 : 0;
-      }
+      EXPECT_TRUE(std::filesystem::is_regular_file(image)) << image;
+    const auto plots = png_images(outcome);
+    const std::size_t pngs = plots.size();
     // Profile along the line, point history, amounts (no released fraction: the body starts empty).
     EXPECT_EQ(pngs, 3u);
     for (const char *stem : {"profile_depth.png", "points.png", "amounts.png"})
       EXPECT_TRUE(std::filesystem::is_regular_file(folder + "/report/" + stem)) << stem;
+    // Each plot image shows curves in the plot palette.
+    for (const auto &png : plots)
+      {
+        const Look plot = look_at(png);
+        std::printf("plot %s: %dx%d, %ld curve pixels\n", png.c_str(), plot.width, plot.height, plot.curve_pixels);
+        EXPECT_TRUE(plot_drawn(plot)) << png << ": " << plot.curve_pixels << " curve pixels, fewer than "
+                                      << minimum_curve_pixels_per_plot;
+      }
 
     // Images load: the page's own script counts them after load.
     std::string log;
@@ -128,35 +232,93 @@ samples.depth = 51
     EXPECT_NE(dom.find("do not replace"), std::string::npos);
     EXPECT_TRUE(console_lines(log).empty()) << console_lines(log).front();
 
-    // Screenshot: a drawn page has many colours and a fair share of non-white pixels.
-    const std::string shot = scratch + "/report.png";
-    chromium("--window-size=1200,2000 --screenshot=" + shot, outcome.html, scratch, log);
+    // Screenshot: a drawn page has many colours and a fair share of non-white pixels, and its
+    // plots show curves.
+    const std::string shot_file = scratch + "/report.png";
+    chromium(std::string(screenshot_size) + " --screenshot=" + shot_file, outcome.html, scratch, log);
     EXPECT_TRUE(console_lines(log).empty()) << console_lines(log).front();
-    ASSERT_TRUE(std::filesystem::is_regular_file(shot));
-    auto reader = vtkSmartPointer<vtkPNGReader>::New();
-    reader->SetFileName(shot.c_str());
-    reader->Update();
-    vtkImageData *image = reader->GetOutput();
-    int dims[3];
-    image->GetDimensions(dims);
-    const int components = image->GetNumberOfScalarComponents();
-    ASSERT_GE(components, 3);
-    std::set<long> colours;
-    long non_white = 0, pixels = 0;
-    for (int y = 0; y < dims[1]; ++y)
-      for (int x = 0; x < dims[0]; ++x)
-        {
-          const auto *p = static_cast<unsigned char *>(image->GetScalarPointer(x, y, 0));
-          colours.insert((long(p[0]) << 16) | (long(p[1]) << 8) | long(p[2]));
-          non_white += (p[0] < 245 || p[1] < 245 || p[2] < 245) ? 1 : 0;
-          ++pixels;
-        }
-    const double fraction = static_cast<double>(non_white) / static_cast<double>(pixels);
-    std::printf("screenshot %dx%d: %zu distinct colours, %.1f %% non-white pixels, images %s\n", dims[0], dims[1],
-                colours.size(), 100 * fraction, images_ok(dom).c_str());
-    EXPECT_EQ(dims[0], 1200);
-    EXPECT_GE(colours.size(), 16u);
-    EXPECT_GT(fraction, 0.03);
+    ASSERT_TRUE(std::filesystem::is_regular_file(shot_file));
+    const Look shot = look_at(shot_file);
+    std::printf("screenshot %dx%d: %zu distinct colours, %.1f %% non-white pixels, %ld curve pixels, images %s\n",
+                shot.width, shot.height, shot.colours, 100 * shot.non_white, shot.curve_pixels, images_ok(dom).c_str());
+    EXPECT_EQ(shot.width, 1200);
+    EXPECT_GE(shot.colours, 16u);
+    EXPECT_GT(shot.non_white, 0.03);
+    EXPECT_TRUE(page_drawn(shot));
+    EXPECT_TRUE(plots_on_page_drawn(shot))
+      << shot.curve_pixels << " curve pixels on the page, fewer than " << minimum_curve_pixels_on_page;
+  }
+
+  // Negative control for the plots: the same report with every plot image replaced by a white
+  // image of the same size (and embedded so in the page) still loads every image and still looks
+  // drawn as a page, but fails the plot checks, per image and on the screenshot.
+  TEST(ReportBrowser, PlotChecksFailOnBlankPlots)
+  {
+    ASSERT_TRUE(std::filesystem::exists(FICKCAST_CHROMIUM))
+      << FICKCAST_CHROMIUM << " is missing: install Debian's chromium (listed in .ci/debian-packages)";
+    const CaseDescription description = testing::describe(report_case, "post_report_blank_plots");
+    ASSERT_EQ(testing::run(description).status, "completed");
+    const std::string folder = description.output.folder;
+    const std::string scratch = std::filesystem::path(folder).parent_path().string();
+    const ReportOutcome outcome = make_report(folder, {});
+    const auto plots = png_images(outcome);
+    ASSERT_EQ(plots.size(), 3u);
+
+    // Blank each plot: white, same size, written with VTK's PNG writer over the report's file.
+    for (const auto &png : plots)
+      {
+        const Look drawn = look_at(png);
+        ASSERT_TRUE(plot_drawn(drawn)) << png << " before blanking";
+        auto white = vtkSmartPointer<vtkImageData>::New();
+        white->SetDimensions(drawn.width, drawn.height, 1);
+        white->AllocateScalars(VTK_UNSIGNED_CHAR, 3);
+        auto *bytes = static_cast<unsigned char *>(white->GetScalarPointer());
+        std::fill(bytes, bytes + 3L * drawn.width * drawn.height, static_cast<unsigned char>(255));
+        auto writer = vtkSmartPointer<vtkPNGWriter>::New();
+        writer->SetFileName(png.c_str());
+        writer->SetInputData(white);
+        writer->Write();
+        ASSERT_EQ(writer->GetErrorCode(), 0u) << png;
+        const Look blank = look_at(png);
+        EXPECT_EQ(blank.width, drawn.width) << png;
+        EXPECT_EQ(blank.height, drawn.height) << png;
+        EXPECT_EQ(blank.curve_pixels, 0) << png;
+        EXPECT_FALSE(plot_drawn(blank)) << png;
+      }
+
+    // The page embeds its images (data: URIs): embed the blank ones in their place, in order.
+    std::string page = read_file(outcome.html, "the report page");
+    const std::string prefix = "src=\"data:image/png;base64,";
+    std::size_t at = 0, replaced = 0;
+    while ((at = page.find(prefix, at)) != std::string::npos && replaced < plots.size())
+      {
+        const std::size_t close = page.find('"', at + prefix.size());
+        ASSERT_NE(close, std::string::npos);
+        const std::string tag = html_embedded_png(plots[replaced], "blank");
+        const std::size_t src = tag.find("src=\"");
+        const std::string blank_src = tag.substr(src, tag.find('"', src + 5) + 1 - src);
+        page.replace(at, close + 1 - at, blank_src);
+        at += blank_src.size();
+        ++replaced;
+      }
+    ASSERT_EQ(replaced, plots.size());
+    write_file(outcome.html, page);
+
+    // The same browser checks as above, in one call.
+    std::string log;
+    const std::string shot_file = scratch + "/blank_plots.png";
+    const std::string dom =
+      chromium(std::string(screenshot_size) + " --dump-dom --screenshot=" + shot_file, outcome.html, scratch, log);
+    EXPECT_EQ(images_ok(dom), "3/3"); // the blank images load: only their content is wrong
+    EXPECT_TRUE(console_lines(log).empty()) << console_lines(log).front();
+    ASSERT_TRUE(std::filesystem::is_regular_file(shot_file));
+    const Look shot = look_at(shot_file);
+    std::printf("blank plots: screenshot %dx%d, %zu distinct colours, %.1f %% non-white pixels (whole-page check "
+                "%s), %ld curve pixels\n",
+                shot.width, shot.height, shot.colours, 100 * shot.non_white, page_drawn(shot) ? "passed" : "failed",
+                shot.curve_pixels);
+    EXPECT_EQ(shot.width, 1200);
+    EXPECT_FALSE(plots_on_page_drawn(shot)) << shot.curve_pixels << " curve pixels on a page of blank plots";
   }
 
   // The checks above can fail: a page with a missing image and a script error is caught.
