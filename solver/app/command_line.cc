@@ -184,7 +184,7 @@ namespace fickcast
              "Gaussian, Crank's series for sheets, spheres and cylinders, membranes, sorption with decay,\n"
              "finite baths, junction depths, temperature schedules). Prints each check and writes\n"
              "verification_report.txt and .json (date, version, machine, each source, error, tolerance).\n"
-             "Exit code 1 if any check fails. Takes about a minute.\n\n";
+             "Exit code 1 if any check fails. Takes a few seconds.\n\n";
     else if (verb == "sweep")
       out << "Usage: fickcast sweep [options] CASE.ini\n"
              "       mpirun -np N fickcast sweep [options] CASE.ini\n\n"
