@@ -72,6 +72,22 @@ namespace fickcast::testing
              "[numerics]\ndegree = " + std::to_string(degree) + "\n[output]\nfields = false\n";
     }
 
+    /// The unit square as an axisymmetric body (x = r, y = z; radius 1 m, height 1 m): the axis
+    /// takes no condition, top, bottom and side hold @p u.
+    std::string axisymmetric_case(const std::string &u, const std::string &f, const double cell,
+                                  const unsigned int degree)
+    {
+      return "[case]\ntitle = mms axisymmetric\ncoordinates = axisymmetric\n[geometry]\nlayers = body 1 m\n"
+             "radius = 1 m\ncell_size = " +
+             std::to_string(cell) + " m\n[region.body]\ndiffusivity = 1 m2/s\nsource = {" + f +
+             "} mol/(m3 s)\n[initial]\nvalue = {" + at_time_zero(u) + "} mol/m3\n" +
+             "[boundary.side]\ntype = concentration\nvalue = {" + u + "} mol/m3\n" +
+             "[boundary.top]\ntype = concentration\nvalue = {" + u + "} mol/m3\n" +
+             "[boundary.bottom]\ntype = concentration\nvalue = {" + u + "} mol/m3\n" +
+             "[time]\nend = 0.2 s\ntolerance = 1e-10\n[numerics]\ndegree = " + std::to_string(degree) +
+             "\n[output]\nfields = false\n";
+    }
+
     /// L2 error at the end of the run of @p text against @p u.
     double l2_error_at_end(const std::string &text, const std::string &name, const std::string &u)
     {
@@ -188,4 +204,29 @@ namespace fickcast::testing
                            ::testing::Values(TimeCase{"implicit_euler", 1.0}, TimeCase{"crank_nicolson", 2.0},
                                              TimeCase{"bdf2", 2.0}),
                            [](const ::testing::TestParamInfo<TimeCase> &info) { return info.param.scheme; });
+
+  // Axisymmetric manufactured solution (designed for this project; procedure as above):
+  // u = exp(-t) (2 + r^2 z + z^3 + r^4 / 4), D = 1, so u_r = 0 on the axis and
+  // (1/r) d/dr(r u_r) + u_zz = exp(-t) (10 z + 4 r^2): f = u_t - that. A weight that is not
+  // proportional to r (a missing r, a Cartesian form) leaves a residual that stops the
+  // convergence; a constant factor on 2 pi r cancels here (tried: not caught) and is caught by
+  // the amounts of MultiDimensional.ErfcColumnAxisymmetric.
+  TEST(ManufacturedSolution, AxisymmetricOrders)
+  {
+    const std::string u = "exp(-t)*(2 + x^2*y + y^3 + x^4/4)";
+    const std::string f = "exp(-t)*(-(2 + x^2*y + y^3 + x^4/4) - 10*y - 4*x^2)";
+    for (const unsigned int p : {1u, 2u})
+      {
+        std::vector<double> errors;
+        for (const double h : {1.0 / 4, 1.0 / 8, 1.0 / 16})
+          errors.push_back(l2_error_at_end(axisymmetric_case(u, f, h, p), "mms_axisymmetric", u));
+        for (std::size_t k = 1; k < errors.size(); ++k)
+          {
+            const double order = std::log2(errors[k - 1] / errors[k]);
+            std::printf("axisymmetric Q%u: L2 error %.3e -> %.3e, observed order %.3f\n", p, errors[k - 1], errors[k],
+                        order);
+            EXPECT_GE(order, p + 1 - 0.1) << "Q" << p;
+          }
+      }
+  }
 } // namespace fickcast::testing
