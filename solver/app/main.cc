@@ -4,8 +4,8 @@
 #include "app/verbs.h"
 
 #include "case/input_error.h"
-#include "numerics/simulation.h"
 #include "results/summary.h"
+#include "run/simulation.h"
 
 #include <deal.II/base/mpi.h>
 

@@ -5,7 +5,7 @@
 #include "app/verbs.h"
 
 #include "case/case_reader.h"
-#include "numerics/run_case.h"
+#include "run/run_case.h"
 
 #include <deal.II/base/mpi.h>
 

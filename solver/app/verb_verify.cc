@@ -1,7 +1,7 @@
 #include "app/exit_codes.h"
 #include "app/verbs.h"
 
-#include "results/results_folder.h"
+#include "run/results_folder.h"
 #include "verify/verification_report.h"
 
 #include <deal.II/base/mpi.h>

@@ -114,7 +114,7 @@ namespace fickcast
     double prefactor = 0;         ///< D0, m2/s
     double activation_energy = 0; ///< J per particle
     double porosity = 1;          ///< theta in (0, 1]
-    double tortuosity = 1;        ///< factor tau in (0, 1]: D_eff = tau * D (from the law if one is named)
+    double tortuosity = 1;        ///< factor tau in (0, 1] given directly (a porosity law: model/material)
     PorosityLaw porosity_law = PorosityLaw::none;
     double archie_exponent = 0;
     double retardation = 1;             ///< R >= 1 (linear sorption), given or 1 + rho_b Kd / theta
@@ -127,12 +127,6 @@ namespace fickcast
     double solubility = 0;              ///< phase concentration at saturation; 0: unlimited
     double cell_size = 0;               ///< m; 0: the geometry's
 
-    /// Storage capacity C = theta R K (multiplies du/dt).
-    double capacity() const { return porosity * retardation * partition; }
-    /// Conductance factor G / D = theta tau K (multiplies D grad u).
-    double conductance_factor() const { return porosity * tortuosity * partition; }
-    /// Decay coefficient on u: lambda C, or lambda theta K when only the dissolved part decays.
-    double reaction() const { return decay_rate * porosity * partition * (decay_dissolved_only ? 1.0 : retardation); }
     /// Whether part of the content may be undissolved (solid above solubility).
     bool has_dispersed_phase() const { return solubility > 0; }
   };

@@ -25,18 +25,6 @@ namespace fickcast
 
   namespace
   {
-    std::string describe_point(const double x, const double y, const double z, const int dim)
-    {
-      char buffer[128];
-      if (dim == 1)
-        std::snprintf(buffer, sizeof(buffer), "x = %.6g m", x);
-      else if (dim == 2)
-        std::snprintf(buffer, sizeof(buffer), "(x, y) = (%.6g, %.6g) m", x, y);
-      else
-        std::snprintf(buffer, sizeof(buffer), "(x, y, z) = (%.6g, %.6g, %.6g) m", x, y, z);
-      return buffer;
-    }
-
     /// A value in a message: six significant digits, any magnitude (-1e-09, not -0.000000).
     std::string number_text(const double value)
     {
@@ -98,22 +86,21 @@ namespace fickcast
       {
         const RegionSpec *region = description_.find_region(name);
         AssertThrow(region != nullptr, ExcMessage("region without description: " + name));
-        regions_.push_back(region);
-        diffusivity_.emplace_back(*region, description_.temperature);
-        source_.emplace_back(region->source);
-        source_depends_on_space_ = source_depends_on_space_ || source_.back().depends_on_space();
-        const Diffusivity &d = diffusivity_.back();
+        materials_.emplace_back(*region, description_.temperature, description_.initial, dim, &bad_coefficient_);
+        const Material &material = materials_.back();
+        source_depends_on_space_ = source_depends_on_space_ || material.source_function().depends_on_space();
+        const Diffusivity &d = material.diffusivity_shape();
         const bool dynamic = d.depends_on_concentration() || (!d.uniform_in_space() && d.depends_on_time());
         dynamic_.push_back(dynamic);
         nonlinear_ = nonlinear_ || d.depends_on_concentration();
-        dispersed_ = dispersed_ || region->has_dispersed_phase();
+        dispersed_ = dispersed_ || material.has_dispersed_phase();
         if (!dynamic && d.uniform_in_space() && d.depends_on_time())
           {
             unit_index_.push_back(n_unit++);
             if (clock_region_ < 0)
               {
-                clock_region_ = static_cast<int>(regions_.size()) - 1;
-                clock_reference_ = d(0, 0, 0, 0, 0);
+                clock_region_ = static_cast<int>(materials_.size()) - 1;
+                clock_reference_ = material.diffusivity(0, 0, 0, 0, 0);
                 if (!(clock_reference_ > 0))
                   clock_reference_ = 1;
               }
@@ -212,14 +199,14 @@ namespace fickcast
       {
         if (!cell->is_locally_owned() && !cell->is_ghost())
           continue;
-        const RegionSpec &region = *regions_[cell->material_id()];
-        if (!region.has_dispersed_phase())
+        const Material &material = materials_[cell->material_id()];
+        if (!material.has_dispersed_phase())
           continue;
         cell->get_dof_indices(dofs);
         for (const auto dof : dofs)
           if (owned_.is_element(dof))
             {
-              saturation_[dof] = std::min(static_cast<double>(saturation_[dof]), region.solubility / region.partition);
+              saturation_[dof] = std::min(static_cast<double>(saturation_[dof]), material.saturation());
               dispersed_node_[owned_.index_within_set(dof)] = true;
             }
       }
@@ -245,25 +232,20 @@ namespace fickcast
     const std::vector<unsigned int> previous_baths = baths_;
     stage_ = stage;
     const StageSpec &spec = description_.stages[stage];
-    boundary_specs_.clear();
-    boundary_value_.clear();
-    boundary_ambient_.clear();
+    boundaries_.clear();
     static const BoundarySpec sealed;
-    for (const auto &name : names_.boundaries)
+    for (unsigned int b = 0; b < names_.boundaries.size(); ++b)
       {
-        const BoundarySpec *boundary = spec.find_boundary(name);
-        boundary_specs_.push_back(boundary ? boundary : &sealed);
-        boundary_value_.emplace_back(boundary_specs_.back()->value);
-        boundary_ambient_.emplace_back(boundary_specs_.back()->ambient);
+        const BoundarySpec *boundary = spec.find_boundary(names_.boundaries[b]);
+        boundaries_.emplace_back(boundary ? *boundary : sealed, boundary_partition_[b]);
       }
     baths_.clear();
-    for (unsigned int b = 0; b < boundary_specs_.size(); ++b)
-      if (boundary_specs_[b]->kind == BoundaryKind::bath)
+    for (unsigned int b = 0; b < boundaries_.size(); ++b)
+      if (boundaries_[b].kind() == BoundaryKind::bath)
         {
           baths_.push_back(b);
           if (std::find(previous_baths.begin(), previous_baths.end(), b) == previous_baths.end())
-            bath_value_[b] = bath_value_prev_[b] = bath_trial_[b] =
-              boundary_specs_[b]->bath_initial / boundary_specs_[b]->bath_partition;
+            bath_value_[b] = bath_value_prev_[b] = bath_trial_[b] = boundaries_[b].bath_initial_value();
         }
     setup_fixed_unknowns();
     assemble_constant_parts();
@@ -280,10 +262,9 @@ namespace fickcast
     fixed_dofs_.clear();
     fixed_points_.clear();
     std::map<types::global_dof_index, unsigned int> owner_boundary;
-    for (unsigned int b = 0; b < boundary_specs_.size(); ++b)
+    for (unsigned int b = 0; b < boundaries_.size(); ++b)
       {
-        const BoundaryKind kind = boundary_specs_[b]->kind;
-        if (kind != BoundaryKind::concentration && kind != BoundaryKind::bath)
+        if (!boundaries_[b].is_fixed())
           continue;
         std::map<types::global_dof_index, double> values;
         VectorTools::interpolate_boundary_values(mapping_, dof_handler_, static_cast<types::boundary_id>(b),
@@ -315,22 +296,14 @@ namespace fickcast
   double DiffusionProblem<dim>::effective_diffusivity(const types::material_id region, const Point<dim> &point,
                                                       const double t, const double c) const
   {
-    const RegionSpec &spec = *regions_[region];
-    const double x = point[0], y = dim > 1 ? point[1] : 0.0, z = dim > 2 ? point[2] : 0.0;
-    const double d = diffusivity_[region](x, y, z, t, c);
-    if ((!(d > 0) || !std::isfinite(d)) && bad_coefficient_.empty())
-      bad_coefficient_ = "region." + spec.name + ".diffusivity: expected a diffusivity > 0 everywhere, found " +
-                         number_text(d) + " m2/s at " + describe_point(x, y, z, dim) + ", t = " + number_text(t) +
-                         " s" + (diffusivity_[region].depends_on_concentration() ? ", c = " + number_text(c) : "");
-    return spec.tortuosity * d;
+    return materials_[region].effective_diffusivity(point[0], dim > 1 ? point[1] : 0.0, dim > 2 ? point[2] : 0.0, t, c);
   }
 
   template <int dim>
   double DiffusionProblem<dim>::conductance(const types::material_id region, const Point<dim> &point, const double t,
                                             const double c) const
   {
-    const RegionSpec &spec = *regions_[region];
-    return spec.porosity * spec.partition * effective_diffusivity(region, point, t, c);
+    return materials_[region].conductance(point[0], dim > 1 ? point[1] : 0.0, dim > 2 ? point[2] : 0.0, t, c);
   }
 
   template <int dim>
@@ -370,7 +343,7 @@ namespace fickcast
   {
     if (clock_region_ < 0)
       return 1.0;
-    return diffusivity_[static_cast<std::size_t>(clock_region_)](0, 0, 0, t, 0) / clock_reference_;
+    return materials_[static_cast<std::size_t>(clock_region_)].diffusivity(0, 0, 0, t, 0) / clock_reference_;
   }
 
   template <int dim>
@@ -418,31 +391,28 @@ namespace fickcast
     double scale = 0;
     if (description_.initial.is_constant())
       scale = std::abs(description_.initial.value);
-    for (const RegionSpec *region : regions_)
+    for (const Material &material : materials_)
       {
-        if (region->initial && region->initial->is_constant())
-          scale = std::max(scale, std::abs(region->initial->value) / region->partition);
-        if (region->has_dispersed_phase())
-          scale = std::max(scale, region->solubility / region->partition);
+        if (material.has_own_initial() && material.initial_is_constant())
+          scale = std::max(scale, std::abs(material.initial_constant()) / material.partition());
+        if (material.has_dispersed_phase())
+          scale = std::max(scale, material.saturation());
       }
     for (std::size_t k = 0; k < fixed_dofs_.size(); ++k)
       {
         const unsigned int b = fixed_dofs_[k].second;
-        if (boundary_specs_[b]->kind == BoundaryKind::concentration)
+        if (boundaries_[b].kind() == BoundaryKind::concentration)
           {
             const Point<dim> &p = fixed_points_[k];
-            const double x = p[0], y = dim > 1 ? p[1] : 0.0, z = dim > 2 ? p[2] : 0.0;
-            const double value = boundary_specs_[b]->value_is_ambient
-                                   ? boundary_ambient_[b](x, y, z, 0.0)
-                                   : boundary_value_[b](x, y, z, 0.0) / boundary_partition_[b];
+            const double value = boundaries_[b].fixed_value(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, 0.0);
             scale = std::max(scale, std::abs(value));
           }
       }
     for (const unsigned int b : baths_)
       scale = std::max(scale, std::abs(bath_value_[b]));
-    for (unsigned int b = 0; b < boundary_specs_.size(); ++b)
-      if (boundary_specs_[b]->kind == BoundaryKind::transfer && !boundary_ambient_[b].depends_on_space())
-        scale = std::max(scale, std::abs(boundary_ambient_[b].at_time(0.0)));
+    for (unsigned int b = 0; b < boundaries_.size(); ++b)
+      if (boundaries_[b].kind() == BoundaryKind::transfer && !boundaries_[b].ambient_function().depends_on_space())
+        scale = std::max(scale, std::abs(boundaries_[b].ambient_function().at_time(0.0)));
     return Utilities::MPI::max(scale, communicator_);
   }
 
@@ -454,21 +424,11 @@ namespace fickcast
     const Quadrature<dim> support(fe_.get_unit_support_points());
     FEValues<dim> fe_values(mapping_, fe_, support, update_quadrature_points);
     std::vector<types::global_dof_index> dofs(fe_.n_dofs_per_cell());
-    std::vector<ScalarFunction> initial;
-    for (const RegionSpec *region : regions_)
-      initial.emplace_back(region->initial ? *region->initial : description_.initial);
     // The value each cell's region gives its support point i.
     const auto region_value = [&](const auto &cell, const unsigned int i) {
-      const RegionSpec &region = *regions_[cell->material_id()];
+      const Material &material = materials_[cell->material_id()];
       const auto &p = fe_values.quadrature_point(i);
-      double c = initial[cell->material_id()](p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, 0.0);
-      if (!std::isfinite(c) && bad_coefficient_.empty())
-        bad_coefficient_ = (region.initial ? "region." + region.name + ".initial" : std::string("initial.value")) +
-                           ": expected a finite concentration everywhere, found " + number_text(c) + " at " +
-                           describe_point(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, dim);
-      if (region.has_dispersed_phase() && region.loading > 0)
-        c = std::min(region.loading / (region.porosity * region.retardation), region.solubility);
-      return c / region.partition;
+      return material.initial_concentration(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0) / material.partition();
     };
 
     // A node shared by regions with different initial values takes their mean weighted by the
@@ -493,9 +453,7 @@ namespace fickcast
         fe_values.reinit(cell);
         cell->get_dof_indices(dofs);
         const types::material_id id = cell->material_id();
-        const RegionSpec &spec = *regions_[id];
-        const double weight =
-          cell->measure() * coordinate_weight(cell->center()) * spec.porosity * spec.retardation * spec.partition;
+        const double weight = cell->measure() * coordinate_weight(cell->center()) * materials_[id].capacity();
         for (unsigned int i = 0; i < dofs.size(); ++i)
           if (owned_.is_element(dofs[i]))
             {
@@ -579,10 +537,9 @@ namespace fickcast
           {
             if (!cell->is_locally_owned())
               continue;
-            const RegionSpec &region = *regions_[cell->material_id()];
-            const double excess =
-              region.loading - region.porosity * region.retardation * region.solubility; // per bulk volume
-            if (!region.has_dispersed_phase() || excess <= 0)
+            const Material &material = materials_[cell->material_id()];
+            const double excess = material.undissolved_loading(); // per bulk volume
+            if (!material.has_dispersed_phase() || excess <= 0)
               continue;
             values.reinit(cell);
             cell->get_dof_indices(dofs);
@@ -631,34 +588,34 @@ namespace fickcast
   template <int dim>
   double DiffusionProblem<dim>::bath_concentration(const unsigned int b) const
   {
-    if (boundary_specs_[b]->kind != BoundaryKind::bath)
+    if (boundaries_[b].kind() != BoundaryKind::bath)
       return std::numeric_limits<double>::quiet_NaN();
-    return bath_value_[b] * boundary_specs_[b]->bath_partition;
+    return boundaries_[b].bath_concentration(bath_value_[b]);
   }
 
   template <int dim>
   double DiffusionProblem<dim>::bath_amount(const unsigned int b) const
   {
-    if (boundary_specs_[b]->kind != BoundaryKind::bath)
+    if (boundaries_[b].kind() != BoundaryKind::bath)
       return 0;
-    return boundary_specs_[b]->volume * bath_concentration(b);
+    return boundaries_[b].bath_volume() * bath_concentration(b);
   }
 
   template <int dim>
   TermRates DiffusionProblem<dim>::rates(const Vector &u, const double t) const
   {
     TermRates rates;
-    rates.boundary_inflow.assign(boundary_specs_.size(), 0.0);
-    for (unsigned int b = 0; b < boundary_specs_.size(); ++b)
+    rates.boundary_inflow.assign(boundaries_.size(), 0.0);
+    for (unsigned int b = 0; b < boundaries_.size(); ++b)
       {
-        if (boundary_specs_[b]->kind == BoundaryKind::flux)
+        if (boundaries_[b].kind() == BoundaryKind::flux)
           rates.boundary_inflow[b] = boundary_forcing(b, t, nullptr);
-        else if (boundary_specs_[b]->kind == BoundaryKind::transfer)
+        else if (boundaries_[b].kind() == BoundaryKind::transfer)
           rates.boundary_inflow[b] = boundary_forcing(b, t, nullptr) - transfer_rowsum_[b] * u;
       }
     if (!source_depends_on_space_)
-      for (unsigned int r = 0; r < source_.size(); ++r)
-        rates.source += source_[r](0, 0, 0, t) * region_load_total_[r];
+      for (unsigned int r = 0; r < materials_.size(); ++r)
+        rates.source += materials_[r].source(0, 0, 0, t) * region_load_total_[r];
     else
       {
         Vector f = make_vector();

@@ -3,8 +3,8 @@
 
 #include "case/case_description.h"
 #include "geometry/layered_mesh.h"
-#include "model/diffusivity.h"
-#include "model/scalar_function.h"
+#include "model/boundary_condition.h"
+#include "model/material.h"
 #include "numerics/linear_solver.h"
 #include "numerics/phase_timer.h"
 
@@ -107,8 +107,10 @@ namespace fickcast
     unsigned int n_matrix_setups() const { return solver_ ? solver_->n_setups() : 0; }
 
     // --- the model
-    double partition(dealii::types::material_id region) const { return regions_[region]->partition; }
-    double capacity(dealii::types::material_id region) const { return regions_[region]->capacity(); }
+    /// The material of each region (index = material id).
+    const Material &material(dealii::types::material_id region) const { return materials_[region]; }
+    double partition(dealii::types::material_id region) const { return materials_[region].partition(); }
+    double capacity(dealii::types::material_id region) const { return materials_[region].capacity(); }
     /// Effective diffusivity tau D at a point, time and phase concentration.
     double effective_diffusivity(dealii::types::material_id region, const dealii::Point<dim> &point, double t,
                                  double c = 0) const;
@@ -155,7 +157,7 @@ namespace fickcast
     double undissolved_amount() const;
     /// Rates of the non-reaction terms at @p u and @p t.
     TermRates rates(const Vector &u, double t) const;
-    BoundaryKind boundary_kind(unsigned int boundary) const { return boundary_specs_[boundary]->kind; }
+    BoundaryKind boundary_kind(unsigned int boundary) const { return boundaries_[boundary].kind(); }
     /// Concentration in the bath on boundary @p boundary (bath phase; NaN if not a bath).
     double bath_concentration(unsigned int boundary) const;
     /// Amount held by the bath on @p boundary (0 if not a bath).
@@ -204,17 +206,14 @@ namespace fickcast
     unsigned int stage_ = 0;
 
     // Model by material id and boundary id.
-    std::vector<const RegionSpec *> regions_;
-    std::vector<Diffusivity> diffusivity_;
-    std::vector<ScalarFunction> source_;
+    std::vector<Material> materials_;
     std::vector<int> unit_index_; ///< per region: index into unit_ (D uniform, time-dependent), or -1
     std::vector<bool> dynamic_;   ///< per region: assembled per time or iterate
     int clock_region_ = -1;
     double clock_reference_ = 1;
     bool nonlinear_ = false, dispersed_ = false;
-    std::vector<const BoundarySpec *> boundary_specs_;
-    std::vector<ScalarFunction> boundary_value_, boundary_ambient_;
-    std::vector<double> boundary_partition_; ///< K of the region touching each boundary
+    std::vector<BoundaryCondition> boundaries_; ///< this stage's, by boundary id
+    std::vector<double> boundary_partition_;    ///< K of the region touching each boundary
     bool source_depends_on_space_ = false;
 
     // Operators and weights.

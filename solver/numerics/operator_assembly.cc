@@ -15,10 +15,10 @@ namespace fickcast
     // Gauss with p + 1 points integrates the mass and stiffness integrands of cellwise-constant
     // coefficients on affine cells exactly; varying coefficients get one more.
     bool varying = false;
-    for (const auto &d : diffusivity_)
-      varying = varying || !d.uniform_in_space() || d.depends_on_concentration();
-    for (const auto &s : source_)
-      varying = varying || s.depends_on_space();
+    for (const Material &material : materials_)
+      varying = varying || !material.diffusivity_shape().uniform_in_space() ||
+                material.diffusivity_shape().depends_on_concentration() ||
+                material.source_function().depends_on_space();
     return fe_.degree + (varying ? 2 : 1);
   }
 
@@ -61,9 +61,9 @@ namespace fickcast
         fe_values.reinit(cell);
         cell->get_dof_indices(dofs);
         const auto region = cell->material_id();
-        const RegionSpec &spec = *regions_[region];
-        const double c = spec.capacity();
-        const double k = spec.reaction();
+        const Material &material = materials_[region];
+        const double c = material.capacity();
+        const double k = material.reaction();
         const int unit = unit_index_[region];
         const bool in_static = unit < 0 && !dynamic_[region];
         local_mass = 0;
@@ -91,7 +91,7 @@ namespace fickcast
                     if (in_static)
                       local_static(i, j) += g * stiffness;
                     else if (unit >= 0)
-                      local_unit(i, j) += spec.porosity * spec.partition * spec.tortuosity * stiffness;
+                      local_unit(i, j) += material.conductance_factor() * stiffness;
                   }
               }
           }
@@ -108,11 +108,11 @@ namespace fickcast
             if (!cell->face(f)->at_boundary())
               continue;
             const unsigned int b = cell->face(f)->boundary_id();
-            const BoundaryKind kind = boundary_specs_[b]->kind;
+            const BoundaryKind kind = boundaries_[b].kind();
             if (kind != BoundaryKind::flux && kind != BoundaryKind::transfer)
               continue;
             fe_face_values.reinit(cell, f);
-            const double h = kind == BoundaryKind::transfer ? boundary_specs_[b]->coefficient * spec.partition : 1.0;
+            const double h = boundaries_[b].load_factor(material.partition());
             dealii::Vector<double> face_load(n);
             for (unsigned int q = 0; q < face_quadrature.size(); ++q)
               {
@@ -189,8 +189,8 @@ namespace fickcast
         fe_values.reinit(cell);
         cell->get_dof_indices(dofs);
         const auto region = cell->material_id();
-        const RegionSpec &spec = *regions_[region];
-        const bool nonlinear = diffusivity_[region].depends_on_concentration();
+        const Material &material = materials_[region];
+        const bool nonlinear = material.diffusivity_shape().depends_on_concentration();
         if (nonlinear)
           {
             Assert(u_ghosted != nullptr, ExcMessage("a concentration-dependent operator needs a state"));
@@ -202,14 +202,12 @@ namespace fickcast
           {
             const auto &p = fe_values.quadrature_point(q);
             const double w = coordinate_weight(p) * fe_values.JxW(q);
-            const double c = nonlinear ? spec.partition * u_values[q] : 0.0;
+            const double c = nonlinear ? material.partition() * u_values[q] : 0.0;
             const double g = conductance(region, p, t, c);
             // d G / d u = theta tau K dD/dc K (Newton's extra term).
-            const double dg =
-              with_jacobian && nonlinear
-                ? spec.porosity * spec.tortuosity * spec.partition * spec.partition *
-                    diffusivity_[region].derivative(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, t, c)
-                : 0.0;
+            const double dg = with_jacobian && nonlinear ? material.conductance_derivative(p[0], dim > 1 ? p[1] : 0.0,
+                                                                                           dim > 2 ? p[2] : 0.0, t, c)
+                                                         : 0.0;
             for (unsigned int i = 0; i < n; ++i)
               {
                 const auto &grad_i = fe_values.shape_grad(i, q);
@@ -251,14 +249,14 @@ namespace fickcast
         fe_values.reinit(cell);
         cell->get_dof_indices(dofs);
         const auto region = cell->material_id();
-        const RegionSpec &spec = *regions_[region];
+        const double partition = materials_[region].partition();
         fe_values.get_function_values(u_ghosted, u_values);
         fe_values.get_function_gradients(u_ghosted, u_gradients);
         local = 0;
         for (unsigned int q = 0; q < quadrature.size(); ++q)
           {
             const auto &p = fe_values.quadrature_point(q);
-            const double g = conductance(region, p, t, spec.partition * u_values[q]);
+            const double g = conductance(region, p, t, partition * u_values[q]);
             const double w = coordinate_weight(p) * fe_values.JxW(q);
             for (unsigned int i = 0; i < n; ++i)
               local(i) += g * (u_gradients[q] * fe_values.shape_grad(i, q)) * w;
@@ -280,7 +278,7 @@ namespace fickcast
           if (unit_index_[r] >= 0)
             {
               unit_[static_cast<std::size_t>(unit_index_[r])].full.vmult(tmp, u);
-              out.add(diffusivity_[r](0, 0, 0, t, 0), tmp);
+              out.add(materials_[r].diffusivity(0, 0, 0, t, 0), tmp);
             }
       }
     if (dynamic_matrices_.full.m() == 0)
@@ -299,16 +297,15 @@ namespace fickcast
   void DiffusionProblem<dim>::forcing(const double t, Vector &f) const
   {
     sources(t, f);
-    for (unsigned int b = 0; b < boundary_specs_.size(); ++b)
-      if (boundary_specs_[b]->kind == BoundaryKind::flux || boundary_specs_[b]->kind == BoundaryKind::transfer)
+    for (unsigned int b = 0; b < boundaries_.size(); ++b)
+      if (boundaries_[b].kind() == BoundaryKind::flux || boundaries_[b].kind() == BoundaryKind::transfer)
         boundary_forcing(b, t, &f);
   }
 
   template <int dim>
   double DiffusionProblem<dim>::boundary_forcing(const unsigned int b, const double t, Vector *f) const
   {
-    const ScalarFunction &given =
-      boundary_specs_[b]->kind == BoundaryKind::flux ? boundary_value_[b] : boundary_ambient_[b];
+    const ScalarFunction &given = boundaries_[b].driving_function();
     if (!given.depends_on_space())
       {
         const double value = given.at_time(t);
@@ -334,9 +331,7 @@ namespace fickcast
               continue;
             fe_face_values.reinit(cell, face);
             cell->get_dof_indices(dofs);
-            const double factor = boundary_specs_[b]->kind == BoundaryKind::transfer
-                                    ? boundary_specs_[b]->coefficient * partition(cell->material_id())
-                                    : 1.0;
+            const double factor = boundaries_[b].load_factor(partition(cell->material_id()));
             local = 0;
             for (unsigned int q = 0; q < face_quadrature.size(); ++q)
               {
@@ -361,8 +356,8 @@ namespace fickcast
     f = 0;
     if (!source_depends_on_space_)
       {
-        for (unsigned int r = 0; r < source_.size(); ++r)
-          if (const double s = source_[r](0, 0, 0, t); s != 0)
+        for (unsigned int r = 0; r < materials_.size(); ++r)
+          if (const double s = materials_[r].source(0, 0, 0, t); s != 0)
             f.add(s, region_load_[r]);
         return;
       }
@@ -377,12 +372,12 @@ namespace fickcast
           continue;
         fe_values.reinit(cell);
         cell->get_dof_indices(dofs);
-        const auto &source = source_[cell->material_id()];
+        const Material &material = materials_[cell->material_id()];
         local = 0;
         for (unsigned int q = 0; q < quadrature.size(); ++q)
           {
             const auto &p = fe_values.quadrature_point(q);
-            const double s = source(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, t);
+            const double s = material.source(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, t);
             const double w = coordinate_weight(p) * fe_values.JxW(q);
             for (unsigned int i = 0; i < n; ++i)
               local(i) += s * fe_values.shape_value(i, q) * w;

@@ -22,7 +22,7 @@ namespace fickcast
     std::vector<double> key{plan.a0, plan.w1};
     for (unsigned int r = 0; r < unit_index_.size(); ++r)
       if (unit_index_[r] >= 0)
-        key.push_back(plan.w1 * diffusivity_[r](0, 0, 0, plan.t1, 0));
+        key.push_back(plan.w1 * materials_[r].diffusivity(0, 0, 0, plan.t1, 0));
     if (dynamic_matrices_.full.m() != 0)
       key.push_back(static_cast<double>(dynamic_version_));
     key.push_back(jacobian ? 1.0 : 0.0);
@@ -34,7 +34,7 @@ namespace fickcast
     system_.add(plan.w1, static_.constrained);
     for (unsigned int r = 0; r < unit_index_.size(); ++r)
       if (unit_index_[r] >= 0)
-        system_.add(plan.w1 * diffusivity_[r](0, 0, 0, plan.t1, 0),
+        system_.add(plan.w1 * materials_[r].diffusivity(0, 0, 0, plan.t1, 0),
                     unit_[static_cast<std::size_t>(unit_index_[r])].constrained);
     if (dynamic_matrices_.full.m() != 0)
       system_.add(plan.w1, dynamic_matrices_.constrained);
@@ -76,7 +76,7 @@ namespace fickcast
       if (unit_index_[r] >= 0)
         {
           unit_[static_cast<std::size_t>(unit_index_[r])].full.vmult(tmp, x);
-          out.add(diffusivity_[r](0, 0, 0, t, 0), tmp);
+          out.add(materials_[r].diffusivity(0, 0, 0, t, 0), tmp);
         }
     if (dynamic_matrices_.full.m() != 0 && dynamic_valid_ && !dynamic_is_jacobian_)
       {
@@ -153,13 +153,11 @@ namespace fickcast
         for (std::size_t k = 0; k < fixed_dofs_.size(); ++k)
           {
             const unsigned int b = fixed_dofs_[k].second;
-            if (boundary_specs_[b]->kind != BoundaryKind::concentration)
+            if (boundaries_[b].kind() != BoundaryKind::concentration)
               continue;
             const Point<dim> &p = fixed_points_[k];
-            const double x = p[0], y = dim > 1 ? p[1] : 0.0, z = dim > 2 ? p[2] : 0.0;
-            lifted[fixed_dofs_[k].first] = boundary_specs_[b]->value_is_ambient
-                                             ? boundary_ambient_[b](x, y, z, plan.t1)
-                                             : boundary_value_[b](x, y, z, plan.t1) / boundary_partition_[b];
+            lifted[fixed_dofs_[k].first] =
+              boundaries_[b].fixed_value(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, plan.t1);
           }
         for (const auto dof : active)
           lifted[dof] = saturation_[dof];
@@ -224,8 +222,7 @@ namespace fickcast
               }
             for (std::size_t k = 0; k < n; ++k)
               {
-                const BoundarySpec &spec = *boundary_specs_[baths_[k]];
-                const double capacity = spec.volume * spec.bath_partition;
+                const double capacity = boundaries_[baths_[k]].bath_capacity();
                 system(k, k) += capacity * plan.a0;
                 right(k) = -capacity * (plan.a1 * bath_value_[baths_[k]] + plan.a2 * bath_value_prev_[baths_[k]]) -
                            bath_sum(residual, baths_[k]);
@@ -282,10 +279,8 @@ namespace fickcast
       {
         const unsigned int b = fixed_dofs_[k].second;
         const Point<dim> &p = fixed_points_[k];
-        const double x = p[0], y = dim > 1 ? p[1] : 0.0, z = dim > 2 ? p[2] : 0.0;
-        u1[fixed_dofs_[k].first] = boundary_specs_[b]->value_is_ambient
-                                     ? boundary_ambient_[b](x, y, z, plan.t1)
-                                     : boundary_value_[b](x, y, z, plan.t1) / boundary_partition_[b];
+        u1[fixed_dofs_[k].first] =
+          boundaries_[b].fixed_value(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, plan.t1);
       }
     u1.compress(VectorOperation::insert);
     const double scale = std::max(concentration_scale(), 1e-300);
@@ -383,7 +378,7 @@ namespace fickcast
     apply_operator(plan.t1, u1, tmp);
     residual.add(plan.w1, tmp);
     residual -= rhs_used;
-    result.reactions.assign(boundary_specs_.size(), 0.0);
+    result.reactions.assign(boundaries_.size(), 0.0);
     for (const auto &[dof, boundary] : fixed_dofs_)
       result.reactions[boundary] += residual[dof];
     Utilities::MPI::sum(result.reactions, communicator_, result.reactions);

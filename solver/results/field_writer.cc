@@ -18,8 +18,8 @@ namespace fickcast
     class PhaseFields : public DataPostprocessor<dim>
     {
     public:
-      PhaseFields(const DiffusionProblem<dim> &problem, const double time)
-        : problem_(problem)
+      PhaseFields(const FieldView<dim> &field, const double time)
+        : field_(field)
         , time_(time)
       {
       }
@@ -29,14 +29,14 @@ namespace fickcast
       {
         const auto cell = inputs.template get_cell<dim>();
         const auto region = cell->material_id();
-        const double k = problem_.partition(region);
-        const double c = problem_.capacity(region);
+        const double k = field_.partition(region);
+        const double c = field_.capacity(region);
         for (unsigned int q = 0; q < inputs.solution_values.size(); ++q)
           {
             const double u = inputs.solution_values[q];
             computed[q](0) = k * u;
             computed[q](1) = c * u;
-            const double g = problem_.conductance(region, inputs.evaluation_points[q], time_, k * u);
+            const double g = field_.conductance(region, inputs.evaluation_points[q], time_, k * u);
             for (int d = 0; d < dim; ++d)
               computed[q](2 + d) = -g * inputs.solution_gradients[q][d];
           }
@@ -66,14 +66,14 @@ namespace fickcast
       }
 
     private:
-      const DiffusionProblem<dim> &problem_;
+      const FieldView<dim> &field_;
       double time_;
     };
   } // namespace
 
   template <int dim>
-  FieldWriter<dim>::FieldWriter(const DiffusionProblem<dim> &problem, const std::string &folder)
-    : problem_(problem)
+  FieldWriter<dim>::FieldWriter(const FieldView<dim> &field, const std::string &folder)
+    : field_(field)
     , folder_(folder)
   {
   }
@@ -81,13 +81,13 @@ namespace fickcast
   template <int dim>
   void FieldWriter<dim>::write(const Vector &u, const double t)
   {
-    const PhaseFields<dim> phase(problem_, t);
+    const PhaseFields<dim> phase(field_, t);
     DataOut<dim> data_out;
-    data_out.attach_dof_handler(problem_.dof_handler());
+    data_out.attach_dof_handler(*field_.dof_handler);
     data_out.add_data_vector(u, phase);
     data_out.add_data_vector(u, "reference_concentration");
 
-    const auto &triangulation = problem_.triangulation();
+    const auto &triangulation = field_.triangulation();
     dealii::Vector<float> region(triangulation.n_active_cells());
     dealii::Vector<float> diffusivity(triangulation.n_active_cells());
     for (const auto &cell : triangulation.active_cell_iterators())
@@ -95,12 +95,12 @@ namespace fickcast
         {
           region(cell->active_cell_index()) = static_cast<float>(cell->material_id());
           diffusivity(cell->active_cell_index()) =
-            static_cast<float>(problem_.effective_diffusivity(cell->material_id(), cell->center(), t));
+            static_cast<float>(field_.effective_diffusivity(cell->material_id(), cell->center(), t));
         }
-    problem_.check_coefficients();
+    field_.check_coefficients();
     data_out.add_data_vector(region, "region", DataOut<dim>::type_cell_data);
     data_out.add_data_vector(diffusivity, "effective_diffusivity", DataOut<dim>::type_cell_data);
-    data_out.build_patches(problem_.mapping(), problem_.degree());
+    data_out.build_patches(*field_.mapping, field_.degree());
 
     DataOutBase::VtkFlags flags;
     flags.time = t;
@@ -109,7 +109,7 @@ namespace fickcast
     data_out.set_flags(flags);
 
     const unsigned int index = static_cast<unsigned int>(records_.size());
-    const MPI_Comm communicator = problem_.communicator();
+    const MPI_Comm communicator = field_.communicator;
     std::string name;
     if (Utilities::MPI::n_mpi_processes(communicator) == 1)
       {
@@ -127,7 +127,7 @@ namespace fickcast
   template <int dim>
   void FieldWriter<dim>::finish() const
   {
-    if (Utilities::MPI::this_mpi_process(problem_.communicator()) != 0)
+    if (Utilities::MPI::this_mpi_process(field_.communicator) != 0)
       return;
     std::ofstream out(folder_ + "/fields.pvd");
     if (!out)

@@ -1,7 +1,7 @@
 // VTU (PVTU when distributed) field files at output times, with a PVD index.
 #pragma once
 
-#include "numerics/diffusion_problem.h"
+#include "results/field_view.h"
 
 #include <string>
 #include <utility>
@@ -19,10 +19,10 @@ namespace fickcast
   class FieldWriter
   {
   public:
-    using Vector = typename DiffusionProblem<dim>::Vector;
+    using Vector = FieldVector;
 
     /// @p folder is the `fields` folder; it must exist.
-    FieldWriter(const DiffusionProblem<dim> &problem, const std::string &folder);
+    FieldWriter(const FieldView<dim> &field, const std::string &folder);
 
     /// Writes the ghosted state @p u at time @p t (collective).
     void write(const Vector &u, double t);
@@ -30,7 +30,7 @@ namespace fickcast
     void finish() const;
 
   private:
-    const DiffusionProblem<dim> &problem_;
+    FieldView<dim> field_;
     std::string folder_;
     std::vector<std::pair<double, std::string>> records_;
   };

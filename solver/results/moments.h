@@ -1,8 +1,8 @@
 // Spread moments of the content of a field: amount, mean position, variance.
 #pragma once
 
-#include "numerics/diffusion_problem.h"
-#include "numerics/run_record.h"
+#include "results/field_view.h"
+#include "results/run_record.h"
 
 namespace fickcast
 {
@@ -13,6 +13,5 @@ namespace fickcast
    * (common practice: mean-square displacement).
    */
   template <int dim>
-  MomentsRecord spread_moments(const DiffusionProblem<dim> &problem, const typename DiffusionProblem<dim>::Vector &u,
-                               double time);
+  MomentsRecord spread_moments(const FieldView<dim> &field, const FieldVector &u, double time);
 } // namespace fickcast

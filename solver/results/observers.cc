@@ -12,11 +12,11 @@ namespace fickcast
   using namespace dealii;
 
   template <int dim>
-  Observers<dim>::Observers(const DiffusionProblem<dim> &problem, const CaseDescription &description,
-                            const std::string &folder, const double initial_amount)
-    : problem_(problem)
+  Observers<dim>::Observers(const FieldView<dim> &field, const CaseDescription &description, const std::string &folder,
+                            const double initial_amount)
+    : field_(field)
     , c_(description)
-    , root_(Utilities::MPI::this_mpi_process(problem.communicator()) == 0)
+    , root_(Utilities::MPI::this_mpi_process(field.communicator) == 0)
   {
     std::vector<Point<dim>> points;
     std::vector<std::string> regions, names, origins;
@@ -36,7 +36,7 @@ namespace fickcast
             record.threshold = threshold.level;
         point_records_.push_back(record);
       }
-    named_points_ = std::make_unique<PointEvaluator<dim>>(problem, points, "output.point", regions, names, origins);
+    named_points_ = std::make_unique<PointEvaluator<dim>>(field_, points, "output.point", regions, names, origins);
 
     for (const auto &spec : c_.output.lines)
       {
@@ -93,7 +93,7 @@ namespace fickcast
         line.points.push_back(from + fraction * (to - from));
         line.distance.push_back(fraction * from.distance(to));
       }
-    line.evaluator = std::make_unique<PointEvaluator<dim>>(problem_, line.points, what);
+    line.evaluator = std::make_unique<PointEvaluator<dim>>(field_, line.points, what);
     return line;
   }
 
@@ -129,7 +129,7 @@ namespace fickcast
     else
       {
         std::vector<double> low(dim, 1e300), high(dim, -1e300);
-        for (const auto &cell : problem_.triangulation().active_cell_iterators())
+        for (const auto &cell : field_.triangulation().active_cell_iterators())
           if (cell->is_locally_owned())
             for (const unsigned int v : cell->vertex_indices())
               for (int d = 0; d < dim; ++d)
@@ -139,8 +139,8 @@ namespace fickcast
                 }
         for (int d = 0; d < dim; ++d)
           {
-            low[d] = Utilities::MPI::min(low[d], problem_.communicator());
-            high[d] = Utilities::MPI::max(high[d], problem_.communicator());
+            low[d] = Utilities::MPI::min(low[d], field_.communicator);
+            high[d] = Utilities::MPI::max(high[d], field_.communicator);
             start[d] = end[d] = 0.5 * (low[d] + high[d]);
           }
         start[dim - 1] = low[dim - 1];
@@ -226,7 +226,7 @@ namespace fickcast
         depths_[k].depths.push_back(depth);
       }
     if (c_.output.moments)
-      moments_.push_back(spread_moments(problem_, ghosted, t));
+      moments_.push_back(spread_moments(field_, ghosted, t));
   }
 
   template <int dim>

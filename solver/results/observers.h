@@ -2,10 +2,10 @@
 // along them, the released fraction and its events, spread moments.
 #pragma once
 
-#include "numerics/diffusion_problem.h"
-#include "numerics/run_record.h"
 #include "results/csv_writer.h"
+#include "results/field_view.h"
 #include "results/point_evaluator.h"
+#include "results/run_record.h"
 
 #include <memory>
 #include <string>
@@ -22,11 +22,11 @@ namespace fickcast
   class Observers
   {
   public:
-    using Vector = typename DiffusionProblem<dim>::Vector;
+    using Vector = FieldVector;
 
     /// Locates points and line points (InputError if outside the mesh); opens profiles.csv in
     /// @p folder on rank 0 when there are lines. @p initial_amount is the content at t = 0.
-    Observers(const DiffusionProblem<dim> &problem, const CaseDescription &description, const std::string &folder,
+    Observers(const FieldView<dim> &field, const CaseDescription &description, const std::string &folder,
               double initial_amount);
 
     /// Point values at the last observed state (SI concentrations).
@@ -57,7 +57,7 @@ namespace fickcast
                    std::size_t samples, const std::string &what) const;
     Line default_depth_line() const;
 
-    const DiffusionProblem<dim> &problem_;
+    FieldView<dim> field_;
     const CaseDescription &c_;
     bool root_;
     std::unique_ptr<PointEvaluator<dim>> named_points_;

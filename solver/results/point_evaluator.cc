@@ -14,11 +14,11 @@ namespace fickcast
   using namespace dealii;
 
   template <int dim>
-  PointEvaluator<dim>::PointEvaluator(const DiffusionProblem<dim> &problem, const std::vector<Point<dim>> &points,
+  PointEvaluator<dim>::PointEvaluator(const FieldView<dim> &field, const std::vector<Point<dim>> &points,
                                       const std::string &what, const std::vector<std::string> &regions,
                                       const std::vector<std::string> &point_names,
                                       const std::vector<std::string> &origins)
-    : communicator_(problem.communicator())
+    : communicator_(field.communicator)
     , n_points_(points.size())
   {
     const unsigned int rank = Utilities::MPI::this_mpi_process(communicator_);
@@ -30,21 +30,20 @@ namespace fickcast
       {
         try
           {
-            const auto found =
-              GridTools::find_active_cell_around_point(problem.mapping(), problem.dof_handler(), points[i]);
+            const auto found = GridTools::find_active_cell_around_point(*field.mapping, *field.dof_handler, points[i]);
             if (found.first.state() != IteratorState::valid)
               continue;
             auto chosen = found;
             if (i < regions.size() && !regions[i].empty())
               {
                 // At an interface: the cell on the side of the region asked for.
-                const auto &names = problem.names().regions;
+                const auto &names = field.names->regions;
                 const auto wanted =
                   static_cast<types::material_id>(std::find(names.begin(), names.end(), regions[i]) - names.begin());
                 bool matched = found.first->material_id() == wanted;
                 if (!matched)
                   for (const auto &candidate : GridTools::find_all_active_cells_around_point(
-                         problem.mapping(), problem.dof_handler(), points[i], 1e-10, found))
+                         *field.mapping, *field.dof_handler, points[i], 1e-10, found))
                     if (candidate.first->material_id() == wanted)
                       {
                         chosen = candidate;
@@ -69,7 +68,7 @@ namespace fickcast
     std::vector<unsigned int> owner(claim.size());
     MPI_Allreduce(claim.data(), owner.data(), static_cast<int>(claim.size()), MPI_UNSIGNED, MPI_MIN, communicator_);
     std::vector<unsigned int> region(points.size(), 0);
-    const auto &fe = problem.dof_handler().get_fe();
+    const auto &fe = field.dof_handler->get_fe();
     for (std::size_t i = 0; i < points.size(); ++i)
       {
         if (owner[i] == n_ranks)
@@ -82,8 +81,7 @@ namespace fickcast
                 coordinates += (d ? ", " : "") + std::string(buffer);
               }
             const bool in_region = i < regions.size() && !regions[i].empty();
-            const std::string where =
-              i < origins.size() && !origins[i].empty() ? origins[i] : problem.description().file;
+            const std::string where = i < origins.size() && !origins[i].empty() ? origins[i] : field.case_file;
             const std::string key = i < point_names.size() ? what + "." + point_names[i] : what;
             throw InputError(where, key,
                              "expected a point inside the mesh" +
@@ -95,7 +93,7 @@ namespace fickcast
         mine_.push_back(static_cast<unsigned int>(i));
         std::vector<types::global_dof_index> dofs(fe.n_dofs_per_cell());
         cells[i]->get_dof_indices(dofs);
-        const double k = problem.partition(cells[i]->material_id());
+        const double k = field.partition(cells[i]->material_id());
         std::vector<double> weights(dofs.size());
         for (unsigned int j = 0; j < dofs.size(); ++j)
           weights[j] = k * fe.shape_value(j, unit[i]);

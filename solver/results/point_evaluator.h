@@ -1,7 +1,7 @@
 // Concentrations at fixed points of a (possibly distributed) finite-element field.
 #pragma once
 
-#include "numerics/diffusion_problem.h"
+#include "results/field_view.h"
 
 #include <deal.II/base/point.h>
 
@@ -20,14 +20,14 @@ namespace fickcast
   class PointEvaluator
   {
   public:
-    using Vector = typename DiffusionProblem<dim>::Vector;
+    using Vector = FieldVector;
 
     /// Throws InputError naming @p what if a point lies outside the mesh (or outside the region
     /// named for it in @p regions, where one is: the side to read at an interface); with
     /// @p names and @p origins (one per point), the key is `what.NAME` and the place its file:line.
-    PointEvaluator(const DiffusionProblem<dim> &problem, const std::vector<dealii::Point<dim>> &points,
-                   const std::string &what, const std::vector<std::string> &regions = {},
-                   const std::vector<std::string> &names = {}, const std::vector<std::string> &origins = {});
+    PointEvaluator(const FieldView<dim> &field, const std::vector<dealii::Point<dim>> &points, const std::string &what,
+                   const std::vector<std::string> &regions = {}, const std::vector<std::string> &names = {},
+                   const std::vector<std::string> &origins = {});
 
     /// Phase concentrations at the points for the ghosted state @p u.
     std::vector<double> concentrations(const Vector &u) const;

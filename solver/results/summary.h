@@ -2,8 +2,8 @@
 #pragma once
 
 #include "case/case_description.h"
-#include "numerics/run_record.h"
 #include "results/json.h"
+#include "results/run_record.h"
 
 #include <string>
 

@@ -3,11 +3,11 @@
 #include "case/case_reader.h"
 #include "case/input_error.h"
 #include "numerics/collective.h"
-#include "numerics/run_case.h"
-#include "numerics/simulation.h"
 #include "results/json.h"
-#include "results/results_folder.h"
 #include "results/summary.h"
+#include "run/results_folder.h"
+#include "run/run_case.h"
+#include "run/simulation.h"
 #include "studies/folder_lock.h"
 
 #include <chrono>

@@ -2,7 +2,7 @@
 
 #include "case/case_reader.h"
 #include "case/input_error.h"
-#include "numerics/run_case.h"
+#include "run/run_case.h"
 
 #include <boost/math/constants/constants.hpp>
 #include <boost/math/quadrature/gauss_kronrod.hpp>

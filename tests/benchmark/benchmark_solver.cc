@@ -7,7 +7,7 @@
 //                                                    versus a plain uniform-grid Crank-Nicolson
 //                                                    finite-difference solver written here)
 #include "case/case_reader.h"
-#include "numerics/simulation.h"
+#include "run/simulation.h"
 
 #include <deal.II/base/mpi.h>
 

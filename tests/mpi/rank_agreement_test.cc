@@ -4,8 +4,9 @@
 #include "case_runner.h"
 
 #include "numerics/diffusion_problem.h"
-#include "numerics/simulation.h"
 #include "results/point_evaluator.h"
+#include "run/field_view_of.h"
+#include "run/simulation.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -67,7 +68,7 @@ point.a = 0.75 m, 0.3 m
           points.emplace_back(0.15 * i, 0.1 * j);
       const StateObserver<2> observer = [&](double t, const DiffusionProblem<2> &problem,
                                             const dealii::TrilinosWrappers::MPI::Vector &state) {
-        const PointEvaluator<2> evaluator(problem, points, "sample");
+        const PointEvaluator<2> evaluator(field_view_of(problem), points, "sample");
         observed.times.push_back(t);
         observed.values.push_back(evaluator.concentrations(state));
       };

@@ -1,7 +1,7 @@
 #include "case_runner.h"
 
 #include "case/case_reader.h"
-#include "numerics/run_case.h"
+#include "run/run_case.h"
 
 #include <deal.II/base/mpi.h>
 

@@ -1,5 +1,6 @@
 #include "case/case_reader.h"
 #include "case/input_error.h"
+#include "model/material.h"
 
 #include <gtest/gtest.h>
 
@@ -48,8 +49,8 @@ threshold.base = 250 mg/L
     EXPECT_DOUBLE_EQ(c.geometry.layers[1].thickness, 0.3);
     EXPECT_DOUBLE_EQ(c.geometry.cell_size, 0.005);
     EXPECT_DOUBLE_EQ(c.regions[1].diffusivity.value, 1.9e-9);
-    EXPECT_DOUBLE_EQ(c.regions[0].capacity(), 0.38);
-    EXPECT_DOUBLE_EQ(c.regions[0].conductance_factor(), 0.38 * 0.33);
+    EXPECT_DOUBLE_EQ(c.regions[0].porosity, 0.38);
+    EXPECT_DOUBLE_EQ(c.regions[0].tortuosity, 0.33);
     EXPECT_DOUBLE_EQ(c.time.end, 60 * 31557600.0);
     EXPECT_EQ(c.units.concentration, "kg/m3");
     EXPECT_EQ(c.units.amount, "kg/m2");
@@ -149,8 +150,9 @@ threshold.base = 250 mg/L
       read_case_text(text, "case.ini",
                      {"region.clay.porosity_law=archie", "region.clay.archie_exponent=2", "region.sand.porosity=0.4",
                       "region.sand.bulk_density=1.6 g/cm3", "region.sand.distribution_coefficient=0.5 mL/g"});
-    EXPECT_DOUBLE_EQ(c.regions[0].tortuosity, 0.38); // theta^(m-1)
-    EXPECT_DOUBLE_EQ(c.regions[1].retardation, 3.0); // 1 + 1.6e3 * 0.5e-3 / 0.4
+    EXPECT_EQ(c.regions[0].porosity_law, PorosityLaw::archie);
+    EXPECT_DOUBLE_EQ(tortuosity_factor(c.regions[0]), 0.38); // theta^(m-1)
+    EXPECT_DOUBLE_EQ(c.regions[1].retardation, 3.0);         // 1 + 1.6e3 * 0.5e-3 / 0.4
   }
 
   TEST(CaseReader, StagesChainTemperaturesAndBoundaries)

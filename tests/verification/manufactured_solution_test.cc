@@ -7,7 +7,7 @@
 
 #include "case/expression.h"
 #include "numerics/diffusion_problem.h"
-#include "numerics/simulation.h"
+#include "run/simulation.h"
 
 #include <deal.II/base/function.h>
 #include <deal.II/base/quadrature_lib.h>

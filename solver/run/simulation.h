@@ -2,7 +2,7 @@
 #pragma once
 
 #include "case/case_description.h"
-#include "numerics/run_record.h"
+#include "results/run_record.h"
 
 #include <mpi.h>
 

@@ -2,8 +2,8 @@
 #pragma once
 
 #include "case/case_description.h"
-#include "numerics/run_record.h"
-#include "numerics/simulation.h"
+#include "results/run_record.h"
+#include "run/simulation.h"
 
 #include <mpi.h>
 

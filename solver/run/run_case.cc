@@ -1,9 +1,9 @@
-#include "numerics/run_case.h"
+#include "run/run_case.h"
 
 #include "case/input_error.h"
 #include "numerics/collective.h"
-#include "results/results_folder.h"
 #include "results/summary.h"
+#include "run/results_folder.h"
 
 #include <deal.II/base/mpi.h>
 

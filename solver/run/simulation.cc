@@ -1,4 +1,4 @@
-#include "numerics/simulation.h"
+#include "run/simulation.h"
 
 #include "case/input_error.h"
 #include "model/clock.h"
@@ -7,6 +7,7 @@
 #include "results/csv_writer.h"
 #include "results/field_writer.h"
 #include "results/observers.h"
+#include "run/field_view_of.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -84,6 +85,7 @@ namespace fickcast
 
     DiffusionProblem<dim> problem(c, communicator);
     problem.setup();
+    const FieldView<dim> field = field_view_of(problem);
 
     RunRecord record;
     record.dimension = dim;
@@ -157,7 +159,7 @@ namespace fickcast
 
     std::unique_ptr<FieldWriter<dim>> fields;
     if (c.output.write_fields)
-      fields = std::make_unique<FieldWriter<dim>>(problem, folder + "/fields");
+      fields = std::make_unique<FieldWriter<dim>>(field, folder + "/fields");
 
     // The clock: tau = int phi dt when a region's D changes in time only (temperature schedules).
     Clock clock;
@@ -180,7 +182,7 @@ namespace fickcast
     for (const double a : record.initial_region_amounts)
       reference_amount += std::abs(a);
 
-    Observers<dim> observers(problem, c, folder, reference_amount);
+    Observers<dim> observers(field, c, folder, reference_amount);
     auto remaining = [&problem](const Vector &state) {
       double total = problem.undissolved_amount();
       for (const double a : problem.region_amounts(state))

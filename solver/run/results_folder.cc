@@ -1,4 +1,4 @@
-#include "results/results_folder.h"
+#include "run/results_folder.h"
 
 #include "case/input_error.h"
 
