@@ -5,6 +5,7 @@
 #include <boost/property_tree/json_parser.hpp>
 #include <boost/property_tree/ptree.hpp>
 
+#include <algorithm>
 #include <cmath>
 
 namespace fickcast
@@ -35,7 +36,7 @@ namespace fickcast
     }
   } // namespace
 
-  CaseSummary read_case_summary(const std::string &path)
+  CaseSummary read_case_summary(const std::string &path, const std::vector<std::string> &order)
   {
     boost::property_tree::ptree tree;
     try
@@ -72,6 +73,13 @@ namespace fickcast
             continue;
           summary.results.push_back(result);
         }
+    const auto position = [&order](const NamedResult &r) {
+      return static_cast<std::size_t>(std::find(order.begin(), order.end(), r.name) - order.begin());
+    };
+    std::sort(summary.results.begin(), summary.results.end(), [&](const NamedResult &a, const NamedResult &b) {
+      const std::size_t pa = position(a), pb = position(b);
+      return pa != pb ? pa < pb : pa == order.size() && a.name < b.name;
+    });
     return summary;
   }
 } // namespace fickcast

@@ -194,7 +194,7 @@ namespace fickcast
       collectively(communicator, [&] {
         if (rank != 0)
           return;
-        const CaseSummary summary = read_case_summary(ran.folder + "/summary.json");
+        const CaseSummary summary = read_case_summary(ran.folder + "/summary.json", result_order(description));
         const NamedResult *r = summary.find(outcome.result_name);
         if (r == nullptr)
           {

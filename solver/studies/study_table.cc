@@ -59,12 +59,13 @@ namespace fickcast
     std::vector<std::pair<std::string, std::string>> columns; // result name, unit
     StudyTable table;
     std::map<std::string, unsigned int> &statuses = table.statuses;
+    const std::vector<std::string> order = result_order(base);
     for (const auto &c : cases)
       {
         const std::string path = folder + "/cases/" + c.id + "/summary.json";
         CaseSummary s;
         if (std::filesystem::exists(path))
-          s = read_case_summary(path);
+          s = read_case_summary(path, order);
         else
           s.status = "not run";
         for (const auto &r : s.results)
