@@ -5,7 +5,7 @@
 #include "numerics/collective.h"
 #include "numerics/run_case.h"
 #include "numerics/simulation.h"
-#include "results/json.h"
+#include "results/json_file.h"
 #include "results/results_folder.h"
 #include "results/summary.h"
 #include "studies/folder_lock.h"
@@ -33,7 +33,7 @@ namespace fickcast
     void write_input_error(const std::string &folder, const std::string &message)
     {
       ResultsFolder results(folder, true);
-      Json summary = Json::object();
+      Json::Value summary(Json::objectValue);
       summary["program"] = "fickcast";
       summary["version"] = fickcast_version();
       summary["status"] = "input error";
