@@ -1,5 +1,6 @@
 // The named results of a finished case, read back in the case's order (sweep.csv columns).
 #include "case/case_reader.h"
+#include "case/input_error.h"
 #include "studies/case_summary.h"
 #include "studies/result_names.h"
 
@@ -72,5 +73,22 @@ depth.front = 100 mg/L
     EXPECT_EQ(summary.find("extra.a")->value, 3.0);
     EXPECT_TRUE(std::isnan(summary.find("threshold.base")->value));
     std::filesystem::remove(path);
+  }
+
+  TEST(CaseSummary, InputErrorSummaryHasNoResultsAndBadFilesAreIoErrors)
+  {
+    const std::string path = (std::filesystem::temp_directory_path() / "fickcast_case_summary_bad.json").string();
+    std::ofstream(path) << R"({"message": "bad porosity", "program": "fickcast", "status": "input error"})";
+    const CaseSummary summary = read_case_summary(path, {});
+    EXPECT_EQ(summary.status, "input error");
+    EXPECT_EQ(summary.message, "bad porosity");
+    EXPECT_EQ(summary.wall_time, 0.0);
+    EXPECT_TRUE(summary.results.empty());
+    std::ofstream(path) << R"({"status": )";
+    EXPECT_THROW(read_case_summary(path, {}), IoError);
+    std::ofstream(path) << "[1, 2]";
+    EXPECT_THROW(read_case_summary(path, {}), IoError);
+    std::filesystem::remove(path);
+    EXPECT_THROW(read_case_summary(path, {}), IoError);
   }
 } // namespace fickcast
