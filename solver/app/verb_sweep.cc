@@ -22,7 +22,8 @@ namespace fickcast
   {
     /// A sweep's cases with their parameters and results in the case's units, read back from
     /// each case's summary.json (the same numbers as sweep.csv). Long sweeps: see sweep.csv.
-    void print_case_results(const std::vector<StudyCase> &cases, const std::string &folder, const DisplayUnits &units)
+    void print_case_results(const std::vector<StudyCase> &cases, const std::vector<std::string> &order,
+                            const std::string &folder, const DisplayUnits &units)
     {
       constexpr std::size_t most = 40;
       if (cases.size() > most)
@@ -39,7 +40,7 @@ namespace fickcast
           CaseSummary summary;
           try
             {
-              summary = read_case_summary(folder + "/cases/" + c.id + "/summary.json");
+              summary = read_case_summary(folder + "/cases/" + c.id + "/summary.json", order);
             }
           catch (const std::exception &)
             {
@@ -140,7 +141,7 @@ namespace fickcast
     std::printf("\n");
     const DisplayUnits units(base);
     if (sweep.sample.empty())
-      print_case_results(cases, options.folder, units);
+      print_case_results(cases, result_order(base), options.folder, units);
     for (const auto &s : totals.table.statistics)
       {
         std::printf("  %s (%zu cases): mean %s, P5 %s, P50 %s, P95 %s\n", s.name.c_str(), s.n,

@@ -1,11 +1,8 @@
 #include "results/summary.h"
 
-#include "case/input_error.h"
-
 #include <chrono>
 #include <cmath>
 #include <ctime>
-#include <fstream>
 
 #include <unistd.h>
 
@@ -38,9 +35,9 @@ namespace fickcast
       return buffer;
     }
 
-    Json quantity(const double value, const std::string &unit)
+    Json::Value quantity(const double value, const std::string &unit)
     {
-      Json q = Json::object();
+      Json::Value q(Json::objectValue);
       q["value"] = value;
       q["unit"] = unit;
       return q;
@@ -61,85 +58,85 @@ namespace fickcast
     }
   } // namespace
 
-  Json make_summary(const CaseDescription &c, const RunRecord &r)
+  Json::Value make_summary(const CaseDescription &c, const RunRecord &r)
   {
-    Json s = Json::object();
+    Json::Value s(Json::objectValue);
     s["program"] = "fickcast";
     s["version"] = fickcast_version();
     s["status"] = r.status;
     if (!r.message.empty())
       s["message"] = r.message;
 
-    Json &case_json = s["case"];
+    Json::Value &case_json = s["case"];
     case_json["file"] = c.file;
     case_json["title"] = c.title;
     case_json["dimension"] = c.dimension;
-    Json &units = case_json["units"];
+    Json::Value &units = case_json["units"];
     units["concentration"] = c.units.concentration;
     units["concentration_as_written"] = c.units.as_written;
     units["amount"] = c.units.amount;
     units["flux"] = c.units.amount + "/s";
-    Json settings = Json::array();
+    Json::Value settings(Json::arrayValue);
     for (const auto &record : c.settings)
       {
-        Json item = Json::object();
+        Json::Value item(Json::objectValue);
         item["key"] = record.key;
         item["written"] = record.written;
         item["si"] = record.si;
         item["origin"] = record.origin;
-        settings.push_back(item);
+        settings.append(item);
       }
     case_json["settings"] = settings;
 
-    Json &mesh = s["mesh"];
+    Json::Value &mesh = s["mesh"];
     mesh["cells"] = r.cells;
     mesh["unknowns"] = r.unknowns;
     mesh["degree"] = r.degree;
-    Json regions = Json::array(), boundaries = Json::array();
+    Json::Value regions(Json::arrayValue), boundaries(Json::arrayValue);
     for (const auto &name : r.regions)
-      regions.push_back(name);
+      regions.append(name);
     for (const auto &name : r.boundaries)
-      boundaries.push_back(name);
+      boundaries.append(name);
     mesh["regions"] = regions;
     mesh["boundaries"] = boundaries;
 
-    Json &time = s["time"];
+    Json::Value &time = s["time"];
     time["end"] = quantity(c.time.end, "s");
     time["reached"] = quantity(r.end_time, "s");
     time["scheme"] = scheme_name(c.time.scheme);
     time["adaptive"] = c.time.adaptive;
     time["steps_accepted"] = r.steps_accepted;
     time["steps_rejected"] = r.steps_rejected;
-    Json stages = Json::array();
+    Json::Value stages(Json::arrayValue);
     for (const auto &stage : r.stages)
       {
-        Json item = Json::object();
+        Json::Value item(Json::objectValue);
         item["name"] = stage.name;
         item["start"] = stage.start;
         item["end"] = stage.end;
-        stages.push_back(item);
+        stages.append(item);
       }
     time["stages"] = stages;
 
-    Json &solver = s["solver"];
+    Json::Value &solver = s["solver"];
     solver["linear_solver"] = r.linear_solver;
     solver["linear_iterations"] = r.linear_iterations;
     solver["nonlinear_iterations"] = r.nonlinear_iterations;
     solver["matrix_setups"] = r.matrix_setups;
     solver["ranks"] = r.ranks;
 
-    Json &run = s["run"];
+    Json::Value &run = s["run"];
     run["date"] = now_iso8601();
     run["host"] = host_name();
     run["wall_time"] = quantity(r.wall_time, "s");
-    Json timing = Json::object();
+    Json::Value timing(Json::objectValue);
     for (const auto &[phase, seconds] : r.timing)
       timing[phase] = seconds;
     run["wall_time_by_phase_s"] = timing;
 
-    Json &amounts = s["amounts"];
+    Json::Value &amounts = s["amounts"];
     double initial = r.initial_undissolved, final = r.final_undissolved;
-    Json initial_regions = Json::object(), final_regions = Json::object(), entered = Json::object();
+    Json::Value initial_regions(Json::objectValue), final_regions(Json::objectValue), entered(Json::objectValue);
     for (std::size_t i = 0; i < r.regions.size(); ++i)
       {
         initial += r.initial_region_amounts[i];
@@ -157,7 +154,7 @@ namespace fickcast
     amounts["entered_by_boundary"] = entered;
     amounts["undissolved_initial"] = r.initial_undissolved;
     amounts["undissolved_final"] = r.final_undissolved;
-    Json baths = Json::object();
+    Json::Value baths(Json::objectValue);
     for (std::size_t b = 0; b < r.boundaries.size() && b < r.bath_final.size(); ++b)
       if (std::isfinite(r.bath_final[b]))
         baths[r.boundaries[b]] = r.bath_final[b];
@@ -165,18 +162,18 @@ namespace fickcast
     amounts["source_total"] = r.source_total;
     amounts["decayed_total"] = r.decayed_total;
 
-    Json &balance = s["mass_balance"];
+    Json::Value &balance = s["mass_balance"];
     balance["error"] = quantity(r.balance_error, c.units.amount);
     balance["relative"] = r.balance_error_relative;
 
-    Json &results = s["results"];
+    Json::Value &results = s["results"];
     results["amount.final_total"] = quantity(final, c.units.amount);
     for (const auto &named_point : r.points)
       {
         results["point." + named_point.name + ".final"] = quantity(named_point.final_value, c.units.concentration);
         if (std::isfinite(named_point.threshold))
           {
-            Json t = quantity(named_point.threshold_time, "s");
+            Json::Value t = quantity(named_point.threshold_time, "s");
             t["level"] = named_point.threshold;
             t["reached"] = std::isfinite(named_point.threshold_time);
             results["threshold." + named_point.name] = t;
@@ -184,21 +181,21 @@ namespace fickcast
       }
     if (std::isfinite(r.released_final))
       {
-        Json released = quantity(r.released_final, "1");
+        Json::Value released = quantity(r.released_final, "1");
         released["reference_amount"] = r.released_reference;
         released["reference_unit"] = c.units.amount;
         results["released_fraction.final"] = released;
       }
     for (const auto &release : r.releases)
       {
-        Json event = quantity(release.time, "s");
+        Json::Value event = quantity(release.time, "s");
         event["level"] = release.level;
         event["reached"] = std::isfinite(release.time);
         results["release." + release.name] = event;
       }
     for (const auto &lag : r.time_lags)
       {
-        Json event = quantity(lag.time_lag, "s");
+        Json::Value event = quantity(lag.time_lag, "s");
         event["boundary"] = lag.boundary;
         event["final_flux_in"] = lag.final_flux;
         event["flux_unit"] = c.units.amount + "/s";
@@ -207,17 +204,18 @@ namespace fickcast
       }
     if (!r.moments.empty())
       {
-        Json moments = Json::object();
-        Json times = Json::array(), moment_amounts = Json::array(), means = Json::array(), variances = Json::array();
+        Json::Value moments(Json::objectValue);
+        Json::Value times(Json::arrayValue), moment_amounts(Json::arrayValue), means(Json::arrayValue),
+          variances(Json::arrayValue);
         for (const auto &m : r.moments)
           {
-            times.push_back(m.time);
-            moment_amounts.push_back(m.amount);
-            Json mean = Json::array();
+            times.append(m.time);
+            moment_amounts.append(m.amount);
+            Json::Value mean(Json::arrayValue);
             for (unsigned int d = 0; d < c.dimension; ++d)
-              mean.push_back(m.mean[d]);
-            means.push_back(mean);
-            variances.push_back(m.variance);
+              mean.append(m.mean[d]);
+            means.append(mean);
+            variances.append(m.variance);
           }
         moments["times"] = times;
         moments["amount"] = moment_amounts;
@@ -228,14 +226,14 @@ namespace fickcast
       }
     for (const auto &depth : r.depths)
       {
-        Json d = Json::object();
+        Json::Value d(Json::objectValue);
         d["level"] = depth.level;
         d["unit"] = "m";
-        Json times = Json::array(), depths = Json::array();
+        Json::Value times(Json::arrayValue), depths(Json::arrayValue);
         for (std::size_t i = 0; i < depth.times.size(); ++i)
           {
-            times.push_back(depth.times[i]);
-            depths.push_back(depth.depths[i]);
+            times.append(depth.times[i]);
+            depths.append(depth.depths[i]);
           }
         d["times"] = times;
         d["depths"] = depths;
@@ -243,16 +241,5 @@ namespace fickcast
         results["depth." + depth.name] = d;
       }
     return s;
-  }
-
-  void write_json(const Json &summary, const std::string &path)
-  {
-    std::ofstream out(path);
-    if (!out)
-      throw IoError("cannot write " + path);
-    summary.write(out);
-    out << '\n';
-    if (!out)
-      throw IoError("writing " + path + " failed");
   }
 } // namespace fickcast

@@ -2,7 +2,7 @@
 #pragma once
 
 #include "case/case_description.h"
-#include "results/json.h"
+#include "results/json_file.h"
 #include "results/run_record.h"
 
 #include <string>
@@ -12,9 +12,7 @@ namespace fickcast
   /// The version of this build (from the project version).
   std::string fickcast_version();
 
-  /// The summary of a run as JSON (see the README's results-folder section for the layout).
-  Json make_summary(const CaseDescription &description, const RunRecord &record);
-
-  /// Writes @p summary to @p path. Throws IoError.
-  void write_json(const Json &summary, const std::string &path);
+  /// The summary of a run as JSON (see the README's results-folder section for the layout);
+  /// write_json() writes it.
+  Json::Value make_summary(const CaseDescription &description, const RunRecord &record);
 } // namespace fickcast

@@ -1,10 +1,9 @@
 #include "studies/case_summary.h"
 
 #include "case/input_error.h"
+#include "results/json_file.h"
 
-#include <boost/property_tree/json_parser.hpp>
-#include <boost/property_tree/ptree.hpp>
-
+#include <algorithm>
 #include <cmath>
 
 namespace fickcast
@@ -19,59 +18,62 @@ namespace fickcast
 
   namespace
   {
-    double number(const boost::property_tree::ptree &node)
+    /// The member @p key of @p object; null if @p object is not an object or has no such member.
+    const Json::Value &member(const Json::Value &object, const std::string &key)
     {
-      const std::string text = node.get_value<std::string>();
-      if (text.empty() || text == "null")
-        return std::nan("");
-      try
-        {
-          return std::stod(text);
-        }
-      catch (...)
-        {
-          return std::nan("");
-        }
+      static const Json::Value none;
+      return object.isObject() && object.isMember(key) ? object[key] : none;
+    }
+
+    /// A number of summary.json; NaN for null (not finite when written) or anything else.
+    double number(const Json::Value &value)
+    {
+      return value.isNumeric() ? value.asDouble() : std::nan("");
+    }
+
+    std::string text(const Json::Value &object, const std::string &key, const std::string &fallback)
+    {
+      const Json::Value &value = member(object, key);
+      return value.isString() ? value.asString() : fallback;
     }
   } // namespace
 
-  CaseSummary read_case_summary(const std::string &path)
+  CaseSummary read_case_summary(const std::string &path, const std::vector<std::string> &order)
   {
-    boost::property_tree::ptree tree;
-    try
-      {
-        boost::property_tree::read_json(path, tree);
-      }
-    catch (const std::exception &error)
-      {
-        throw IoError("cannot read " + path + ": " + error.what());
-      }
+    const Json::Value root = read_json(path);
+    if (!root.isObject())
+      throw IoError("cannot read " + path + ": expected a JSON object");
     CaseSummary summary;
-    summary.status = tree.get<std::string>("status", "unknown");
-    summary.message = tree.get<std::string>("message", "");
-    if (const auto wall = tree.get_child_optional("run.wall_time.value"))
-      summary.wall_time = number(*wall);
-    if (const auto results = tree.get_child_optional("results"))
-      for (const auto &[name, node] : *results)
+    summary.status = text(root, "status", "unknown");
+    summary.message = text(root, "message", "");
+    const Json::Value &wall = member(member(root, "run"), "wall_time");
+    if (wall.isObject() && wall.isMember("value"))
+      summary.wall_time = number(wall["value"]);
+    const Json::Value &results = member(root, "results");
+    if (results.isObject())
+      for (const auto &name : results.getMemberNames())
         {
-          if (name == "moments")
+          const Json::Value &node = results[name];
+          if (name == "moments" || !node.isObject())
             continue;
           NamedResult result;
           result.name = name;
-          if (const auto value = node.get_child_optional("value"))
-            {
-              result.value = number(*value);
-              result.unit = node.get<std::string>("unit", "");
-            }
-          else if (const auto final = node.get_child_optional("final"))
-            {
-              result.value = number(*final);
-              result.unit = node.get<std::string>("unit", "");
-            }
+          if (node.isMember("value"))
+            result.value = number(node["value"]);
+          else if (node.isMember("final"))
+            result.value = number(node["final"]);
           else
             continue;
+          result.unit = text(node, "unit", "");
           summary.results.push_back(result);
         }
+    const auto position = [&order](const NamedResult &r) {
+      return static_cast<std::size_t>(std::find(order.begin(), order.end(), r.name) - order.begin());
+    };
+    std::sort(summary.results.begin(), summary.results.end(), [&](const NamedResult &a, const NamedResult &b) {
+      const std::size_t pa = position(a), pb = position(b);
+      return pa != pb ? pa < pb : pa == order.size() && a.name < b.name;
+    });
     return summary;
   }
 } // namespace fickcast

@@ -25,6 +25,10 @@ namespace fickcast
     const NamedResult *find(const std::string &name) const;
   };
 
-  /// Reads @p path (a summary.json written by fickcast). Throws IoError if unreadable.
-  CaseSummary read_case_summary(const std::string &path);
+  /**
+   * Reads @p path (a summary.json written by fickcast). The results come in the order of
+   * @p order (result_order() of the case), then any others by name: sweep.csv takes its columns
+   * from here. Throws IoError if unreadable.
+   */
+  CaseSummary read_case_summary(const std::string &path, const std::vector<std::string> &order);
 } // namespace fickcast

@@ -4,6 +4,8 @@
 #include "case/quantity_text.h"
 #include "case/units.h"
 
+#include <algorithm>
+
 namespace fickcast
 {
   std::vector<ResultName> expected_results(const CaseDescription &c)
@@ -21,6 +23,26 @@ namespace fickcast
       names.push_back({"time_lag." + name, "s"});
     for (const auto &depth : c.output.depths)
       names.push_back({"depth." + depth.name, "m"});
+    return names;
+  }
+
+  std::vector<std::string> result_order(const CaseDescription &c)
+  {
+    std::vector<std::string> names{"amount.final_total"};
+    for (const auto &named_point : c.output.points)
+      {
+        names.push_back("point." + named_point.name + ".final");
+        if (std::any_of(c.output.thresholds.begin(), c.output.thresholds.end(),
+                        [&](const LevelSpec &threshold) { return threshold.name == named_point.name; }))
+          names.push_back("threshold." + named_point.name);
+      }
+    names.push_back("released_fraction.final");
+    for (const auto &release : c.output.releases)
+      names.push_back("release." + release.name);
+    for (const auto &[name, boundary] : c.output.time_lags)
+      names.push_back("time_lag." + name);
+    for (const auto &depth : c.output.depths)
+      names.push_back("depth." + depth.name);
     return names;
   }
 

@@ -23,6 +23,16 @@ namespace fickcast
   std::vector<ResultName> expected_results(const CaseDescription &description);
 
   /**
+   * The names of the case's named results in the order fickcast lists them (sweep.csv columns,
+   * the sweep's lines per case, the names a sizing message offers): amount.final_total; each
+   * point.NAME.final followed by threshold.NAME if the point has a threshold (points in the
+   * case's order); released_fraction.final; then release.NAME, time_lag.NAME and depth.NAME in
+   * the case's order. Readers take the order from here, not from the `results` object of
+   * summary.json: a JSON object has no order, and JsonCpp writes its keys alphabetically.
+   */
+  std::vector<std::string> result_order(const CaseDescription &description);
+
+  /**
    * Converts @p level_text (e.g. `100 yr`, `80 %`, `250 mg/L`) into the SI unit of the result
    * @p name. Throws InputError naming @p origin and @p key if the case reports no such result
    * (the message lists those it does) or if the unit does not fit.

@@ -5,7 +5,7 @@
 #include "case/quantity_text.h"
 #include "case/units.h"
 #include "numerics/collective.h"
-#include "results/json.h"
+#include "results/json_file.h"
 #include "results/summary.h"
 #include "run/results_folder.h"
 #include "run/run_case.h"
@@ -194,7 +194,7 @@ namespace fickcast
       collectively(communicator, [&] {
         if (rank != 0)
           return;
-        const CaseSummary summary = read_case_summary(ran.folder + "/summary.json");
+        const CaseSummary summary = read_case_summary(ran.folder + "/summary.json", result_order(description));
         const NamedResult *r = summary.find(outcome.result_name);
         if (r == nullptr)
           {
@@ -298,7 +298,7 @@ namespace fickcast
         if (!out)
           throw IoError("cannot write " + path + "/size.csv");
       }
-      Json summary = Json::object();
+      Json::Value summary(Json::objectValue);
       summary["program"] = "fickcast";
       summary["version"] = fickcast_version();
       summary["kind"] = "size";
@@ -307,9 +307,9 @@ namespace fickcast
                           "Boost.Math toms748_solve; answer at the secant point of the final bracket";
       summary["parameter"] = outcome.key;
       summary["unit"] = outcome.parameter_unit;
-      Json range = Json::array();
-      range.push_back(outcome.low);
-      range.push_back(outcome.high);
+      Json::Value range(Json::arrayValue);
+      range.append(outcome.low);
+      range.append(outcome.high);
       summary["range"] = range;
       summary["result_name"] = outcome.result_name;
       summary["result_unit"] = outcome.result_unit;
@@ -318,9 +318,9 @@ namespace fickcast
       summary["value"] = outcome.value;
       summary["value_text"] = format_value(outcome.value, outcome.parameter_unit);
       summary["result"] = outcome.result;
-      Json bracket = Json::array();
-      bracket.push_back(outcome.bracket_low);
-      bracket.push_back(outcome.bracket_high);
+      Json::Value bracket(Json::arrayValue);
+      bracket.append(outcome.bracket_low);
+      bracket.append(outcome.bracket_high);
       summary["bracket"] = bracket;
       summary["runs"] = static_cast<unsigned long>(outcome.evaluations.size());
       summary["answer_folder"] = final->folder;

@@ -3,7 +3,7 @@
 #include "case/case_reader.h"
 #include "case/input_error.h"
 #include "numerics/collective.h"
-#include "results/json.h"
+#include "results/json_file.h"
 #include "results/summary.h"
 #include "run/results_folder.h"
 #include "run/run_case.h"
@@ -33,7 +33,7 @@ namespace fickcast
     void write_input_error(const std::string &folder, const std::string &message)
     {
       ResultsFolder results(folder, true);
-      Json summary = Json::object();
+      Json::Value summary(Json::objectValue);
       summary["program"] = "fickcast";
       summary["version"] = fickcast_version();
       summary["status"] = "input error";

@@ -2,7 +2,7 @@
 #include "case/input_error.h"
 #include "case/quantity_text.h"
 #include "case/units.h"
-#include "results/json.h"
+#include "results/json_file.h"
 #include "results/summary.h"
 #include "studies/case_summary.h"
 #include "studies/result_names.h"
@@ -59,12 +59,13 @@ namespace fickcast
     std::vector<std::pair<std::string, std::string>> columns; // result name, unit
     StudyTable table;
     std::map<std::string, unsigned int> &statuses = table.statuses;
+    const std::vector<std::string> order = result_order(base);
     for (const auto &c : cases)
       {
         const std::string path = folder + "/cases/" + c.id + "/summary.json";
         CaseSummary s;
         if (std::filesystem::exists(path))
-          s = read_case_summary(path);
+          s = read_case_summary(path, order);
         else
           s.status = "not run";
         for (const auto &r : s.results)
@@ -109,12 +110,12 @@ namespace fickcast
     }
     std::filesystem::rename(table_path + ".partial", table_path);
 
-    Json summary = Json::object();
+    Json::Value summary(Json::objectValue);
     summary["program"] = "fickcast";
     summary["title"] = base.title;
     summary["kind"] = base.sweep.sample.empty() ? "sweep" : "uncertainty";
     summary["cases"] = static_cast<unsigned long>(cases.size());
-    Json counts = Json::object();
+    Json::Value counts(Json::objectValue);
     for (const auto &[status, count] : statuses)
       counts[status] = count;
     summary["status_counts"] = counts;
@@ -124,7 +125,7 @@ namespace fickcast
         summary["seed"] = base.sweep.seed;
         summary["sampling"] = "Latin hypercube, one point per stratum, strata paired by random permutations";
         summary["percentiles"] = "linear interpolation between order statistics (Hyndman and Fan 1996, type 7)";
-        Json results = Json::object();
+        Json::Value results(Json::objectValue);
         for (const auto &[name, unit] : columns)
           {
             // An event never reached within time.end (threshold, release) counts as later than
@@ -145,7 +146,7 @@ namespace fickcast
                       ++not_reached;
                     }
                 }
-            Json entry = Json::object();
+            Json::Value entry(Json::objectValue);
             entry["unit"] = unit;
             entry["n"] = static_cast<unsigned long>(values.size());
             if (event)
@@ -163,7 +164,7 @@ namespace fickcast
             entry["standard_error_of_mean"] = values.empty() ? std::nan("") : sd / std::sqrt(values.size());
             const auto percentile = [&values](const double p) {
               const double q = quantile(values, p);
-              return std::isinf(q) ? Json("not reached within time.end") : Json(q);
+              return std::isinf(q) ? Json::Value("not reached within time.end") : Json::Value(q);
             };
             entry["p5"] = percentile(0.05);
             entry["p50"] = percentile(0.5);
@@ -210,7 +211,7 @@ namespace fickcast
                     crossing += limit.above ? (v > level ? 1 : 0) : (v < level ? 1 : 0);
                   }
                 const double p = counted == 0 ? std::nan("") : static_cast<double>(crossing) / counted;
-                Json probability = Json::object();
+                Json::Value probability(Json::objectValue);
                 probability["level"] = level;
                 probability["n"] = static_cast<unsigned long>(counted);
                 probability["probability"] = p;

@@ -1,7 +1,7 @@
 #include "verify/verification_report.h"
 
 #include "case/input_error.h"
-#include "results/json.h"
+#include "results/json_file.h"
 #include "results/summary.h"
 
 #include <boost/version.hpp>
@@ -85,17 +85,17 @@ namespace fickcast
         throw IoError("cannot write " + folder + "/verification_report.txt");
       out << verification_report_text(results);
     }
-    Json report = Json::object();
+    Json::Value report(Json::objectValue);
     report["program"] = "fickcast";
-    Json facts = Json::object();
+    Json::Value facts(Json::objectValue);
     for (const auto &[key, value] : installation_facts())
       facts[key] = value;
     report["installation"] = facts;
-    Json checks = Json::array();
+    Json::Value checks(Json::arrayValue);
     unsigned int failed = 0;
     for (const auto &r : results)
       {
-        Json check = Json::object();
+        Json::Value check(Json::objectValue);
         check["name"] = r.name;
         check["source"] = r.source;
         check["measure"] = r.measure;
@@ -105,7 +105,7 @@ namespace fickcast
         check["seconds"] = r.seconds;
         if (!r.note.empty())
           check["note"] = r.note;
-        checks.push_back(check);
+        checks.append(check);
         failed += r.passed ? 0 : 1;
       }
     report["checks"] = checks;
