@@ -71,15 +71,12 @@ namespace fickcast
               reader.missing(section, "archie_exponent", "Archie's exponent m for porosity_law = archie, such as 2");
             region.porosity_law = PorosityLaw::archie;
             region.archie_exponent = exponent->si;
-            region.tortuosity = std::pow(region.porosity, exponent->si - 1.0);
           }
         else if (exponent)
           reader.fail(*exponent, "only used with porosity_law = archie");
         if (law == "millington_quirk")
-          {
-            region.porosity_law = PorosityLaw::millington_quirk;
-            region.tortuosity = std::cbrt(region.porosity);
-          }
+          region.porosity_law = PorosityLaw::millington_quirk;
+        // The tortuosity a law gives, and the retardation of rho_b and Kd: model/material.cc.
         const auto *retardation = reader.get(section, "retardation");
         const auto *density = reader.get(section, "bulk_density");
         const auto *kd = reader.get(section, "distribution_coefficient");
@@ -89,9 +86,9 @@ namespace fickcast
         if ((density != nullptr) != (kd != nullptr))
           reader.fail(density ? *density : *kd, "expected bulk_density and distribution_coefficient together "
                                                 "(R = 1 + rho_b Kd / theta), found only one");
-        region.retardation = retardation ? retardation->si
-                             : density   ? 1.0 + density->si * kd->si / region.porosity
-                                         : 1.0;
+        region.retardation = retardation ? retardation->si : 1.0;
+        region.bulk_density = density ? density->si : 0.0;
+        region.distribution_coefficient = kd ? kd->si : 0.0;
         region.partition = reader.quantity(section, "partition", 1);
         const auto *rate = reader.get(section, "decay_rate");
         const auto *half_life = reader.get(section, "half_life");

@@ -117,15 +117,17 @@ namespace fickcast
     double tortuosity = 1;        ///< factor tau in (0, 1] given directly (a porosity law: model/material)
     PorosityLaw porosity_law = PorosityLaw::none;
     double archie_exponent = 0;
-    double retardation = 1;             ///< R >= 1 (linear sorption), given or 1 + rho_b Kd / theta
-    double partition = 1;               ///< K > 0: phase concentration c = K u
-    double decay_rate = 0;              ///< lambda >= 0, 1/s
-    bool decay_dissolved_only = false;  ///< decay acts on the dissolved phase only (not the sorbed)
-    ScalarField source;                 ///< volumetric source, concentration units per second, per bulk volume
-    std::optional<ScalarField> initial; ///< phase concentration, overrides [initial] value
-    double loading = 0;                 ///< total initial content per bulk volume (with a dispersed phase); 0: none
-    double solubility = 0;              ///< phase concentration at saturation; 0: unlimited
-    double cell_size = 0;               ///< m; 0: the geometry's
+    double retardation = 1;              ///< R >= 1 (linear sorption) given directly
+    double bulk_density = 0;             ///< rho_b, kg/m3, with distribution_coefficient (0: not given)
+    double distribution_coefficient = 0; ///< Kd, m3/kg: R = 1 + rho_b Kd / theta (model/material)
+    double partition = 1;                ///< K > 0: phase concentration c = K u
+    double decay_rate = 0;               ///< lambda >= 0, 1/s
+    bool decay_dissolved_only = false;   ///< decay acts on the dissolved phase only (not the sorbed)
+    ScalarField source;                  ///< volumetric source, concentration units per second, per bulk volume
+    std::optional<ScalarField> initial;  ///< phase concentration, overrides [initial] value
+    double loading = 0;                  ///< total initial content per bulk volume (with a dispersed phase); 0: none
+    double solubility = 0;               ///< phase concentration at saturation; 0: unlimited
+    double cell_size = 0;                ///< m; 0: the geometry's
 
     /// Whether part of the content may be undissolved (solid above solubility).
     bool has_dispersed_phase() const { return solubility > 0; }

@@ -46,11 +46,19 @@ namespace fickcast
     return region.tortuosity;
   }
 
+  double retardation_factor(const RegionSpec &region)
+  {
+    if (region.bulk_density > 0)
+      return 1.0 + region.bulk_density * region.distribution_coefficient / region.porosity;
+    return region.retardation;
+  }
+
   Material::Material(const RegionSpec &region, const TemperatureSchedule &temperature, const ScalarField &initial,
                      const unsigned int dimension, std::string *report_to)
     : region_(&region)
     , dimension_(dimension)
     , tortuosity_(tortuosity_factor(region))
+    , retardation_(retardation_factor(region))
     , diffusivity_(region, temperature)
     , source_(region.source)
     , initial_field_(region.initial ? *region.initial : initial)
@@ -83,7 +91,7 @@ namespace fickcast
                     ": expected a finite concentration everywhere, found " + number_text(c) + " at " +
                     describe_point(x, y, z, dimension_);
     if (region_->has_dispersed_phase() && region_->loading > 0)
-      c = std::min(region_->loading / (region_->porosity * region_->retardation), region_->solubility);
+      c = std::min(region_->loading / (region_->porosity * retardation_), region_->solubility);
     return c;
   }
 } // namespace fickcast

@@ -14,6 +14,10 @@ namespace fickcast
   /// theta^(m - 1); Millington-Quirk, saturated form: theta^(1/3)).
   double tortuosity_factor(const RegionSpec &region);
 
+  /// Retardation factor R of linear equilibrium sorption: given directly, or 1 + rho_b Kd / theta
+  /// from the bulk density and the distribution coefficient (common practice).
+  double retardation_factor(const RegionSpec &region);
+
   /**
    * The material of one region in the capacity/conductance form (DESIGN.md section 2), SI. The
    * unknown u is the reference-phase concentration; the region's phase concentration is c = K u.
@@ -40,8 +44,9 @@ namespace fickcast
 
     // --- storage and transport
     double partition() const { return region_->partition; }
-    double capacity() const { return region_->porosity * region_->retardation * region_->partition; }
+    double capacity() const { return region_->porosity * retardation_ * region_->partition; }
     double tortuosity() const { return tortuosity_; }
+    double retardation() const { return retardation_; }
     /// Free diffusivity D (no tortuosity).
     double diffusivity(double x, double y, double z, double t, double c) const;
     /// Effective diffusivity tau D; remembers a value that is not positive and finite.
@@ -66,7 +71,7 @@ namespace fickcast
     double reaction() const
     {
       return region_->decay_rate * region_->porosity * region_->partition *
-             (region_->decay_dissolved_only ? 1.0 : region_->retardation);
+             (region_->decay_dissolved_only ? 1.0 : retardation_);
     }
     double source(double x, double y, double z, double t) const { return source_(x, y, z, t); }
     const ScalarFunction &source_function() const { return source_; }
@@ -89,13 +94,14 @@ namespace fickcast
     /// saturation (<= 0: none).
     double undissolved_loading() const
     {
-      return region_->loading - region_->porosity * region_->retardation * region_->solubility;
+      return region_->loading - region_->porosity * retardation_ * region_->solubility;
     }
 
   private:
     const RegionSpec *region_;
     unsigned int dimension_;
     double tortuosity_;
+    double retardation_;
     Diffusivity diffusivity_;
     ScalarFunction source_;
     ScalarField initial_field_;

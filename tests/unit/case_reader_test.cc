@@ -152,7 +152,7 @@ threshold.base = 250 mg/L
                       "region.sand.bulk_density=1.6 g/cm3", "region.sand.distribution_coefficient=0.5 mL/g"});
     EXPECT_EQ(c.regions[0].porosity_law, PorosityLaw::archie);
     EXPECT_DOUBLE_EQ(tortuosity_factor(c.regions[0]), 0.38); // theta^(m-1)
-    EXPECT_DOUBLE_EQ(c.regions[1].retardation, 3.0);         // 1 + 1.6e3 * 0.5e-3 / 0.4
+    EXPECT_DOUBLE_EQ(retardation_factor(c.regions[1]), 3.0); // 1 + 1.6e3 * 0.5e-3 / 0.4
   }
 
   TEST(CaseReader, StagesChainTemperaturesAndBoundaries)

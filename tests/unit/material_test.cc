@@ -65,6 +65,23 @@ namespace fickcast
     EXPECT_DOUBLE_EQ(Material(region, no_temperature, zero, 1, &report).tortuosity(), std::cbrt(0.3));
   }
 
+  TEST(Material, RetardationFromBulkDensityAndDistributionCoefficient)
+  {
+    // Linear equilibrium sorption: R = 1 + rho_b Kd / theta (common practice; e.g. Freeze and
+    // Cherry, Groundwater, 1979, sec. 9.2, from memory).
+    RegionSpec region = clay();
+    EXPECT_DOUBLE_EQ(retardation_factor(region), 1.0);
+    region.retardation = 4;
+    EXPECT_DOUBLE_EQ(retardation_factor(region), 4.0);
+    region.retardation = 1;
+    region.porosity = 0.4;
+    region.bulk_density = 1600;             // kg/m3
+    region.distribution_coefficient = 5e-4; // m3/kg
+    EXPECT_DOUBLE_EQ(retardation_factor(region), 3.0);
+    std::string report;
+    EXPECT_DOUBLE_EQ(Material(region, no_temperature, zero, 1, &report).capacity(), 0.4 * 3.0);
+  }
+
   TEST(Material, UndissolvedLoadingAndSaturation)
   {
     // A loading above solubility (common practice, dispersed-drug matrices): the pores hold

@@ -2,6 +2,7 @@
 // concentration (pore water), against the closed form.
 #include "case_runner.h"
 #include "csv_table.h"
+#include "model/material.h"
 
 #include <boost/math/special_functions/erf.hpp>
 
@@ -66,7 +67,7 @@ point.b = 0.6 m
 point.c = 0.9 m
 )";
     const CaseDescription description = describe(text, dissolved_only ? "sorption_dissolved" : "sorption_total");
-    ASSERT_NEAR(description.regions[0].retardation, 3.0, 1e-12); // 1 + 1.6 * 0.5 / 0.4
+    ASSERT_NEAR(retardation_factor(description.regions[0]), 3.0, 1e-12); // 1 + 1.6 * 0.5 / 0.4
     const RunRecord record = run(description);
     ASSERT_EQ(record.status, "completed");
     const CsvTable series = read_csv(description.output.folder + "/series.csv");
