@@ -2,38 +2,143 @@
 
 #include "case/input_error.h"
 
+#include <cerrno>
+#include <cstdlib>
 #include <filesystem>
+#include <fstream>
+#include <iostream>
 #include <system_error>
 
+#include <signal.h>
 #include <unistd.h>
 
 namespace fickcast
 {
   namespace fs = std::filesystem;
 
+  namespace
+  {
+    /// The absolute, normalised form of @p path (symbolic links resolved where they exist).
+    fs::path canonical_form(const std::string &path)
+    {
+      std::error_code error;
+      fs::path result = fs::weakly_canonical(fs::absolute(path, error), error);
+      if (error)
+        result = fs::absolute(path).lexically_normal();
+      std::string text = result.string();
+      while (text.size() > 1 && text.back() == '/')
+        text.pop_back();
+      return text;
+    }
+
+    /// Whether @p ancestor is @p path or one of its parent folders.
+    bool contains(const fs::path &ancestor, const fs::path &path)
+    {
+      auto a = ancestor.begin(), p = path.begin();
+      for (; a != ancestor.end(); ++a, ++p)
+        if (p == path.end() || *a != *p)
+          return false;
+      return true;
+    }
+  } // namespace
+
+  void write_results_marker(const std::string &folder)
+  {
+    const std::string path = folder + "/" + results_marker;
+    std::ofstream out(path);
+    out << "Written by fickcast: this folder holds its results and --overwrite may replace it.\n";
+    if (!out)
+      throw IoError("cannot write " + path);
+  }
+
+  void check_replaceable(const std::string &target, const std::string &key)
+  {
+    const fs::path folder = canonical_form(target);
+    std::error_code error;
+    const fs::path working = canonical_form(fs::current_path(error).string());
+    const char *home = std::getenv("HOME");
+    if (folder == folder.root_path() || folder.parent_path() == folder)
+      throw InputError(target, key, "--overwrite refused: this is a filesystem root");
+    if (contains(folder, working))
+      throw InputError(target, key,
+                       "--overwrite refused: this is the working folder or one of its parents (" + working.string() +
+                         "); choose a results folder inside it");
+    if (home != nullptr && *home != '\0' && folder == canonical_form(home))
+      throw InputError(target, key, "--overwrite refused: this is the home folder");
+    if (!fs::is_directory(target, error))
+      throw InputError(target, key, "expected a folder, found a file of that name");
+    if (!fs::exists(fs::path(target) / results_marker, error))
+      throw InputError(target, key,
+                       std::string("--overwrite refused: the folder holds no ") + results_marker +
+                         " marker, so fickcast did not write it (or a version before 0.8 did); remove it yourself "
+                         "or choose another folder");
+  }
+
   void check_results_target(const std::string &target, const bool overwrite)
   {
     std::error_code error;
-    if (fs::exists(target, error) && !overwrite)
-      throw InputError(target, "output.folder",
-                       "the results folder exists already: expected a new folder, or --overwrite to replace it");
-    if (fs::exists(target, error) && !fs::is_directory(target, error))
-      throw InputError(target, "output.folder", "expected a folder, found a file of that name");
+    if (!fs::exists(target, error))
+      return;
+    if (!overwrite)
+      {
+        if (!fs::is_directory(target, error))
+          throw InputError(target, "output.folder", "expected a folder, found a file of that name");
+        throw InputError(target, "output.folder",
+                         "the results folder exists already: expected a new folder, or --overwrite to replace it");
+      }
+    check_replaceable(target, "output.folder");
+  }
+
+  std::vector<std::string> stale_partials(const std::string &target)
+  {
+    std::vector<std::string> stale;
+    const fs::path path = fs::path(target).lexically_normal();
+    const fs::path parent = path.parent_path().empty() ? fs::path(".") : path.parent_path();
+    const std::string prefix = path.filename().string() + ".partial-";
+    std::error_code error;
+    for (fs::directory_iterator entry(parent, error), end; !error && entry != end; entry.increment(error))
+      {
+        const std::string name = entry->path().filename().string();
+        if (name.rfind(prefix, 0) != 0)
+          continue;
+        const std::string digits = name.substr(prefix.size());
+        if (digits.empty() || digits.find_first_not_of("0123456789") != std::string::npos)
+          continue;
+        const long pid = std::strtol(digits.c_str(), nullptr, 10);
+        if (pid <= 0 || (::kill(static_cast<pid_t>(pid), 0) != 0 && errno == ESRCH))
+          stale.push_back((parent / name).string());
+      }
+    return stale;
   }
 
   ResultsFolder::ResultsFolder(const std::string &target, const bool overwrite)
     : target_(fs::path(target).lexically_normal().string())
     , overwrite_(overwrite)
   {
-    if (!target_.empty() && (target_.back() == '/'))
+    while (target_.size() > 1 && target_.back() == '/')
       target_.pop_back();
+    if (target_.empty() || target_ == ".")
+      check_replaceable(fs::current_path().string(), "output.folder");
     check_results_target(target_, overwrite);
+    for (const std::string &stale : stale_partials(target_))
+      {
+        std::error_code error;
+        if (overwrite && fs::exists(fs::path(stale) / results_marker, error))
+          {
+            fs::remove_all(stale, error);
+            std::cerr << "fickcast: removed " << stale << ", left by an interrupted run\n";
+          }
+        else
+          std::cerr << "fickcast: note: " << stale
+                    << " is left by an interrupted run (its process no longer runs); --overwrite removes it\n";
+      }
     partial_ = target_ + ".partial-" + std::to_string(::getpid());
     std::error_code error;
     fs::remove_all(partial_, error);
     fs::create_directories(partial_, error);
     if (error)
       throw IoError("cannot create the results folder " + partial_ + ": " + error.message());
+    write_results_marker(partial_);
   }
 
   ResultsFolder::~ResultsFolder()

@@ -2,6 +2,7 @@
 #pragma once
 
 #include <string>
+#include <vector>
 
 namespace fickcast
 {
@@ -9,6 +10,8 @@ namespace fickcast
    * Creates `<target>.partial-<pid>` next to the target and, on commit(), renames it to the
    * target (replacing an existing target only when overwriting was allowed). If commit() is
    * never called, the destructor removes the partial folder: results are complete or absent.
+   * The partial folder holds the results marker from the start. Partial folders of the same
+   * target left by dead processes are named on stderr, and removed when overwriting.
    * Only the process that creates it touches the file system (rank 0 in an MPI run).
    */
   class ResultsFolder
@@ -35,6 +38,22 @@ namespace fickcast
     bool committed_ = false;
   };
 
-  /// Throws InputError if @p target exists and @p overwrite is false (checked before any work).
+  /// The file fickcast writes into every results, study, sizing and verification folder it
+  /// makes: --overwrite replaces a folder only if it holds this marker.
+  inline constexpr const char *results_marker = ".fickcast-results";
+
+  /// Writes the marker into @p folder. Throws IoError.
+  void write_results_marker(const std::string &folder);
+
+  /// Throws InputError (naming @p key, e.g. output.folder) unless the existing folder @p target
+  /// may be replaced: a folder (not a file) holding the marker, and not the working folder, an
+  /// ancestor of it, the home folder or a filesystem root.
+  void check_replaceable(const std::string &target, const std::string &key);
+
+  /// Throws InputError if @p target exists and @p overwrite is false, or if @p overwrite is true
+  /// and the folder may not be replaced (check_replaceable); checked before any work.
   void check_results_target(const std::string &target, bool overwrite);
+
+  /// Partial folders `<target>.partial-<pid>` left by processes that no longer run (killed hard).
+  std::vector<std::string> stale_partials(const std::string &target);
 } // namespace fickcast

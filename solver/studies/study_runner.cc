@@ -60,7 +60,10 @@ namespace fickcast
       if (fs::exists(options.folder))
         {
           if (options.overwrite)
-            fs::remove_all(options.folder);
+            {
+              check_replaceable(options.folder, "output.folder");
+              fs::remove_all(options.folder);
+            }
           else if (!fs::exists(plan_file))
             throw InputError(options.folder, "output.folder",
                              "the folder exists and holds no study: expected a new folder, the folder of this same "
@@ -71,6 +74,7 @@ namespace fickcast
                              "study to resume it, another --output, or --overwrite");
         }
       fs::create_directories(options.folder + "/cases");
+      write_results_marker(options.folder);
       lock.take(options.folder);
       // Leftovers of runs killed hard (partial folders) are not results: remove them.
       for (const auto &entry : fs::directory_iterator(options.folder + "/cases"))

@@ -68,6 +68,7 @@ expect_code 0 "sweep --vary" "$fickcast" sweep grid.ini --output varied --vary "
 
 # --- a folder another study is writing to is refused; a lock whose process is gone is not.
 mkdir -p locked
+touch locked/.fickcast-results               # as a study folder fickcast wrote (--overwrite needs it)
 echo "$$ $(hostname)" >locked/.fickcast-lock # this shell: alive while the test runs
 expect_code 2 "sweep into a folder in use" "$fickcast" sweep grid.ini --output locked
 grep -q "in use by process $$" err.txt || fail "a folder in use is not reported as such: $(cat err.txt)"
