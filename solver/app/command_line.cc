@@ -32,10 +32,11 @@ namespace fickcast
       options.add_options() //
         ("set", po::value<std::vector<std::string>>()->composing(),
          "override a case key: --set section.key=value (repeatable), e.g. "
-         "--set region.clay.diffusivity=\"2e-10 m2/s\"")                                             //
-        ("output", po::value<std::string>(), "results folder (instead of the case's output.folder)") //
-        ("overwrite", "replace an existing results folder")                                          //
-        ("quiet", "print errors only")                                                               //
+         "--set region.clay.diffusivity=\"2e-10 m2/s\"")                                               //
+        ("output", po::value<std::string>(), "results folder (instead of the case's output.folder)")   //
+        ("overwrite", "replace an existing results folder")                                            //
+        ("allow-large", "run a case even if its estimated memory, steps or outputs exceed the limits") //
+        ("quiet", "print errors only")                                                                 //
         ("help", "show this help");
       return options;
     }
@@ -125,6 +126,7 @@ namespace fickcast
       }
     invocation.help = values.count("help") != 0;
     invocation.overwrite = values.count("overwrite") != 0;
+    invocation.allow_large = values.count("allow-large") != 0;
     invocation.quiet = values.count("quiet") != 0;
     invocation.list_keys = values.count("keys") != 0;
     invocation.report = values.count("report") != 0;

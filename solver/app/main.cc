@@ -4,6 +4,7 @@
 #include "app/verbs.h"
 
 #include "case/input_error.h"
+#include "numerics/run_size.h"
 #include "results/summary.h"
 #include "run/simulation.h"
 
@@ -33,6 +34,7 @@ namespace
           std::cout << fickcast::help_text(invocation.verb);
         return fickcast::exit_success;
       }
+    fickcast::set_size_limits(!invocation.allow_large);
     if (invocation.verb == "check")
       return fickcast::verb_check(invocation, communicator);
     if (invocation.verb == "sweep")

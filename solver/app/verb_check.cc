@@ -3,6 +3,7 @@
 #include "case/case_reader.h"
 #include "case/key_schema.h"
 #include "numerics/mesh_statistics.h"
+#include "numerics/run_size.h"
 #include "studies/result_names.h"
 #include "studies/sizing.h"
 #include "studies/study_plan.h"
@@ -79,6 +80,7 @@ namespace fickcast
     CaseDescription description = read_case(invocation.case_file, invocation.overrides);
     if (!invocation.output.empty())
       description.output.folder = invocation.output;
+    check_run_size(description, estimate_run_size(description), installed_memory());
     const MeshStatistics mesh = count_mesh(description, communicator);
     const std::string study = check_study(description, invocation);
     if (!root || invocation.quiet)

@@ -31,6 +31,13 @@ namespace fickcast
     std::string message_;
   };
 
+  /**
+   * @p text as a message may show it: at most @p limit characters (the rest counted, not shown),
+   * control characters (newlines, terminal escape codes) and bytes that are not UTF-8 written as
+   * \xNN. InputError passes its parts through it, so echoed input stays one readable line.
+   */
+  std::string printable(const std::string &text, std::size_t limit);
+
   /// A numerical failure during a run (no convergence, step size underflow). Exit code 1.
   class RunFailure : public std::runtime_error
   {

@@ -79,9 +79,9 @@ namespace fickcast
             std::smatch time_match, value_match;
             if (!std::regex_match(cells[0], time_match, column) || !std::regex_match(cells[1], value_match, column))
               throw InputError(where, "",
-                               "expected a header 'time [unit], value [unit]' such as 'time [h], value [mg/L]', "
-                               "found '" +
-                                 line + "'");
+                               "expected a header 'time [unit], value [unit]' such as 'time [h], value [mg/L]' as "
+                               "the first line of a CSV table; this line is not one (a file that is not a table is "
+                               "not shown)");
             try
               {
                 const UnitSystem &units = UnitSystem::instance();

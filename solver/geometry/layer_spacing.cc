@@ -35,6 +35,46 @@ namespace fickcast
     }
   } // namespace
 
+  StackEstimate estimate_stack(const GeometrySpec &geometry)
+  {
+    // The same size law and stretched coordinate as stack_spacing(), counted instead of filled
+    // (filled only for layers of at most a million cells, to find the largest exactly).
+    StackEstimate estimate;
+    const double total = geometry.total_thickness();
+    const bool graded = geometry.grade_toward != Face::none && geometry.grading != 1.0;
+    double depth = 0;
+    for (const LayerSpec &layer : geometry.layers)
+      {
+        const double cap = layer.cell_size > 0 ? layer.cell_size : geometry.cell_size;
+        const double own_cap = layer.cell_size > 0 ? layer.cell_size : 1e300;
+        const auto size_at = [&](const double z) {
+          if (!graded)
+            return cap;
+          const double s = geometry.grade_toward == Face::top ? z : total - z;
+          return std::min(own_cap, geometry.cell_size + (geometry.grading - 1.0) * s);
+        };
+        const unsigned int n_fine = 2000;
+        const double dz = layer.thickness / n_fine;
+        double xi = 0, largest = 0;
+        for (unsigned int k = 0; k < n_fine; ++k)
+          {
+            const double h = size_at(depth + (k + 0.5) * dz);
+            xi += dz / h;
+            largest = std::max(largest, std::min(h, layer.thickness));
+          }
+        const double cells = std::max(1.0, std::ceil(xi - 1e-6));
+        if (cells <= 1e6) // few enough to make: the exact largest cell
+          {
+            const std::vector<double> sizes = fill(depth, depth + layer.thickness, size_at);
+            largest = *std::max_element(sizes.begin(), sizes.end());
+          }
+        estimate.largest = std::max(estimate.largest, largest);
+        estimate.cells += cells;
+        depth += layer.thickness;
+      }
+    return estimate;
+  }
+
   AxisSpacing stack_spacing(const GeometrySpec &geometry)
   {
     AxisSpacing spacing;

@@ -24,6 +24,14 @@ namespace fickcast
    */
   AxisSpacing stack_spacing(const GeometrySpec &geometry);
 
+  /// Without making them: how many cells stack_spacing() gives and the largest of them (m).
+  struct StackEstimate
+  {
+    double cells = 0;
+    double largest = 0;
+  };
+  StackEstimate estimate_stack(const GeometrySpec &geometry);
+
   /// Uniform cells of about @p cell_size over @p extent (at least one).
   std::vector<double> uniform_spacing(double extent, double cell_size);
 

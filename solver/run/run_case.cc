@@ -2,6 +2,7 @@
 
 #include "case/input_error.h"
 #include "numerics/collective.h"
+#include "numerics/run_size.h"
 #include "results/summary.h"
 #include "run/results_folder.h"
 
@@ -22,6 +23,8 @@ namespace fickcast
   {
     const unsigned int rank = Utilities::MPI::this_mpi_process(communicator);
     const std::string target = options.folder.empty() ? description.output.folder : options.folder;
+    // Before anything is allocated or written (the same on every rank).
+    check_run_size(description, estimate_run_size(description), installed_memory());
     std::unique_ptr<ResultsFolder> folder;
     std::string path;
     collectively(communicator, [&] {

@@ -116,5 +116,15 @@ grep -q "$scratch/not_a_folder/results" "$scratch/err.txt" ||
 [ "$(wc -l <"$scratch/err.txt")" -eq 1 ] || fail "the I/O error gives more than one line: $(cat "$scratch/err.txt")"
 [ -e "$scratch/not_a_folder/results" ] && fail "a results folder appeared after an I/O error"
 
+# Bounds (issue 14 item 5): refused before anything is allocated, unless --allow-large.
+expect_code 2 "check of 1e5+ output times" "$fickcast" check "$case_file" --set "output.fields_every=1 ns"
+grep -q "output.fields_every: expected at most 1e5 output times, found 6.3e+17 .*--allow-large" "$scratch/err.txt" ||
+  fail "too many output times are not refused with the numbers: $(cat "$scratch/err.txt")"
+expect_code 0 "check --allow-large" "$fickcast" check "$case_file" --set "output.fields_every=1 ns" --allow-large
+expect_code 2 "run of a mesh beyond memory" "$fickcast" run "$case_file" --output "$scratch/huge" --set "geometry.cell_size=1 nm"
+grep -q "geometry.cell_size: the mesh would have about .* GiB of memory" "$scratch/err.txt" ||
+  fail "a mesh beyond memory is not refused with the numbers: $(cat "$scratch/err.txt")"
+[ -e "$scratch/huge" ] && fail "a refused run left a results folder"
+
 if [ "$failures" -ne 0 ]; then echo "$failures failure(s)"; exit 1; fi
 echo "all command-line checks passed"

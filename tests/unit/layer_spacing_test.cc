@@ -2,6 +2,7 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <numeric>
 
 namespace fickcast
@@ -55,5 +56,30 @@ namespace fickcast
         a += coarse.sizes[i];
     EXPECT_NEAR(a, 0.3, 1e-14);
     EXPECT_EQ(std::count(coarse.layer_of_cell.begin(), coarse.layer_of_cell.end(), 0u), 8); // ceil(30/4)
+  }
+  TEST(LayerSpacing, EstimateCountsWhatTheSpacingMakes)
+  {
+    // estimate_stack() guards against meshes that cannot fit (issue 14): it must count exactly
+    // the cells stack_spacing() makes, without making them.
+    GeometrySpec geometry;
+    geometry.layers = {{"cap", 0.05e-6, 0}, {"silicon", 2e-6, 0}};
+    geometry.cell_size = 5e-9;
+    for (const double grading : {1.0, 1.05, 1.3})
+      for (const Face face : {Face::top, Face::bottom})
+        {
+          geometry.grading = grading;
+          geometry.grade_toward = grading == 1.0 ? Face::none : face;
+          const AxisSpacing spacing = stack_spacing(geometry);
+          const StackEstimate estimate = estimate_stack(geometry);
+          EXPECT_EQ(estimate.cells, static_cast<double>(spacing.sizes.size())) << grading;
+          const double largest = *std::max_element(spacing.sizes.begin(), spacing.sizes.end());
+          EXPECT_DOUBLE_EQ(estimate.largest, largest) << grading;
+        }
+    // A 2 m column graded from 1 nm: a few hundred cells, not 2e9.
+    geometry.layers = {{"column", 2.0, 0}};
+    geometry.cell_size = 1e-9;
+    geometry.grading = 1.1;
+    geometry.grade_toward = Face::top;
+    EXPECT_LT(estimate_stack(geometry).cells, 1000.0);
   }
 } // namespace fickcast

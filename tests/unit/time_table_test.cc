@@ -50,4 +50,30 @@ namespace fickcast
     EXPECT_NE(message("time [h], value [m]\n0, 1\n1, 2\n").find("kg/m3"), std::string::npos);
     EXPECT_NE(message("time [h], value [mg/L]\n0, 1\n").find("at least two rows"), std::string::npos);
   }
+
+  TEST(TimeTable, AFileThatIsNotATableIsNotEchoed)
+  {
+    // A `file:` path aimed at any readable file must not print that file's content (issue 14).
+    try
+      {
+        read_time_table(write("fickcast_not_a_table.csv", "secret-user:x:1000:1000:Secret Person,,,:/home/s\n"),
+                        "kg/m3");
+        FAIL() << "a file that is not a table was read";
+      }
+    catch (const InputError &error)
+      {
+        const std::string text = error.what();
+        EXPECT_EQ(text.find("secret"), std::string::npos) << text;
+        EXPECT_NE(text.find(":1"), std::string::npos) << text;
+      }
+    try
+      {
+        read_time_table(write("fickcast_not_a_table2.csv", "secret-word [a], other [b]\n"), "kg/m3");
+        FAIL() << "a header of unknown units was read";
+      }
+    catch (const InputError &error)
+      {
+        EXPECT_EQ(std::string(error.what()).find("secret"), std::string::npos) << error.what();
+      }
+  }
 } // namespace fickcast
