@@ -11,6 +11,7 @@
 #include <deal.II/base/mpi.h>
 
 #include <csignal>
+#include <filesystem>
 #include <iostream>
 
 namespace
@@ -70,6 +71,13 @@ int main(int argc, char **argv)
     {
       if (root)
         std::cerr << "fickcast: " << error.what() << '\n';
+      return fickcast::exit_io_error;
+    }
+  catch (const std::filesystem::filesystem_error &error)
+    {
+      // A folder that cannot be made, read or renamed: the machine's doing, not ours.
+      if (root)
+        std::cerr << "fickcast: " << fickcast::printable(error.what(), 480) << '\n';
       return fickcast::exit_io_error;
     }
   catch (const fickcast::RunFailure &error)

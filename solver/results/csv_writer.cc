@@ -2,8 +2,10 @@
 
 #include "case/input_error.h"
 
+#include <cerrno>
 #include <cmath>
 #include <cstdio>
+#include <cstring>
 #include <stdexcept>
 
 namespace fickcast
@@ -42,7 +44,8 @@ namespace fickcast
       }
     stream_ << '\n';
     if (!stream_)
-      throw IoError("writing " + path_ + " failed");
+      throw IoError("writing " + path_ + " failed: " + std::strerror(errno) +
+                    " (a full disk or a folder that is not writable)");
   }
 
   std::string CsvWriter::format(const double value)
@@ -63,7 +66,8 @@ namespace fickcast
       stream_ << (i ? "," : "") << cells[i];
     stream_ << '\n';
     if (!stream_)
-      throw IoError("writing " + path_ + " failed");
+      throw IoError("writing " + path_ + " failed: " + std::strerror(errno) +
+                    " (a full disk or a folder that is not writable)");
   }
 
   void CsvWriter::close()
@@ -72,7 +76,8 @@ namespace fickcast
       {
         stream_.close();
         if (stream_.fail())
-          throw IoError("closing " + path_ + " failed");
+          throw IoError("closing " + path_ + " failed: " + std::strerror(errno) +
+                        " (a full disk or a folder that is not writable)");
       }
   }
 } // namespace fickcast

@@ -5,6 +5,8 @@
 #include <deal.II/numerics/data_out.h>
 #include <deal.II/numerics/data_postprocessor.h>
 
+#include <cerrno>
+#include <cstring>
 #include <fstream>
 
 namespace fickcast
@@ -111,16 +113,44 @@ namespace fickcast
     const unsigned int index = static_cast<unsigned int>(records_.size());
     const MPI_Comm communicator = field_.communicator;
     std::string name;
+    // deal.II reports a failed write (a full disk, a folder that is not writable) as an
+    // exception of its own with a long text: here it becomes one IoError naming the file.
+    const auto cannot_write = [&](const std::string &file) {
+      const int code = errno;
+      return IoError("cannot write " + file + ": " +
+                     (code != 0 ? std::string(std::strerror(code)) : std::string("the write failed")) +
+                     " (a full disk or a folder that is not writable)");
+    };
     if (Utilities::MPI::n_mpi_processes(communicator) == 1)
       {
         name = "fields_" + Utilities::int_to_string(index, 4) + ".vtu";
-        std::ofstream out(folder_ + "/" + name);
+        const std::string file = folder_ + "/" + name;
+        errno = 0;
+        std::ofstream out(file);
         if (!out)
-          throw IoError("cannot write " + folder_ + "/" + name);
-        data_out.write_vtu(out);
+          throw cannot_write(file);
+        try
+          {
+            data_out.write_vtu(out);
+            out.flush();
+          }
+        catch (const ExceptionBase &)
+          {
+            throw cannot_write(file);
+          }
+        if (!out)
+          throw cannot_write(file);
       }
     else
-      name = data_out.write_vtu_with_pvtu_record(folder_ + "/", "fields", index, communicator, 4);
+      try
+        {
+          errno = 0;
+          name = data_out.write_vtu_with_pvtu_record(folder_ + "/", "fields", index, communicator, 4);
+        }
+      catch (const ExceptionBase &)
+        {
+          throw cannot_write(folder_ + "/fields_" + Utilities::int_to_string(index, 4) + ".pvtu");
+        }
     records_.emplace_back(t, name);
   }
 
@@ -132,7 +162,17 @@ namespace fickcast
     std::ofstream out(folder_ + "/fields.pvd");
     if (!out)
       throw IoError("cannot write " + folder_ + "/fields.pvd");
-    DataOutBase::write_pvd_record(out, records_);
+    try
+      {
+        DataOutBase::write_pvd_record(out, records_);
+        out.flush();
+      }
+    catch (const ExceptionBase &)
+      {
+        throw IoError("cannot write " + folder_ + "/fields.pvd (a full disk or a folder that is not writable)");
+      }
+    if (!out)
+      throw IoError("cannot write " + folder_ + "/fields.pvd (a full disk or a folder that is not writable)");
   }
 
   template class FieldWriter<1>;

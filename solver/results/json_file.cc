@@ -5,7 +5,9 @@
 #include <json/reader.h>
 #include <json/writer.h>
 
+#include <cerrno>
 #include <cmath>
+#include <cstring>
 #include <fstream>
 #include <memory>
 #include <sstream>
@@ -48,8 +50,10 @@ namespace fickcast
     if (!out)
       throw IoError("cannot write " + path);
     out << text;
+    out.close(); // the bytes reach the disk here: a full disk shows now, not in a destructor
     if (!out)
-      throw IoError("writing " + path + " failed");
+      throw IoError("writing " + path + " failed: " + std::strerror(errno) +
+                    " (a full disk or a folder that is not writable)");
   }
 
   Json::Value read_json(const std::string &path)

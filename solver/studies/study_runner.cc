@@ -145,6 +145,10 @@ namespace fickcast
             event.message = rejection_reason(error);
             write_input_error(folder, event.message);
           }
+        catch (const IoError &)
+          {
+            throw; // the machine's doing (a full disk): the study stops with exit 3, not a failed case
+          }
         catch (const std::exception &error)
           {
             event.status = "failed";
