@@ -2,6 +2,7 @@
 
 #include "case/input_error.h"
 #include "geometry/layered_mesh.h"
+#include "geometry/mesh_quality.h"
 #include "geometry/msh_check.h"
 
 #include <deal.II/distributed/tria.h>
@@ -91,9 +92,11 @@ namespace fickcast
       if (!geometry.mesh_file.empty())
         {
           read_mesh_file<dim>(triangulation, geometry);
+          check_mesh_quality(triangulation, geometry, triangulation.get_communicator());
           return;
         }
     build_layered_mesh<dim>(triangulation, geometry);
+    check_mesh_quality(triangulation, geometry, triangulation.get_communicator());
   }
 
   template void make_mesh<1>(dealii::Triangulation<1> &, const GeometrySpec &);
