@@ -5,6 +5,8 @@
 #include "case/case_description.h"
 #include "model/scalar_function.h"
 
+#include <string>
+
 namespace fickcast
 {
   /**
@@ -15,25 +17,35 @@ namespace fickcast
    * - transfer: outward flux h (c_face - K c_ambient) = h K (u - u_ambient);
    * - bath: a well-stirred finite volume whose u is an unknown of the step;
    * - sealed: nothing.
+   *
+   * A value, flux or ambient that is not finite where it is asked for is reported to
+   * @p non_finite_to (if that is still empty) as "KEY: message", for a collective check by the
+   * caller: an expression that went wrong during the run, a numerical failure rather than an
+   * input error. Not thread-safe (muparser).
    */
   class BoundaryCondition
   {
   public:
-    /// @p face_partition is K of the region that touches the face.
-    BoundaryCondition(const BoundarySpec &spec, double face_partition);
+    /// @p face_partition is K of the region that touches the face; @p dimension is the dimension
+    /// of the points asked for and @p stage the stage's name, if the case has stages (for
+    /// messages); @p non_finite_to (may be null) must outlive this.
+    BoundaryCondition(const BoundarySpec &spec, double face_partition, unsigned int dimension = 1,
+                      std::string *non_finite_to = nullptr, const std::string &stage = "");
 
     BoundaryKind kind() const { return spec_->kind; }
     bool is_fixed() const { return kind() == BoundaryKind::concentration || kind() == BoundaryKind::bath; }
 
-    /// Concentration faces: the u imposed at a point and time.
-    double fixed_value(double x, double y, double z, double t) const
-    {
-      return spec_->value_is_ambient ? ambient_(x, y, z, t) : value_(x, y, z, t) / face_partition_;
-    }
+    /// Concentration faces: the u imposed at a point and time; remembers a value that is not finite.
+    double fixed_value(double x, double y, double z, double t) const;
 
     /// Flux and transfer faces: the given function that drives the face (the inward flux, or the
-    /// ambient u); the load is its integral against the test functions times load_factor.
+    /// ambient u); the load is its integral against the test functions times load_factor. Ask
+    /// its values through driving_value, which checks them.
     const ScalarFunction &driving_function() const { return kind() == BoundaryKind::flux ? value_ : ambient_; }
+    /// The driving function's value at a point and time; remembers a value that is not finite.
+    double driving_value(double x, double y, double z, double t) const;
+    /// The driving function's value, if it is the same everywhere on the face, at time @p t.
+    double driving_at_time(double t) const { return driving_value(0, 0, 0, t); }
     /// The factor of the face load and, for transfer, of the face operator: h K of the region on
     /// the face's cell for transfer, 1 for a given flux.
     double load_factor(const double cell_partition) const
@@ -55,8 +67,15 @@ namespace fickcast
     double bath_capacity() const { return spec_->volume * spec_->bath_partition; }
 
   private:
+    /// Remembers a value of @p function, key `boundary.FACE.NAME`, that is not finite.
+    void check(double value, const ScalarFunction &function, const char *name, double x, double y, double z,
+               double t) const;
+
     const BoundarySpec *spec_;
     double face_partition_;
     ScalarFunction value_, ambient_;
+    unsigned int dimension_;
+    std::string *non_finite_to_;
+    std::string stage_;
   };
 } // namespace fickcast

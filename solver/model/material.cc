@@ -1,37 +1,13 @@
 #include "model/material.h"
 
+#include "model/value_text.h"
+
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
 #include <string>
 
 namespace fickcast
 {
-  namespace
-  {
-    std::string describe_point(const double x, const double y, const double z, const unsigned int dim)
-    {
-      char buffer[128];
-      if (dim == 1)
-        std::snprintf(buffer, sizeof(buffer), "x = %.6g m", x);
-      else if (dim == 2)
-        std::snprintf(buffer, sizeof(buffer), "(x, y) = (%.6g, %.6g) m", x, y);
-      else
-        std::snprintf(buffer, sizeof(buffer), "(x, y, z) = (%.6g, %.6g, %.6g) m", x, y, z);
-      return buffer;
-    }
-
-    /// A value in a message: six significant digits, any magnitude (-1e-09, not -0.000000).
-    std::string number_text(const double value)
-    {
-      if (std::isnan(value))
-        return "NaN";
-      char buffer[32];
-      std::snprintf(buffer, sizeof(buffer), "%.6g", value);
-      return buffer;
-    }
-  } // namespace
-
   double tortuosity_factor(const RegionSpec &region)
   {
     switch (region.porosity_law)
@@ -54,7 +30,7 @@ namespace fickcast
   }
 
   Material::Material(const RegionSpec &region, const TemperatureSchedule &temperature, const ScalarField &initial,
-                     const unsigned int dimension, std::string *report_to)
+                     const unsigned int dimension, std::string *report_to, std::string *non_finite_to)
     : region_(&region)
     , dimension_(dimension)
     , tortuosity_(tortuosity_factor(region))
@@ -64,7 +40,17 @@ namespace fickcast
     , initial_field_(region.initial ? *region.initial : initial)
     , initial_(initial_field_)
     , report_to_(report_to)
+    , non_finite_to_(non_finite_to)
   {
+  }
+
+  double Material::source(const double x, const double y, const double z, const double t) const
+  {
+    const double s = source_(x, y, z, t);
+    if (!std::isfinite(s))
+      report_non_finite(non_finite_to_, "region." + region_->name + ".source", s, source_.depends_on_space(), x, y, z,
+                        t, dimension_);
+    return s;
   }
 
   double Material::diffusivity(const double x, const double y, const double z, const double t, const double c) const

@@ -30,15 +30,19 @@ namespace fickcast
    * plus the content laws: the initial phase concentration, and with a solubility the saturation
    * and the undissolved reserve. A diffusivity that is not positive and finite, or an initial value
    * that is not finite, where it is asked for is reported to @p report_to (if that is still empty)
-   * as "KEY: message", for a collective check by the caller. Not thread-safe (muparser).
+   * as "KEY: message", for a collective check by the caller (an input error). A source that is not
+   * finite where it is asked for is reported the same way to @p non_finite_to: an expression that
+   * went wrong during the run, a numerical failure rather than an input error. Not thread-safe
+   * (muparser).
    */
   class Material
   {
   public:
     /// @p initial is the case's [initial] value, used where the region gives none; @p dimension
-    /// is the dimension of the points asked for (for messages); @p report_to must outlive this.
+    /// is the dimension of the points asked for (for messages); @p report_to and @p non_finite_to
+    /// (either may be null) must outlive this.
     Material(const RegionSpec &region, const TemperatureSchedule &temperature, const ScalarField &initial,
-             unsigned int dimension, std::string *report_to);
+             unsigned int dimension, std::string *report_to, std::string *non_finite_to = nullptr);
 
     const std::string &name() const { return region_->name; }
 
@@ -73,7 +77,8 @@ namespace fickcast
       return region_->decay_rate * region_->porosity * region_->partition *
              (region_->decay_dissolved_only ? 1.0 : retardation_);
     }
-    double source(double x, double y, double z, double t) const { return source_(x, y, z, t); }
+    /// Source s at a point and time; remembers a value that is not finite.
+    double source(double x, double y, double z, double t) const;
     const ScalarFunction &source_function() const { return source_; }
 
     // --- content
@@ -107,5 +112,6 @@ namespace fickcast
     ScalarField initial_field_;
     ScalarFunction initial_;
     std::string *report_to_;
+    std::string *non_finite_to_;
   };
 } // namespace fickcast

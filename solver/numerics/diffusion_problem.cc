@@ -86,7 +86,8 @@ namespace fickcast
       {
         const RegionSpec *region = description_.find_region(name);
         AssertThrow(region != nullptr, ExcMessage("region without description: " + name));
-        materials_.emplace_back(*region, description_.temperature, description_.initial, dim, &bad_coefficient_);
+        materials_.emplace_back(*region, description_.temperature, description_.initial, dim, &bad_coefficient_,
+                                &non_finite_);
         const Material &material = materials_.back();
         source_depends_on_space_ = source_depends_on_space_ || material.source_function().depends_on_space();
         const Diffusivity &d = material.diffusivity_shape();
@@ -237,7 +238,8 @@ namespace fickcast
     for (unsigned int b = 0; b < names_.boundaries.size(); ++b)
       {
         const BoundarySpec *boundary = spec.find_boundary(names_.boundaries[b]);
-        boundaries_.emplace_back(boundary ? *boundary : sealed, boundary_partition_[b]);
+        boundaries_.emplace_back(boundary ? *boundary : sealed, boundary_partition_[b], dim, &non_finite_,
+                                 description_.stages.size() > 1 ? spec.name : std::string());
       }
     baths_.clear();
     for (unsigned int b = 0; b < boundaries_.size(); ++b)
@@ -317,6 +319,31 @@ namespace fickcast
     const std::string message = Utilities::MPI::broadcast(communicator_, bad_coefficient_, reporter);
     const auto colon = message.find(": ");
     throw InputError(description_.file, message.substr(0, colon), message.substr(colon + 2));
+  }
+
+  template <int dim>
+  std::string DiffusionProblem<dim>::non_finite_expression() const
+  {
+    const unsigned int rank = Utilities::MPI::this_mpi_process(communicator_);
+    const unsigned int n_ranks = Utilities::MPI::n_mpi_processes(communicator_);
+    const unsigned int reporter = Utilities::MPI::min(non_finite_.empty() ? n_ranks : rank, communicator_);
+    if (reporter == n_ranks)
+      return "";
+    return Utilities::MPI::broadcast(communicator_, non_finite_, reporter);
+  }
+
+  template <int dim>
+  bool DiffusionProblem<dim>::is_finite(const Vector &u) const
+  {
+    bool finite = true;
+    for (const double value : u) // the locally owned entries
+      finite = finite && std::isfinite(value);
+    for (const unsigned int b : baths_)
+      finite = finite && std::isfinite(bath_trial_[b]);
+    if (dispersed_)
+      for (const double value : reserve_trial_)
+        finite = finite && std::isfinite(value);
+    return Utilities::MPI::min(finite ? 1 : 0, communicator_) == 1;
   }
 
   template <int dim>
@@ -412,7 +439,7 @@ namespace fickcast
       scale = std::max(scale, std::abs(bath_value_[b]));
     for (unsigned int b = 0; b < boundaries_.size(); ++b)
       if (boundaries_[b].kind() == BoundaryKind::transfer && !boundaries_[b].ambient_function().depends_on_space())
-        scale = std::max(scale, std::abs(boundaries_[b].ambient_function().at_time(0.0)));
+        scale = std::max(scale, std::abs(boundaries_[b].driving_at_time(0.0)));
     return Utilities::MPI::max(scale, communicator_);
   }
 

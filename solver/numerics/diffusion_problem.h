@@ -121,6 +121,10 @@ namespace fickcast
     double coordinate_weight(const dealii::Point<dim> &point) const;
     /// Throws InputError on every rank if any rank met a non-physical coefficient (collective).
     void check_coefficients() const;
+    /// The first value that was not finite of an expression asked during the run (a boundary
+    /// value, flux or ambient, a source), as "KEY: message" from the lowest rank that met one, on
+    /// every rank; empty if none (collective). A numerical failure, not an input error.
+    std::string non_finite_expression() const;
     /// The rate of the integration clock: the relative diffusivity of the region whose D changes
     /// in time only (1 if none), so that stepping in tau = int rate dt is exact for it.
     double clock_rate(double t) const;
@@ -141,6 +145,9 @@ namespace fickcast
     /// Zeroes the nodes whose undissolved reserve ran out in the last step: their history has a
     /// kink there, which a local error estimate from extrapolation would mistake for error.
     void zero_depleted(Vector &v) const;
+    /// Whether every entry of @p u, and the last step's bath values and reserves, are finite
+    /// (collective).
+    bool is_finite(const Vector &u) const;
     /// Whether some node's reserve ran out in the last step (collective).
     bool depleted_in_last_step() const;
 
@@ -248,6 +255,7 @@ namespace fickcast
 
     std::unique_ptr<LinearSolver> solver_;
     mutable std::string bad_coefficient_;
+    mutable std::string non_finite_; ///< first non-finite expression value (Material, BoundaryCondition)
     mutable PhaseTimer timer_;
   };
 } // namespace fickcast

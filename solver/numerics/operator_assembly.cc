@@ -308,7 +308,7 @@ namespace fickcast
     const ScalarFunction &given = boundaries_[b].driving_function();
     if (!given.depends_on_space())
       {
-        const double value = given.at_time(t);
+        const double value = boundaries_[b].driving_at_time(t);
         if (f != nullptr && value != 0)
           f->add(value, boundary_load_[b]);
         return value * boundary_load_total_[b];
@@ -336,7 +336,7 @@ namespace fickcast
             for (unsigned int q = 0; q < face_quadrature.size(); ++q)
               {
                 const auto &p = fe_face_values.quadrature_point(q);
-                const double value = given(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, t);
+                const double value = boundaries_[b].driving_value(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, t);
                 const double w = coordinate_weight(p) * fe_face_values.JxW(q);
                 for (unsigned int i = 0; i < n; ++i)
                   local(i) += factor * value * fe_face_values.shape_value(i, q) * w;

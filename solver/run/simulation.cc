@@ -15,6 +15,7 @@
 #include <atomic>
 #include <chrono>
 #include <cmath>
+#include <cstdio>
 #include <deque>
 
 namespace fickcast
@@ -53,6 +54,14 @@ namespace fickcast
         if (t > 0 && (unique.empty() || t - unique.back() > 1e-12 * c.time.end))
           unique.push_back(t);
       return unique;
+    }
+
+    /// A time in a message: six significant digits, any magnitude.
+    std::string time_text(const double t)
+    {
+      char buffer[32];
+      std::snprintf(buffer, sizeof(buffer), "%.6g", t);
+      return buffer;
     }
 
     /// One remembered state: clock reading, time and u.
@@ -255,14 +264,16 @@ namespace fickcast
       observers.output(t, ghosted);
     };
 
-    {
-      std::vector<double> initial_rates = rates_old.boundary_inflow;
-      for (unsigned int b = 0; b < n_boundaries; ++b)
-        if (problem.boundary_kind(b) == BoundaryKind::concentration || problem.boundary_kind(b) == BoundaryKind::bath)
-          initial_rates[b] = not_a_number; // undefined at the instant the condition starts
-      write_row(0.0, 0, 0.0, u, initial_rates);
-      output_fields(0.0, u);
-    }
+    // A wrong answer is never a result: an expression that gave a value that is not finite (first
+    // cause), or a state that is not finite, ends the run before the state is written (collective).
+    auto check_finite = [&](const Vector &state, const unsigned int at_step, const double at_t) {
+      std::string cause = problem.non_finite_expression();
+      if (cause.empty() && !problem.is_finite(state))
+        cause = "the state became non-finite at step " + std::to_string(at_step) + ", t = " + time_text(at_t) + " s";
+      if (!cause.empty())
+        throw RunFailure(cause);
+    };
+    bool have_good_state = false; // whether u may be written
 
     const std::vector<double> outputs = output_schedule(c);
     const std::vector<double> hard = hard_times(c, outputs);
@@ -286,6 +297,17 @@ namespace fickcast
 
     try
       {
+        {
+          check_finite(u, 0, 0.0);
+          have_good_state = true;
+          std::vector<double> initial_rates = rates_old.boundary_inflow;
+          for (unsigned int b = 0; b < n_boundaries; ++b)
+            if (problem.boundary_kind(b) == BoundaryKind::concentration ||
+                problem.boundary_kind(b) == BoundaryKind::bath)
+              initial_rates[b] = not_a_number; // undefined at the instant the condition starts
+          write_row(0.0, 0, 0.0, u, initial_rates);
+          output_fields(0.0, u);
+        }
         while (next_hard < hard.size())
           {
             if (stop_requested())
@@ -356,6 +378,9 @@ namespace fickcast
             last_iterations = result.linear_iterations;
             last_nonlinear = result.nonlinear_iterations;
             record.nonlinear_iterations += result.nonlinear_iterations;
+            // An expression that is not finite at t1 stays so whatever the step: no retry.
+            if (const std::string cause = problem.non_finite_expression(); !cause.empty())
+              throw RunFailure(cause);
 
             if (!result.converged)
               {
@@ -371,6 +396,8 @@ namespace fickcast
                                    " iterations, even with the smallest step, at t = " + std::to_string(t) + " s");
                 continue;
               }
+
+            check_finite(u_new, step + 1, t1);
 
             // Local error estimate from extrapolating the history (in the clock variable).
             bool accepted = true;
@@ -425,6 +452,8 @@ namespace fickcast
 
             // Amounts moved in this step, consistent with the scheme (they close the balance).
             const TermRates rates_new = problem.rates(u_new, t1);
+            if (const std::string cause = problem.non_finite_expression(); !cause.empty())
+              throw RunFailure(cause);
             const double undissolved_before = problem.undissolved_amount();
             problem.accept_step();
             std::vector<double> amounts(n_boundaries + 2, 0.0);
@@ -522,7 +551,8 @@ namespace fickcast
       {
         record.status = "failed";
         record.message = failure.what();
-        output_fields(t, u);
+        if (have_good_state)
+          output_fields(t, u);
       }
 
     if (fields)

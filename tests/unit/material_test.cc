@@ -5,6 +5,8 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <limits>
+#include <string>
 
 namespace fickcast
 {
@@ -150,5 +152,44 @@ namespace fickcast
     EXPECT_DOUBLE_EQ(bath.bath_initial_value(), 4);
     EXPECT_DOUBLE_EQ(bath.bath_concentration(4), 2);
     EXPECT_DOUBLE_EQ(bath.bath_capacity(), 0.005);
+  }
+  TEST(Material, NonFiniteSourceIsANumericalFailure)
+  {
+    // A source that is NaN where it is asked for goes to the numerical-failure report, not to the
+    // input-error one; the first is kept, with the key, the point (if it depends on space) and t.
+    RegionSpec region = clay();
+    region.source.expression = "sqrt(x - 1)";
+    std::string report, non_finite;
+    const Material material(region, no_temperature, zero, 2, &report, &non_finite);
+    EXPECT_DOUBLE_EQ(material.source(2, 0, 0, 5), 1);
+    EXPECT_TRUE(non_finite.empty());
+    EXPECT_TRUE(std::isnan(material.source(0.5, 0.25, 0, 86400)));
+    EXPECT_EQ(non_finite,
+              "region.clay.source: expected a finite value, found NaN at (x, y) = (0.5, 0.25) m, t = 86400 s");
+    material.source(0, 0, 0, 1);
+    EXPECT_EQ(non_finite.rfind("region.clay.source: expected a finite value, found NaN at (x, y) = (0.5, 0.25)", 0),
+              0u);
+    EXPECT_TRUE(report.empty());
+  }
+
+  TEST(BoundaryCondition, NonFiniteValuesAreReportedWithTheirKey)
+  {
+    BoundarySpec spec;
+    spec.name = "top";
+    spec.kind = BoundaryKind::concentration;
+    spec.value = ScalarField::constant(std::numeric_limits<double>::infinity());
+    std::string non_finite;
+    const BoundaryCondition wrong(spec, 1, 1, &non_finite);
+    EXPECT_FALSE(std::isfinite(wrong.fixed_value(0, 0, 0, 10)));
+    EXPECT_EQ(non_finite, "boundary.top.value: expected a finite value, found inf at t = 10 s");
+
+    // In a case with stages the stage is named; a transfer face's key is its ambient.
+    non_finite.clear();
+    spec.kind = BoundaryKind::transfer;
+    spec.ambient.expression = "sqrt(-1 - x)";
+    const BoundaryCondition transfer(spec, 1, 1, &non_finite, "drying");
+    EXPECT_TRUE(std::isnan(transfer.driving_value(0.5, 0, 0, 2)));
+    EXPECT_EQ(non_finite,
+              "boundary.top.ambient (stage drying): expected a finite value, found NaN at x = 0.5 m, t = 2 s");
   }
 } // namespace fickcast
