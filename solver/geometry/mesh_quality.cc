@@ -37,7 +37,8 @@ namespace fickcast
     std::vector<Point<dim>> unit_points;
     for (const unsigned int v : GeometryInfo<dim>::vertex_indices())
       unit_points.push_back(GeometryInfo<dim>::unit_cell_vertex(v));
-    for (const auto &q : QGauss<dim>(2).get_points())
+    const QGauss<dim> gauss(2);
+    for (const auto &q : gauss.get_points())
       unit_points.push_back(q);
 
     std::string fault;

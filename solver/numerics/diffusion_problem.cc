@@ -4,6 +4,7 @@
 
 #include "case/input_error.h"
 #include "geometry/mesh_import.h"
+#include "model/value_text.h"
 
 #include <deal.II/base/quadrature_lib.h>
 #include <deal.II/base/utilities.h>
@@ -22,19 +23,6 @@
 namespace fickcast
 {
   using namespace dealii;
-
-  namespace
-  {
-    /// A value in a message: six significant digits, any magnitude (-1e-09, not -0.000000).
-    std::string number_text(const double value)
-    {
-      if (std::isnan(value))
-        return "NaN";
-      char buffer[32];
-      std::snprintf(buffer, sizeof(buffer), "%.6g", value);
-      return buffer;
-    }
-  } // namespace
 
   template <int dim>
   DiffusionProblem<dim>::DiffusionProblem(const CaseDescription &description, MPI_Comm communicator)
