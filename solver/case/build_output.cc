@@ -55,6 +55,24 @@ namespace fickcast
     }
   } // namespace
 
+  namespace
+  {
+    /// Calls @p handle(value, prefix, name) for every `[output]` key of the form PREFIX.NAME.
+    template <typename Handle>
+    void for_each_named_output(const SectionReader &reader, Handle &&handle)
+    {
+      for (const auto &value : reader.settings.all())
+        {
+          if (value.section != "output")
+            continue;
+          const auto dot = value.key.find('.');
+          if (dot == std::string::npos)
+            continue;
+          handle(value, value.key.substr(0, dot), value.key.substr(dot + 1));
+        }
+    }
+  } // namespace
+
   void build_output(const SectionReader &reader, CaseDescription &c)
   {
     c.output.folder = reader.text("output", "folder");
@@ -74,118 +92,101 @@ namespace fickcast
       c.output.write_fields = fields->flag;
 
     const double total = c.geometry.total_thickness();
-    for (const auto &value : reader.settings.all())
-      {
-        if (value.section != "output")
-          continue;
-        const auto dot = value.key.find('.');
-        if (dot == std::string::npos)
-          continue;
-        const std::string prefix = value.key.substr(0, dot);
-        const std::string name = value.key.substr(dot + 1);
-        if (prefix == "point")
-          {
-            NamedPointSpec named_point;
-            named_point.name = name;
-            named_point.origin = value.origin;
-            named_point.region = value.text;
-            if (!named_point.region.empty() && c.find_region(named_point.region) == nullptr)
-              {
-                std::vector<std::string> regions;
-                for (const auto &r : c.regions)
-                  regions.push_back(r.name);
-                const std::string suggestion = nearest(named_point.region, regions);
-                reader.fail(value, "expected '... in REGION' to name a region, found '" + named_point.region + "'" +
-                                     (suggestion.empty() ? "" : " (did you mean '" + suggestion + "'?)"));
-              }
-            for (unsigned int d = 0; d < reader.dimension; ++d)
-              {
-                std::string layer;
-                named_point.point[d] = coordinate(reader, c, value, d, d, layer);
-                // At a layer's face, read the layer's own side unless told otherwise.
-                if (!layer.empty() && named_point.region.empty())
-                  named_point.region = layer;
-              }
-            const GeometrySpec &g = c.geometry;
-            if (g.mesh_file.empty())
-              {
-                // Bounds of the built-in geometry per axis (a mesh file is checked when read).
-                double low[3] = {0, 0, 0};
-                double high[3] = {reader.dimension == 1 ? total : g.width, reader.dimension == 2 ? total : g.length,
-                                  total};
-                if (g.radial())
-                  {
-                    low[0] = g.inner_radius;
-                    high[0] = g.inner_radius + total;
-                  }
-                if (g.coordinates == Coordinates::axisymmetric)
-                  {
-                    low[0] = g.inner_radius;
-                    high[0] = g.radius + g.side_coating.thickness;
-                  }
-                const double tolerance = 1e-9 * std::max(total, 1e-30);
-                for (unsigned int d = 0; d < reader.dimension; ++d)
-                  if (named_point.point[d] < low[d] - tolerance || named_point.point[d] > high[d] + tolerance)
-                    reader.fail(value, "expected a point inside the geometry (axis " + std::string(1, "xyz"[d]) +
-                                         " from " + format_si(low[d], "m") + " to " + format_si(high[d], "m") +
-                                         "), found " + format_si(named_point.point[d], "m") +
-                                         " (the point is outside)");
-              }
-            c.output.points.push_back(named_point);
-          }
-      }
-    for (const auto &value : reader.settings.all())
-      {
-        if (value.section != "output")
-          continue;
-        const auto dot = value.key.find('.');
-        if (dot == std::string::npos)
-          continue;
-        const std::string prefix = value.key.substr(0, dot);
-        const std::string name = value.key.substr(dot + 1);
-        if (prefix == "threshold")
-          {
-            const bool has_point = std::any_of(c.output.points.begin(), c.output.points.end(),
-                                               [&](const NamedPointSpec &p) { return p.name == name; });
-            if (!has_point)
-              reader.fail(value, "expected a point of the same name (output.point." + name + " = ...), found none");
-            c.output.thresholds.push_back(LevelSpec{name, value.si});
-          }
-        else if (prefix == "depth")
-          c.output.depths.push_back(LevelSpec{name, value.si});
-        else if (prefix == "line")
-          {
-            LineSpec line;
-            line.name = name;
-            std::string layer;
-            for (unsigned int d = 0; d < reader.dimension; ++d)
-              {
-                line.from[d] = coordinate(reader, c, value, d, d, layer);
-                line.to[d] = coordinate(reader, c, value, reader.dimension + d, d, layer);
-              }
-            if (line.from == line.to)
-              reader.fail(value, "expected a line between two different points, found one point twice");
-            if (const auto *samples = reader.get("output", "samples." + name))
-              line.samples = static_cast<unsigned int>(samples->si);
-            c.output.lines.push_back(line);
-          }
-        else if (prefix == "release")
-          c.output.releases.push_back(LevelSpec{name, value.si});
-        else if (prefix == "time_lag")
-          {
-            const auto &faces = reader.faces;
-            if (std::find(faces.begin(), faces.end(), value.text) == faces.end() ||
-                GeometrySpec::is_symmetry_face(value.text))
-              {
-                std::string list;
-                for (const auto &f : faces)
-                  if (!GeometrySpec::is_symmetry_face(f))
-                    list += (list.empty() ? "" : ", ") + f;
-                reader.fail(value, "expected a boundary name (" + list + "), found '" + value.text + "'");
-              }
-            c.output.time_lags.emplace_back(name, value.text);
-          }
-      }
+    for_each_named_output(reader, [&](const SettingValue &value, const std::string &prefix, const std::string &name) {
+      if (prefix == "point")
+        {
+          NamedPointSpec named_point;
+          named_point.name = name;
+          named_point.origin = value.origin;
+          named_point.region = value.text;
+          if (!named_point.region.empty() && c.find_region(named_point.region) == nullptr)
+            {
+              std::vector<std::string> regions;
+              for (const auto &r : c.regions)
+                regions.push_back(r.name);
+              const std::string suggestion = nearest(named_point.region, regions);
+              reader.fail(value, "expected '... in REGION' to name a region, found '" + named_point.region + "'" +
+                                   (suggestion.empty() ? "" : " (did you mean '" + suggestion + "'?)"));
+            }
+          for (unsigned int d = 0; d < reader.dimension; ++d)
+            {
+              std::string layer;
+              named_point.point[d] = coordinate(reader, c, value, d, d, layer);
+              // At a layer's face, read the layer's own side unless told otherwise.
+              if (!layer.empty() && named_point.region.empty())
+                named_point.region = layer;
+            }
+          const GeometrySpec &g = c.geometry;
+          if (g.mesh_file.empty())
+            {
+              // Bounds of the built-in geometry per axis (a mesh file is checked when read).
+              double low[3] = {0, 0, 0};
+              double high[3] = {reader.dimension == 1 ? total : g.width, reader.dimension == 2 ? total : g.length,
+                                total};
+              if (g.radial())
+                {
+                  low[0] = g.inner_radius;
+                  high[0] = g.inner_radius + total;
+                }
+              if (g.coordinates == Coordinates::axisymmetric)
+                {
+                  low[0] = g.inner_radius;
+                  high[0] = g.radius + g.side_coating.thickness;
+                }
+              const double tolerance = 1e-9 * std::max(total, 1e-30);
+              for (unsigned int d = 0; d < reader.dimension; ++d)
+                if (named_point.point[d] < low[d] - tolerance || named_point.point[d] > high[d] + tolerance)
+                  reader.fail(value, "expected a point inside the geometry (axis " + std::string(1, "xyz"[d]) +
+                                       " from " + format_si(low[d], "m") + " to " + format_si(high[d], "m") +
+                                       "), found " + format_si(named_point.point[d], "m") + " (the point is outside)");
+            }
+          c.output.points.push_back(named_point);
+        }
+    });
+    for_each_named_output(reader, [&](const SettingValue &value, const std::string &prefix, const std::string &name) {
+      if (prefix == "threshold")
+        {
+          const bool has_point = std::any_of(c.output.points.begin(), c.output.points.end(),
+                                             [&](const NamedPointSpec &p) { return p.name == name; });
+          if (!has_point)
+            reader.fail(value, "expected a point of the same name (output.point." + name + " = ...), found none");
+          c.output.thresholds.push_back(LevelSpec{name, value.si});
+        }
+      else if (prefix == "depth")
+        c.output.depths.push_back(LevelSpec{name, value.si});
+      else if (prefix == "line")
+        {
+          LineSpec line;
+          line.name = name;
+          std::string layer;
+          for (unsigned int d = 0; d < reader.dimension; ++d)
+            {
+              line.from[d] = coordinate(reader, c, value, d, d, layer);
+              line.to[d] = coordinate(reader, c, value, reader.dimension + d, d, layer);
+            }
+          if (line.from == line.to)
+            reader.fail(value, "expected a line between two different points, found one point twice");
+          if (const auto *samples = reader.get("output", "samples." + name))
+            line.samples = static_cast<unsigned int>(samples->si);
+          c.output.lines.push_back(line);
+        }
+      else if (prefix == "release")
+        c.output.releases.push_back(LevelSpec{name, value.si});
+      else if (prefix == "time_lag")
+        {
+          const auto &faces = reader.faces;
+          if (std::find(faces.begin(), faces.end(), value.text) == faces.end() ||
+              GeometrySpec::is_symmetry_face(value.text))
+            {
+              std::string list;
+              for (const auto &f : faces)
+                if (!GeometrySpec::is_symmetry_face(f))
+                  list += (list.empty() ? "" : ", ") + f;
+              reader.fail(value, "expected a boundary name (" + list + "), found '" + value.text + "'");
+            }
+          c.output.time_lags.emplace_back(name, value.text);
+        }
+    });
     for (const auto &value : reader.settings.all())
       if (value.section == "output" && value.key.rfind("samples.", 0) == 0)
         {

@@ -1,4 +1,6 @@
 // Helpers shared by the feature checks (geometry_, coefficient_ and boundary_output_features_test.cc).
+// Source: none needed here (no reference values); each check names its published source, or says
+// "common practice" or "from memory", beside it in the test files.
 #pragma once
 
 #include "case_runner.h"

@@ -1,3 +1,5 @@
+// Source: the method of manufactured solutions (Roache 1998, published; the exact answer is built
+// below, not taken from a table).
 // Manufactured solution across a partition jump, with capacity other than 1 and a transfer face:
 // observed spatial orders. Procedure: Roache, Verification and Validation in Computational Science
 // and Engineering (1998); Salari & Knupp, SAND2000-1444 (2000). Expected L2 order p + 1 for

@@ -1,3 +1,4 @@
+// Source: Crank, The Mathematics of Diffusion, 2nd ed. 1975, sec. 3.4 (published).
 // A transient across an interface with a partition jump: two semi-infinite media in contact, the
 // first initially at C0, the second empty, with c2 = K c1 and equal fluxes at the interface.
 // Exact (Crank, The Mathematics of Diffusion, 2nd ed. 1975, sec. 3.4, composite media), with

@@ -1,3 +1,5 @@
+// Source: Crank, The Mathematics of Diffusion, 2nd ed. 1975, eq. 2.45 (published); the band of
+// error against tolerance is this project's own requirement (issue 24), not a published value.
 // The error-controlled step: the final error of a transient must follow time.tolerance. Checked on
 // erfc (Crank, The Mathematics of Diffusion, 2nd ed. 1975, eq. 2.45; Boost.Math erfc) on a mesh
 // fine enough that the spatial error lies far below the smallest tolerance used, so what is
