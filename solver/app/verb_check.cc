@@ -11,6 +11,7 @@
 #include <deal.II/base/mpi.h>
 
 #include <algorithm>
+#include <cstdio>
 #include <iostream>
 
 namespace fickcast
@@ -104,8 +105,22 @@ namespace fickcast
               << "\n"
               << "mesh: " << mesh.cells << " cells, " << mesh.unknowns << " unknowns (degree "
               << description.numerics.degree << "), cell sizes " << mesh.smallest_cell << " to " << mesh.largest_cell
-              << " m\n\n"
-              << pad("key", key_width) << "  " << pad("value as written", written_width) << "  "
+              << " m\n";
+    // A distortion measure (the smallest over the largest Jacobian determinant in a cell): 1 for
+    // boxes and parallelograms; near 0 the cell is close to collapse and the solution there is poor.
+    std::string centre;
+    for (unsigned int d = 0; d < description.dimension; ++d)
+      {
+        char number[32];
+        std::snprintf(number, sizeof(number), "%.6g", mesh.worst_cell_centre[d]);
+        centre += (d ? ", " : "") + std::string(number);
+      }
+    std::printf("mesh shape: worst cell Jacobian ratio %.3g at (%s) m%s\n\n", mesh.worst_jacobian_ratio, centre.c_str(),
+                mesh.worst_jacobian_ratio < 0.1 ? ": strongly distorted (below 0.1); expect poor accuracy near it, "
+                                                  "or remesh"
+                                                : " (1 for boxes and parallelograms)");
+    std::fflush(stdout);
+    std::cout << pad("key", key_width) << "  " << pad("value as written", written_width) << "  "
               << pad("SI value", si_width) << "  from\n";
     for (const auto &record : description.settings)
       std::cout << pad(record.key, key_width) << "  " << pad(record.written, written_width) << "  "

@@ -18,7 +18,7 @@ namespace fickcast
   void read_mesh_file(dealii::Triangulation<dim> &triangulation, const GeometrySpec &geometry)
   {
     const std::string &file = geometry.mesh_file;
-    check_msh_structure(file); // deal.II's reader trusts counts and references
+    const std::vector<MshElement> elements = check_msh_structure(file); // deal.II's reader trusts counts
     dealii::Triangulation<dim> serial;
     try
       {
@@ -52,6 +52,20 @@ namespace fickcast
       }
     if (!serial.all_reference_cells_are_hyper_cube())
       throw InputError(file, "geometry.mesh", "expected quadrilateral or hexahedral cells (Recombine in Gmsh)");
+
+    // Every cell a valid map, checked before anything moves: the n-th coarse cell is the n-th
+    // element of the mesh's dimension in the file, so a bad one is named as the user knows it.
+    std::vector<MshElement> cells_in_file;
+    for (const auto &element : elements)
+      if (element.dimension == dim)
+        cells_in_file.push_back(element);
+    const auto where_is = [&](const unsigned int index) -> std::string {
+      if (cells_in_file.size() != serial.n_cells(0) || index >= cells_in_file.size())
+        return "";
+      const MshElement &e = cells_in_file[index];
+      return file + ":" + std::to_string(e.line) + " (element " + std::to_string(e.tag) + ")";
+    };
+    check_mesh_quality(serial, geometry, MPI_COMM_SELF, where_is);
 
     std::map<unsigned int, dealii::types::material_id> region_id;
     for (std::size_t i = 0; i < geometry.mesh_region_tags.size(); ++i)

@@ -51,6 +51,8 @@ namespace fickcast
       }
 
       bool done() const { return next_ >= tokens_.size(); }
+      /// The line of the token read last.
+      std::size_t line() const { return next_ == 0 ? 1 : tokens_[std::min(next_, tokens_.size()) - 1].line; }
 
       [[noreturn]] void fail(const std::string &expected, const std::string &found) const
       {
@@ -151,16 +153,28 @@ namespace fickcast
       t.expect("$EndNodes");
     }
 
-    void elements_22(Tokens &t, const std::unordered_set<long> &nodes)
+    /// The dimension of a Gmsh element type (the same list as nodes_of_type).
+    int dimension_of_type(const long type)
+    {
+      static const std::map<long, int> dimension{{1, 1},  {2, 2},  {3, 2},  {4, 3},  {5, 3},  {6, 3},  {7, 3},
+                                                 {8, 1},  {9, 2},  {10, 2}, {11, 3}, {12, 3}, {13, 3}, {14, 3},
+                                                 {15, 0}, {16, 2}, {17, 3}, {92, 3}, {93, 3}};
+      const auto found = dimension.find(type);
+      return found == dimension.end() ? -1 : found->second;
+    }
+
+    void elements_22(Tokens &t, const std::unordered_set<long> &nodes, std::vector<MshElement> &elements)
     {
       const long n = t.integer("the number of elements", 1);
       for (long i = 0; i < n; ++i)
         {
-          t.integer("an element tag", 1);
+          const long tag = t.integer("an element tag", 1);
+          const std::size_t line = t.line();
           const long type = t.integer("an element type", 1, 200);
           const int count = nodes_of_type(type);
           if (count < 0)
             t.fail("a Gmsh element type", "type " + std::to_string(type));
+          elements.push_back({tag, dimension_of_type(type), line});
           const long n_tags = t.integer("the number of element tags", 0, 100);
           for (long k = 0; k < n_tags; ++k)
             t.integer("an element tag value", -most);
@@ -233,7 +247,8 @@ namespace fickcast
       t.expect("$EndNodes");
     }
 
-    void elements_41(Tokens &t, const EntitySet &entities, const std::unordered_set<long> &nodes)
+    void elements_41(Tokens &t, const EntitySet &entities, const std::unordered_set<long> &nodes,
+                     std::vector<MshElement> &elements)
     {
       const long blocks = t.integer("the number of element blocks");
       const long total = t.integer("the number of elements", 1);
@@ -254,7 +269,8 @@ namespace fickcast
           const long n = t.integer("the number of elements in the block", 0, total - seen);
           for (long i = 0; i < n; ++i)
             {
-              t.integer("an element tag", 1);
+              const long tag = t.integer("an element tag", 1);
+              elements.push_back({tag, static_cast<int>(dim), t.line()});
               for (int k = 0; k < count; ++k)
                 {
                   const long node = t.integer("a node of the element", 1);
@@ -270,8 +286,9 @@ namespace fickcast
     }
   } // namespace
 
-  void check_msh_structure(const std::string &path)
+  std::vector<MshElement> check_msh_structure(const std::string &path)
   {
+    std::vector<MshElement> elements;
     Tokens t(path);
     t.expect("$MeshFormat");
     const std::string version = t.word("a format version");
@@ -304,9 +321,9 @@ namespace fickcast
             if (!have_nodes)
               t.fail("$Nodes before $Elements", "$Elements");
             if (v4)
-              elements_41(t, entities, nodes);
+              elements_41(t, entities, nodes, elements);
             else
-              elements_22(t, nodes);
+              elements_22(t, nodes, elements);
             have_elements = true;
           }
         else if (section.size() > 1 && section[0] == '$' && section.rfind("$End", 0) != 0)
@@ -316,5 +333,6 @@ namespace fickcast
       }
     if (!have_nodes || !have_elements)
       t.fail("$Nodes and $Elements sections", std::string(have_nodes ? "no $Elements" : "no $Nodes"));
+    return elements;
   }
 } // namespace fickcast

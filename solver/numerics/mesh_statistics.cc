@@ -1,6 +1,7 @@
 #include "numerics/mesh_statistics.h"
 
 #include "geometry/mesh_import.h"
+#include "geometry/mesh_quality.h"
 
 #include <deal.II/base/mpi.h>
 #include <deal.II/distributed/tria.h>
@@ -28,13 +29,29 @@ namespace fickcast
       MeshStatistics statistics;
       statistics.cells = triangulation->n_global_active_cells();
       statistics.unknowns = dofs.n_dofs();
-      double smallest = 1e300, largest = 0;
+      double smallest = 1e300, largest = 0, worst = 2;
+      dealii::Point<dim> worst_centre;
       for (const auto &cell : triangulation->active_cell_iterators())
         if (cell->is_locally_owned())
           {
             smallest = std::min(smallest, cell->diameter());
             largest = std::max(largest, cell->diameter());
+            const double ratio = jacobian_ratio<dim>(cell);
+            if (ratio < worst)
+              {
+                worst = ratio;
+                worst_centre = cell->center();
+              }
           }
+      // The worst cell of all ranks, and where it is (from the rank that has it).
+      const double worst_all = dealii::Utilities::MPI::min(worst, communicator);
+      const unsigned int n_ranks = dealii::Utilities::MPI::n_mpi_processes(communicator);
+      const unsigned int owner = dealii::Utilities::MPI::min(
+        worst == worst_all ? dealii::Utilities::MPI::this_mpi_process(communicator) : n_ranks, communicator);
+      statistics.worst_jacobian_ratio = std::min(worst_all, 1.0);
+      const dealii::Point<dim> centre = dealii::Utilities::MPI::broadcast(communicator, worst_centre, owner);
+      for (int d = 0; d < dim; ++d)
+        statistics.worst_cell_centre[d] = centre[d];
       statistics.smallest_cell = dealii::Utilities::MPI::min(smallest, communicator);
       statistics.largest_cell = dealii::Utilities::MPI::max(largest, communicator);
       return statistics;

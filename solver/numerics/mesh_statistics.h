@@ -5,6 +5,8 @@
 
 #include <mpi.h>
 
+#include <array>
+
 namespace fickcast
 {
   struct MeshStatistics
@@ -13,6 +15,9 @@ namespace fickcast
     unsigned long unknowns = 0;
     double smallest_cell = 0; ///< m, smallest cell diameter
     double largest_cell = 0;  ///< m, largest cell diameter
+    /// The most distorted cell: its Jacobian ratio (geometry/mesh_quality.h; 1 for a box) and centre.
+    double worst_jacobian_ratio = 1;
+    std::array<double, 3> worst_cell_centre{{0, 0, 0}};
   };
 
   /// Builds the mesh and the finite-element space of @p description and counts (collective).

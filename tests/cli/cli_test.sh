@@ -57,6 +57,15 @@ grep -Eq "time\.end .*:[0-9]+$" "$scratch/out.txt" || fail "check does not give 
 grep -Eq "default$" "$scratch/out.txt" || fail "check does not mark defaults"
 expect_code 0 "check with --set" "$fickcast" check "$case_file" --set "time.end=2 yr"
 grep -Eq "time\.end +2 yr +63115200 s +--set" "$scratch/out.txt" || fail "check does not show the --set origin"
+# A distortion measure at check (issue 14 item 3): a valid but skinny quadrilateral is named with
+# its Jacobian ratio (0.05 by hand: the corner pulled to 0.05 m of its neighbour) and a warning.
+here=$(cd "$(dirname "$0")" && pwd)
+expect_code 0 "check of a distorted mesh" "$fickcast" check "$here/meshes/distorted.ini"
+grep -q "mesh shape: worst cell Jacobian ratio 0.05 at (1.2625, 0.5) m: strongly distorted" "$scratch/out.txt" ||
+  fail "check does not report the distorted cell: $(grep 'mesh shape' "$scratch/out.txt")"
+expect_code 0 "check of a box mesh" "$fickcast" check "$case_file"
+grep -q "mesh shape: worst cell Jacobian ratio 1 at (.*) m (1 for boxes" "$scratch/out.txt" ||
+  fail "check does not report the shape of a box mesh: $(grep 'mesh shape' "$scratch/out.txt")"
 
 results="$scratch/results"
 expect_code 0 "run" "$fickcast" run "$case_file" --output "$results" --set "time.end=1 yr"
