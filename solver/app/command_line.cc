@@ -46,6 +46,9 @@ namespace fickcast
       po::options_description options = common_options();
       if (verb == "check")
         options.add_options()("keys", "list every case key with its default and meaning");
+      if (verb == "run")
+        options.add_options()("resume", "continue the interrupted run of this case from its newest checkpoint "
+                                        "(same case, same number of ranks); without one, start at t = 0");
       if (verb == "run" || verb == "sweep" || verb == "size")
         options.add_options()("report", "also write the plots and the HTML report (FOLDER/report/index.html)");
       if (verb == "sweep")
@@ -130,6 +133,10 @@ namespace fickcast
     invocation.quiet = values.count("quiet") != 0;
     invocation.list_keys = values.count("keys") != 0;
     invocation.report = values.count("report") != 0;
+    invocation.resume = values.count("resume") != 0;
+    if (invocation.resume && invocation.overwrite)
+      throw InputError("command line", "--resume",
+                       "expected --resume (continue an interrupted run) or --overwrite (start it again), found both");
     if (values.count("set"))
       invocation.overrides = values["set"].as<std::vector<std::string>>();
     if (values.count("vary"))
@@ -172,7 +179,8 @@ namespace fickcast
         out << "\nOptions for every verb:\n"
             << common_options() << "\n"
             << "  --version             print the version\n\n"
-               "Exit codes: 0 success, 1 run failed (numerical), 2 bad input (case, mesh, flag), 3 I/O.\n"
+               "Exit codes: 0 success, 1 run failed (numerical), 2 bad input (case, mesh, flag), 3 I/O,\n"
+               "4 interrupted (a signal; `run --resume` or the same sweep continues it).\n"
                "More: fickcast VERB --help\n";
         return out.str();
       }

@@ -15,6 +15,7 @@ namespace fickcast
     std::vector<std::string> vary;      ///< sweep --vary key=values, as sweep.vary.key=values overrides
     std::string output;                 ///< --output DIR
     bool overwrite = false;
+    bool resume = false;      ///< --resume: continue an interrupted run from its checkpoint
     bool allow_large = false; ///< --allow-large: no size limits (numerics/run_size.h)
     bool quiet = false;
     bool help = false;

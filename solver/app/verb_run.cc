@@ -9,6 +9,7 @@
 
 #include <deal.II/base/mpi.h>
 
+#include <cmath>
 #include <cstdio>
 #include <iostream>
 
@@ -24,10 +25,23 @@ namespace fickcast
     RunOptions options;
     options.folder = invocation.output;
     options.overwrite = invocation.overwrite;
+    options.checkpoints = true;
+    options.resume = invocation.resume;
     options.progress = [&progress](double t, double end, unsigned int step) { progress.update(t, end, step); };
     const RunOutcome outcome = run_case(description, options, communicator);
     progress.clear();
     const RunRecord &r = outcome.record;
+    if (r.status == "interrupted")
+      {
+        // No numbers: an interrupted run has no results, only a state to continue from.
+        if (root)
+          std::cerr << "fickcast: interrupted at t = " << units.time(r.end_time) << " (step " << r.steps_accepted
+                    << "); no results written\n"
+                    << "  its state is kept in " << outcome.folder
+                    << "; the same command with --resume continues it (the same --set values, --output and "
+                       "number of ranks)\n";
+        return exit_interrupted;
+      }
     const int run_code = r.status == "completed" ? exit_success : exit_run_failed;
     if (!root)
       return run_code;
@@ -45,6 +59,9 @@ namespace fickcast
                 r.degree, r.linear_solver.c_str(), r.ranks, r.ranks > 1 ? "s" : "");
     std::printf("  %u steps (%u rejected) to t = %s in %.2f s\n", r.steps_accepted, r.steps_rejected,
                 units.time(r.end_time).c_str(), r.wall_time);
+    if (std::isfinite(r.resumed_at))
+      std::printf("  resumed from its checkpoint at t = %s (the time above is this part's)\n",
+                  units.time(r.resumed_at).c_str());
     for (const auto &named_point : r.points)
       {
         if (std::isfinite(named_point.threshold))

@@ -119,7 +119,7 @@ namespace fickcast
                        "fickcast: sweep interrupted: %zu cases finished in this run; run the same command again to "
                        "compute the rest (finished cases are kept)\n",
                        totals.computed);
-        return exit_run_failed;
+        return exit_interrupted;
       }
     std::size_t not_completed = 0;
     for (const auto &[status, count] : totals.table.statuses)

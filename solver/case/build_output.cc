@@ -79,6 +79,7 @@ namespace fickcast
     if (c.output.folder.empty())
       c.output.folder = "results/" + std::filesystem::path(reader.settings.file).stem().string();
     c.output.fields_every = reader.quantity("output", "fields_every", 0);
+    c.output.checkpoint_every = reader.quantity("output", "checkpoint_every", 600);
     if (const auto *times = reader.get("output", "times"))
       {
         for (const double t : times->list)

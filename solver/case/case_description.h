@@ -5,6 +5,7 @@
 #include "case/time_table.h"
 
 #include <array>
+#include <cstdint>
 #include <optional>
 #include <string>
 #include <vector>
@@ -236,9 +237,10 @@ namespace fickcast
 
   struct OutputSpec
   {
-    std::string folder;        ///< results folder, relative to the working directory
-    std::vector<double> times; ///< s, extra output times
-    double fields_every = 0;   ///< s; 0: only the end (and listed times)
+    std::string folder;            ///< results folder, relative to the working directory
+    std::vector<double> times;     ///< s, extra output times
+    double fields_every = 0;       ///< s; 0: only the end (and listed times)
+    double checkpoint_every = 600; ///< s of wall-clock time between checkpoints; 0: after every step
     bool write_fields = true;
     std::vector<NamedPointSpec> points;
     std::vector<LevelSpec> thresholds;
@@ -318,6 +320,9 @@ namespace fickcast
   {
     std::string title;
     std::string file; ///< the case file it came from
+    /// Of the case's entries after --set values, except where results go and checkpoint timing:
+    /// a resumed run continues only the same case.
+    std::uint64_t fingerprint = 0;
     unsigned int dimension = 1;
     GeometrySpec geometry;
     std::vector<RegionSpec> regions;

@@ -194,4 +194,27 @@ namespace fickcast
       }
     return document;
   }
+
+  std::uint64_t fingerprint(const std::vector<IniEntry> &entries, const std::vector<std::string> &ignored)
+  {
+    std::uint64_t hash = 1469598103934665603ull;
+    const auto add = [&hash](const std::string &text) {
+      for (const unsigned char ch : text)
+        {
+          hash ^= ch;
+          hash *= 1099511628211ull;
+        }
+      hash ^= 0xff; // a separator no text holds
+      hash *= 1099511628211ull;
+    };
+    for (const auto &entry : entries)
+      {
+        const std::string key = entry.full_key();
+        if (std::find(ignored.begin(), ignored.end(), key) != ignored.end())
+          continue;
+        add(key);
+        add(entry.value);
+      }
+    return hash;
+  }
 } // namespace fickcast

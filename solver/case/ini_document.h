@@ -1,6 +1,7 @@
 // The raw content of an INI-style case file, with the line of every key.
 #pragma once
 
+#include <cstdint>
 #include <string>
 #include <vector>
 
@@ -53,4 +54,8 @@ namespace fickcast
     std::vector<std::string> sections_;
     std::vector<unsigned int> section_lines_;
   };
+
+  /// A hash (FNV-1a) of @p entries' keys and values in order, leaving out the keys in @p ignored
+  /// (`section.key`): the same case gives the same number, a changed value another.
+  std::uint64_t fingerprint(const std::vector<IniEntry> &entries, const std::vector<std::string> &ignored);
 } // namespace fickcast

@@ -262,6 +262,10 @@ namespace fickcast
       s.push_back(
         positive(make("output", "times", K::quantity_list, Dim::time, "", "extra output times, comma separated")));
       s.push_back(make("output", "fields", K::flag, Dim::none, "true", "write VTU fields"));
+      s.push_back(bounded(make("output", "checkpoint_every", K::quantity, Dim::time, "600 s",
+                               "wall-clock time between checkpoints, from which `fickcast run --resume` continues an "
+                               "interrupted run; 0 s: after every step"),
+                          0, false));
       s.push_back(make("output", "point.*", K::point, Dim::length, "",
                        "a named point: one coordinate per axis, each with its unit; the last may be 'start of "
                        "LAYER' or 'end of LAYER' (follows the layer when its thickness changes); '... in REGION' "

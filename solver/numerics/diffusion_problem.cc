@@ -240,6 +240,7 @@ namespace fickcast
     setup_fixed_unknowns();
     assemble_constant_parts();
     system_key_.clear();
+    hierarchy_key_.clear(); // a new stage's matrix gets its own preconditioner
     dynamic_valid_ = false;
   }
 
@@ -581,6 +582,57 @@ namespace fickcast
       }
     if (dispersed_)
       reserve_ = reserve_trial_;
+  }
+
+  template <int dim>
+  ProblemState DiffusionProblem<dim>::saved_state() const
+  {
+    ProblemState state;
+    state.stage = stage_;
+    state.bath_value = bath_value_;
+    state.bath_value_prev = bath_value_prev_;
+    state.bath_trial = bath_trial_;
+    if (dispersed_)
+      state.reserve.assign(reserve_.begin(), reserve_.end());
+    state.preconditioner_key = hierarchy_key_;
+    state.matrix_setups = n_matrix_setups();
+    return state;
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::restore(const ProblemState &state)
+  {
+    const auto local = static_cast<std::size_t>(reserve_.end() - reserve_.begin());
+    if (state.stage >= description_.stages.size() || state.bath_value.size() != bath_value_.size() ||
+        state.bath_value_prev.size() != bath_value_.size() || state.bath_trial.size() != bath_value_.size() ||
+        (dispersed_ && state.reserve.size() != local))
+      throw IoError("the checkpoint's stage, baths or undissolved reserve do not fit this case's mesh");
+    if (state.stage != stage_)
+      set_stage(state.stage);
+    bath_value_ = state.bath_value;
+    bath_value_prev_ = state.bath_value_prev;
+    bath_trial_ = state.bath_trial;
+    if (dispersed_)
+      {
+        std::copy(state.reserve.begin(), state.reserve.end(), reserve_.begin());
+        reserve_trial_ = reserve_;
+      }
+    // The preconditioner (or factorisation) is kept across steps (build_system): rebuild it on the
+    // very matrix it was built on, so the solves repeat the uninterrupted run to the last bit.
+    // Keys with a part assembled anew (dynamic, Jacobian) never keep one.
+    const std::vector<double> &key = state.preconditioner_key;
+    std::size_t units = 0;
+    for (const int index : unit_index_)
+      units += index >= 0 ? 1 : 0;
+    if (!key.empty() && dynamic_matrices_.full.m() == 0 && key.back() == 0.0 && key.size() == units + 3)
+      {
+        compose_system(key);
+        solver_->set_matrix(system_, 0, true);
+        hierarchy_key_ = key;
+        system_key_ = key;
+      }
+    const unsigned int now = solver_->n_setups();
+    setups_before_ = state.matrix_setups > now ? state.matrix_setups - now : 0;
   }
 
   template <int dim>

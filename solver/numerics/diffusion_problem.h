@@ -59,6 +59,16 @@ namespace fickcast
     double decay = 0;                    ///< first-order decay (a loss)
   };
 
+  /// What a checkpoint keeps of the problem besides the state u (plain data, this rank's part).
+  struct ProblemState
+  {
+    unsigned int stage = 0;
+    std::vector<double> bath_value, bath_value_prev, bath_trial; ///< per boundary id
+    std::vector<double> reserve;                                 ///< owned entries of the reserve
+    std::vector<double> preconditioner_key; ///< coefficients of the matrix the preconditioner was built on
+    unsigned int matrix_setups = 0;
+  };
+
   /**
    * Owns the mesh, the finite element space and the operators of the model of DESIGN.md
    * section 2 in the capacity/conductance form. The unknown u is the reference-phase
@@ -104,7 +114,7 @@ namespace fickcast
     unsigned int degree() const { return fe_.degree; }
     bool uses_direct_solver() const;
     PhaseTimer &timer() const { return timer_; }
-    unsigned int n_matrix_setups() const { return solver_ ? solver_->n_setups() : 0; }
+    unsigned int n_matrix_setups() const { return (solver_ ? solver_->n_setups() : 0) + setups_before_; }
 
     // --- the model
     /// The material of each region (index = material id).
@@ -156,6 +166,13 @@ namespace fickcast
     StepResult advance(const StepPlan &plan, const Vector &u0, const Vector *u_prev, Vector &u1);
     /// Makes the last step's bath values and reserves the current ones.
     void accept_step();
+    /// The stage, baths, reserve and preconditioner basis after the last accepted step.
+    ProblemState saved_state() const;
+    /// Continues from @p state (saved_state() of the same case on the same rank): sets the stage,
+    /// the baths and the reserve, and rebuilds the preconditioner on the matrix it was built on,
+    /// so that the following steps repeat the uninterrupted run's arithmetic. Call after
+    /// initial_state(). Throws IoError if the state does not fit this problem.
+    void restore(const ProblemState &state);
 
     // --- observables (collective)
     /// Dissolved and sorbed amount in each region (index = material id), int C u.
@@ -195,6 +212,8 @@ namespace fickcast
 
     // Steps (step_solve.cc).
     void build_system(const StepPlan &plan, bool jacobian);
+    /// system_ = key[0] M + key[1] L_static + key[2 + j] L_unit_j (the key build_system makes).
+    void compose_system(const std::vector<double> &key);
     void apply_frozen(double t, const Vector &x, Vector &out) const;
     void solve_fixed(const StepPlan &plan, const Vector &rhs, Vector &u1, Vector &rhs_used, StepResult &result);
     void newton(const StepPlan &plan, const Vector &rhs, Vector &u1, StepResult &result);
@@ -254,6 +273,7 @@ namespace fickcast
     std::vector<dealii::types::global_dof_index> depleted_; ///< reserve ran out in the last step
 
     std::unique_ptr<LinearSolver> solver_;
+    unsigned int setups_before_ = 0; ///< matrix setups of the run before a resume
     mutable std::string bad_coefficient_;
     mutable std::string non_finite_; ///< first non-finite expression value (Material, BoundaryCondition)
     mutable PhaseTimer timer_;

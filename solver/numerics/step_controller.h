@@ -28,6 +28,8 @@ namespace fickcast
     /// Accepts without an estimate (first step, fixed mode).
     void accept_unjudged(double dt, bool shortened);
     double proposal() const { return proposal_; }
+    /// Continues with the proposal a checkpoint recorded (proposal()).
+    void restore_proposal(const double proposal) { proposal_ = proposal; }
     /// Smallest step allowed before the run is declared failed.
     double min_step() const { return min_step_; }
 

@@ -29,13 +29,7 @@ namespace fickcast
     if (key == system_key_)
       return;
     PhaseTimer::Scope scope(timer_, "matrix setup");
-    system_.copy_from(mass_.constrained);
-    system_ *= plan.a0;
-    system_.add(plan.w1, static_.constrained);
-    for (unsigned int r = 0; r < unit_index_.size(); ++r)
-      if (unit_index_[r] >= 0)
-        system_.add(plan.w1 * materials_[r].diffusivity(0, 0, 0, plan.t1, 0),
-                    unit_[static_cast<std::size_t>(unit_index_[r])].constrained);
+    compose_system(key);
     if (dynamic_matrices_.full.m() != 0)
       system_.add(plan.w1, dynamic_matrices_.constrained);
 
@@ -64,6 +58,18 @@ namespace fickcast
     if (solver_->n_setups() != before)
       hierarchy_key_ = key;
     system_key_ = key;
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::compose_system(const std::vector<double> &key)
+  {
+    system_.copy_from(mass_.constrained);
+    system_ *= key[0];
+    system_.add(key[1], static_.constrained);
+    std::size_t next = 2;
+    for (unsigned int r = 0; r < unit_index_.size(); ++r)
+      if (unit_index_[r] >= 0)
+        system_.add(key[next++], unit_[static_cast<std::size_t>(unit_index_[r])].constrained);
   }
 
   template <int dim>
@@ -421,4 +427,7 @@ namespace fickcast
                                                    const DiffusionProblem<2>::Vector *, DiffusionProblem<2>::Vector &);
   template StepResult DiffusionProblem<3>::advance(const StepPlan &, const DiffusionProblem<3>::Vector &,
                                                    const DiffusionProblem<3>::Vector *, DiffusionProblem<3>::Vector &);
+  template void DiffusionProblem<1>::compose_system(const std::vector<double> &);
+  template void DiffusionProblem<2>::compose_system(const std::vector<double> &);
+  template void DiffusionProblem<3>::compose_system(const std::vector<double> &);
 } // namespace fickcast

@@ -6,6 +6,7 @@
 #include <cmath>
 #include <cstdio>
 #include <cstring>
+#include <filesystem>
 #include <stdexcept>
 
 namespace fickcast
@@ -68,6 +69,37 @@ namespace fickcast
     if (!stream_)
       throw IoError("writing " + path_ + " failed: " + std::strerror(errno) +
                     " (a full disk or a folder that is not writable)");
+  }
+
+  std::uint64_t CsvWriter::flush()
+  {
+    stream_.flush();
+    if (!stream_)
+      throw IoError("writing " + path_ + " failed: " + std::strerror(errno) +
+                    " (a full disk or a folder that is not writable)");
+    std::error_code error;
+    const auto size = std::filesystem::file_size(path_, error);
+    if (error)
+      throw IoError("cannot read the size of " + path_ + ": " + error.message());
+    return size;
+  }
+
+  void CsvWriter::reopen(const std::string &path, const std::size_t n_columns, const std::uint64_t size)
+  {
+    path_ = path;
+    n_columns_ = n_columns;
+    std::error_code error;
+    const auto present = std::filesystem::file_size(path, error);
+    if (error || present < size)
+      throw IoError("cannot resume " + path + ": it holds " +
+                    (error ? std::string("nothing") : std::to_string(present)) +
+                    " bytes, the checkpoint expects at least " + std::to_string(size));
+    std::filesystem::resize_file(path, size, error);
+    if (error)
+      throw IoError("cannot resume " + path + ": " + error.message());
+    stream_.open(path, std::ios::app);
+    if (!stream_)
+      throw IoError("cannot write " + path);
   }
 
   void CsvWriter::close()

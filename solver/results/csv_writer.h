@@ -1,6 +1,7 @@
 // A CSV table written row by row: header with units, SI values, nothing else.
 #pragma once
 
+#include <cstdint>
 #include <fstream>
 #include <string>
 #include <vector>
@@ -31,6 +32,12 @@ namespace fickcast
     /// A number as write() formats it (12 significant digits; empty for NaN).
     static std::string format(double value);
     void close();
+    /// Flushes the rows written so far and returns the file's size in bytes: the point a resumed
+    /// run continues from (reopen). Throws IoError.
+    std::uint64_t flush();
+    /// Opens @p path, cut to @p size bytes (what flush() returned), for appending rows of
+    /// @p n_columns: a run resumed from a checkpoint. Throws IoError.
+    void reopen(const std::string &path, std::size_t n_columns, std::uint64_t size);
     bool is_open() const { return stream_.is_open(); }
     std::size_t n_columns() const { return n_columns_; }
 

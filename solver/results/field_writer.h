@@ -28,6 +28,10 @@ namespace fickcast
     void write(const Vector &u, double t);
     /// Writes the PVD index (rank 0); call after the last write().
     void finish() const;
+    /// The files written so far with their times (for a checkpoint).
+    const std::vector<std::pair<double, std::string>> &records() const { return records_; }
+    /// Continues a resumed run after the files in @p records (later ones are written anew).
+    void restore(const std::vector<std::pair<double, std::string>> &records) { records_ = records; }
 
   private:
     FieldView<dim> field_;

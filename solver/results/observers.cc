@@ -1,5 +1,6 @@
 #include "results/observers.h"
 
+#include "case/input_error.h"
 #include "results/moments.h"
 
 #include <deal.II/base/mpi.h>
@@ -13,7 +14,7 @@ namespace fickcast
 
   template <int dim>
   Observers<dim>::Observers(const FieldView<dim> &field, const CaseDescription &description, const std::string &folder,
-                            const double initial_amount)
+                            const double initial_amount, const bool resume)
     : field_(field)
     , c_(description)
     , root_(Utilities::MPI::this_mpi_process(field.communicator) == 0)
@@ -76,7 +77,10 @@ namespace fickcast
         for (int d = 0; d < dim; ++d)
           columns.push_back({axes[d], "m"});
         columns.push_back({"concentration", c_.units.concentration});
-        profiles_.open(folder + "/profiles.csv", columns);
+        profiles_path_ = folder + "/profiles.csv";
+        profiles_columns_ = columns.size();
+        if (!resume)
+          profiles_.open(profiles_path_, columns);
       }
   }
 
@@ -227,6 +231,52 @@ namespace fickcast
       }
     if (c_.output.moments)
       moments_.push_back(spread_moments(field_, ghosted, t));
+  }
+
+  template <int dim>
+  ObserverState Observers<dim>::saved_state()
+  {
+    ObserverState state;
+    state.point_values = point_values_;
+    for (const auto &p : point_records_)
+      state.threshold_times.push_back(p.threshold_time);
+    for (const auto &d : depths_)
+      {
+        state.depth_times.push_back(d.times);
+        state.depth_values.push_back(d.depths);
+      }
+    state.last_released = last_released_;
+    for (const auto &r : releases_)
+      state.release_times.push_back(r.time);
+    state.moments = moments_;
+    if (profiles_.is_open())
+      state.profiles_size = profiles_.flush();
+    return state;
+  }
+
+  template <int dim>
+  void Observers<dim>::restore(const ObserverState &state)
+  {
+    if (state.point_values.size() != point_values_.size() && !point_values_.empty())
+      throw IoError("the checkpoint holds " + std::to_string(state.point_values.size()) + " points, the case " +
+                    std::to_string(point_records_.size()));
+    if (state.threshold_times.size() != point_records_.size() || state.depth_times.size() != depths_.size() ||
+        state.depth_values.size() != depths_.size() || state.release_times.size() != releases_.size())
+      throw IoError("the checkpoint's points, depths or release levels do not match the case");
+    point_values_ = state.point_values;
+    for (std::size_t k = 0; k < point_records_.size(); ++k)
+      point_records_[k].threshold_time = state.threshold_times[k];
+    for (std::size_t k = 0; k < depths_.size(); ++k)
+      {
+        depths_[k].times = state.depth_times[k];
+        depths_[k].depths = state.depth_values[k];
+      }
+    last_released_ = state.last_released;
+    for (std::size_t k = 0; k < releases_.size(); ++k)
+      releases_[k].time = state.release_times[k];
+    moments_ = state.moments;
+    if (root_ && !profiles_path_.empty())
+      profiles_.reopen(profiles_path_, profiles_columns_, state.profiles_size);
   }
 
   template <int dim>

@@ -7,12 +7,25 @@
 #include "results/point_evaluator.h"
 #include "results/run_record.h"
 
+#include <cstdint>
 #include <memory>
 #include <string>
 #include <vector>
 
 namespace fickcast
 {
+  /// What the observers have seen so far, for a checkpoint (plain data).
+  struct ObserverState
+  {
+    std::vector<double> point_values;
+    std::vector<double> threshold_times;
+    std::vector<std::vector<double>> depth_times, depth_values;
+    double last_released = 0;
+    std::vector<double> release_times;
+    std::vector<MomentsRecord> moments;
+    std::uint64_t profiles_size = 0; ///< bytes of profiles.csv written (rank 0)
+  };
+
   /**
    * Observes the state after every accepted step and at every output time, and keeps the event
    * results in a RunRecord. Events are interpolated linearly within the step that crosses them
@@ -26,8 +39,14 @@ namespace fickcast
 
     /// Locates points and line points (InputError if outside the mesh); opens profiles.csv in
     /// @p folder on rank 0 when there are lines. @p initial_amount is the content at t = 0.
+    /// With @p resume, profiles.csv is left as it is until restore().
     Observers(const FieldView<dim> &field, const CaseDescription &description, const std::string &folder,
-              double initial_amount);
+              double initial_amount, bool resume = false);
+    /// Everything seen so far; flushes profiles.csv (rank 0).
+    ObserverState saved_state();
+    /// Continues from @p state (what saved_state() gave on the same rank): profiles.csv is cut
+    /// to what it held then and appended to. Throws IoError.
+    void restore(const ObserverState &state);
 
     /// Point values at the last observed state (SI concentrations).
     const std::vector<double> &point_values() const { return point_values_; }
@@ -71,6 +90,8 @@ namespace fickcast
     double last_released_ = 0;
     std::vector<ReleaseRecord> releases_;
     std::vector<MomentsRecord> moments_;
+    std::string profiles_path_;
+    std::size_t profiles_columns_ = 0;
     CsvWriter profiles_;
   };
 } // namespace fickcast

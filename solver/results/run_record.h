@@ -62,7 +62,8 @@ namespace fickcast
 
   struct RunRecord
   {
-    std::string status = "completed"; ///< completed, failed
+    std::string status = "completed"; ///< completed, failed, interrupted (then no results are written)
+    double resumed_at = not_a_number; ///< s: where a resumed run took up its checkpoint
     std::string message;              ///< why it failed, if it did
     unsigned int dimension = 1;
     unsigned long cells = 0;

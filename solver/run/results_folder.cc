@@ -111,7 +111,7 @@ namespace fickcast
     return stale;
   }
 
-  ResultsFolder::ResultsFolder(const std::string &target, const bool overwrite)
+  ResultsFolder::ResultsFolder(const std::string &target, const bool overwrite, const Progress &resume)
     : target_(fs::path(target).lexically_normal().string())
     , overwrite_(overwrite)
   {
@@ -119,21 +119,52 @@ namespace fickcast
       target_.pop_back();
     if (target_.empty() || target_ == ".")
       check_replaceable(fs::current_path().string(), "output.folder");
+    std::error_code error;
+    if (resume && fs::exists(target_, error))
+      throw InputError(target_, "--resume",
+                       "expected an interrupted run to continue, found a finished results folder (--overwrite "
+                       "runs it again)");
     check_results_target(target_, overwrite);
+    partial_ = target_ + ".partial-" + std::to_string(::getpid());
+
+    // With --resume: the stale partial folder that got furthest is taken over.
+    std::string taken;
+    if (resume)
+      {
+        long best = -1;
+        for (const std::string &stale : stale_partials(target_))
+          if (fs::exists(fs::path(stale) / results_marker, error))
+            if (const long step = resume(stale); step > best)
+              {
+                best = step;
+                taken = stale;
+              }
+      }
     for (const std::string &stale : stale_partials(target_))
       {
-        std::error_code error;
-        if (overwrite && fs::exists(fs::path(stale) / results_marker, error))
+        if (stale == taken)
+          continue;
+        if ((overwrite || resume) && fs::exists(fs::path(stale) / results_marker, error))
           {
             fs::remove_all(stale, error);
             std::cerr << "fickcast: removed " << stale << ", left by an interrupted run\n";
           }
         else
           std::cerr << "fickcast: note: " << stale
-                    << " is left by an interrupted run (its process no longer runs); --overwrite removes it\n";
+                    << " is left by an interrupted run (its process no longer runs); --overwrite removes it, "
+                       "--resume continues it\n";
       }
-    partial_ = target_ + ".partial-" + std::to_string(::getpid());
-    std::error_code error;
+    if (!taken.empty())
+      {
+        fs::remove_all(partial_, error);
+        fs::rename(taken, partial_, error);
+        if (error)
+          throw IoError("cannot take over " + taken + " to resume it: " + error.message());
+        resumed_ = true;
+        return;
+      }
+    if (resume)
+      std::cerr << "fickcast: note: no interrupted run of " << target_ << " to resume; starting at t = 0\n";
     fs::remove_all(partial_, error);
     fs::create_directories(partial_, error);
     if (error)
@@ -143,7 +174,8 @@ namespace fickcast
 
   ResultsFolder::~ResultsFolder()
   {
-    if (!committed_)
+    // A resumed run that stops on an error keeps its state for the next --resume.
+    if (!committed_ && !kept_ && !resumed_)
       {
         std::error_code error;
         fs::remove_all(partial_, error);

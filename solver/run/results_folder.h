@@ -1,6 +1,7 @@
 // A results folder that appears complete or not at all.
 #pragma once
 
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -9,7 +10,8 @@ namespace fickcast
   /**
    * Creates `<target>.partial-<pid>` next to the target and, on commit(), renames it to the
    * target (replacing an existing target only when overwriting was allowed). If commit() is
-   * never called, the destructor removes the partial folder: results are complete or absent.
+   * never called, the destructor removes the partial folder (results are complete or absent),
+   * unless it is kept for a resume (keep(), or a resumed run that stopped on an error).
    * The partial folder holds the results marker from the start. Partial folders of the same
    * target left by dead processes are named on stderr, and removed when overwriting.
    * Only the process that creates it touches the file system (rank 0 in an MPI run).
@@ -17,9 +19,15 @@ namespace fickcast
   class ResultsFolder
   {
   public:
+    /// Tells how far the run in a partial folder got: its newest checkpoint's step, or -1.
+    using Progress = std::function<long(const std::string &)>;
+
     /// Checks the target and creates the partial folder. Throws InputError if the target exists
     /// and @p overwrite is false (exit code 2), IoError if the folder cannot be created.
-    ResultsFolder(const std::string &target, bool overwrite);
+    /// With @p resume, the partial folder of a dead process that got furthest (by @p resume) is
+    /// taken over instead of a new one (resumed() says so) and the other stale ones are removed;
+    /// a target that exists already is refused (the run finished).
+    ResultsFolder(const std::string &target, bool overwrite, const Progress &resume = {});
     ~ResultsFolder();
     ResultsFolder(const ResultsFolder &) = delete;
     ResultsFolder &operator=(const ResultsFolder &) = delete;
@@ -30,12 +38,18 @@ namespace fickcast
 
     /// Moves the partial folder into place. Throws IoError.
     void commit();
+    /// Leaves the partial folder where it is for a later --resume (an interrupted run).
+    void keep() { kept_ = true; }
+    /// Whether the partial folder was taken over from an interrupted run.
+    bool resumed() const { return resumed_; }
 
   private:
     std::string target_;
     std::string partial_;
     bool overwrite_;
     bool committed_ = false;
+    bool kept_ = false;
+    bool resumed_ = false;
   };
 
   /// The file fickcast writes into every results, study, sizing and verification folder it

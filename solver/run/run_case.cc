@@ -4,6 +4,7 @@
 #include "numerics/collective.h"
 #include "numerics/run_size.h"
 #include "results/summary.h"
+#include "run/checkpoint.h"
 #include "run/results_folder.h"
 
 #include <deal.II/base/mpi.h>
@@ -27,15 +28,24 @@ namespace fickcast
     check_run_size(description, estimate_run_size(description), installed_memory());
     std::unique_ptr<ResultsFolder> folder;
     std::string path;
+    bool resumed = false;
     collectively(communicator, [&] {
       if (rank == 0)
         {
-          folder = std::make_unique<ResultsFolder>(target, options.overwrite);
+          folder = std::make_unique<ResultsFolder>(target, options.overwrite,
+                                                   options.resume ? ResultsFolder::Progress(latest_checkpoint_step)
+                                                                  : ResultsFolder::Progress());
           std::filesystem::create_directories(folder->path() + "/fields");
           path = folder->path();
+          resumed = folder->resumed();
         }
     });
     path = Utilities::MPI::broadcast(communicator, path, 0);
+    resumed = Utilities::MPI::broadcast(communicator, resumed, 0);
+    CheckpointPolicy checkpoints;
+    checkpoints.write = options.checkpoints;
+    checkpoints.every = description.output.checkpoint_every;
+    checkpoints.resume = resumed;
 
     // 1-D: rank 0 alone; 2-D and 3-D: everybody.
     MPI_Comm solve_communicator = communicator;
@@ -54,19 +64,28 @@ namespace fickcast
       switch (description.dimension)
         {
           case 1:
-            outcome.record = simulate<1>(description, solve_communicator, path, progress);
+            outcome.record = simulate<1>(description, solve_communicator, path, progress, {}, checkpoints);
             break;
           case 2:
-            outcome.record = simulate<2>(description, solve_communicator, path, progress);
+            outcome.record = simulate<2>(description, solve_communicator, path, progress, {}, checkpoints);
             break;
           default:
-            outcome.record = simulate<3>(description, solve_communicator, path, progress);
+            outcome.record = simulate<3>(description, solve_communicator, path, progress, {}, checkpoints);
             break;
         }
     });
     if (split != MPI_COMM_NULL)
       MPI_Comm_free(&split);
 
+    // 1-D: the other ranks learn the status from rank 0.
+    outcome.record.status = Utilities::MPI::broadcast(communicator, outcome.record.status, 0);
+    if (outcome.record.status == "interrupted")
+      {
+        if (rank == 0 && options.checkpoints)
+          folder->keep();
+        outcome.folder = path;
+        return outcome;
+      }
     collectively(communicator, [&] {
       if (rank != 0)
         return;

@@ -7,6 +7,7 @@
 #include "results/csv_writer.h"
 #include "results/field_writer.h"
 #include "results/observers.h"
+#include "run/checkpoint.h"
 #include "run/field_view_of.h"
 
 #include <deal.II/base/mpi.h>
@@ -64,6 +65,22 @@ namespace fickcast
       return buffer;
     }
 
+    /// The entries of @p v this rank owns, for a checkpoint.
+    template <typename Vector>
+    std::vector<double> owned_values(const Vector &v)
+    {
+      return std::vector<double>(v.begin(), v.end());
+    }
+
+    /// Sets the entries of @p v this rank owns from a checkpoint.
+    template <typename Vector>
+    void set_owned_values(Vector &v, const std::vector<double> &values)
+    {
+      if (values.size() != static_cast<std::size_t>(v.end() - v.begin()))
+        throw IoError("the checkpoint's state does not fit this rank's part of the mesh (a damaged file)");
+      std::copy(values.begin(), values.end(), v.begin());
+    }
+
     /// One remembered state: clock reading, time and u.
     template <typename Vector>
     struct Snapshot
@@ -86,7 +103,8 @@ namespace fickcast
 
   template <int dim>
   RunRecord simulate(const CaseDescription &c, MPI_Comm communicator, const std::string &folder,
-                     const ProgressCallback &progress, const StateObserver<dim> &observer)
+                     const ProgressCallback &progress, const StateObserver<dim> &observer,
+                     const CheckpointPolicy &checkpoints)
   {
     using Vector = typename DiffusionProblem<dim>::Vector;
     const auto wall_start = std::chrono::steady_clock::now();
@@ -95,6 +113,21 @@ namespace fickcast
     DiffusionProblem<dim> problem(c, communicator);
     problem.setup();
     const FieldView<dim> field = field_view_of(problem);
+
+    // Checkpoints: this run's identity, and the newest checkpoint if the run resumes.
+    CheckpointStore store(folder, communicator);
+    CheckpointIdentity identity;
+    identity.fingerprint = c.fingerprint;
+    identity.dimension = dim;
+    identity.ranks = Utilities::MPI::n_mpi_processes(communicator);
+    identity.unknowns = problem.n_dofs();
+    {
+      const Vector probe = problem.make_vector();
+      identity.local_unknowns = static_cast<std::uint64_t>(probe.end() - probe.begin());
+    }
+    std::optional<StateArchive> resumed;
+    if (checkpoints.resume)
+      resumed = store.read_latest(identity);
 
     RunRecord record;
     record.dimension = dim;
@@ -163,7 +196,7 @@ namespace fickcast
     if (problem.is_nonlinear())
       columns.push_back({"nonlinear_iterations", ""});
     CsvWriter series;
-    if (root)
+    if (root && !resumed)
       series.open(folder + "/series.csv", columns);
 
     std::unique_ptr<FieldWriter<dim>> fields;
@@ -191,14 +224,15 @@ namespace fickcast
     for (const double a : record.initial_region_amounts)
       reference_amount += std::abs(a);
 
-    Observers<dim> observers(field, c, folder, reference_amount);
+    Observers<dim> observers(field, c, folder, reference_amount, resumed.has_value());
     auto remaining = [&problem](const Vector &state) {
       double total = problem.undissolved_amount();
       for (const double a : problem.region_amounts(state))
         total += a;
       return total;
     };
-    observers.start(problem.make_ghosted(u), remaining(u));
+    if (!resumed)
+      observers.start(problem.make_ghosted(u), remaining(u));
     std::vector<std::pair<unsigned int, std::vector<std::pair<double, double>>>> lag_history;
     for (const auto &[name, boundary] : c.output.time_lags)
       {
@@ -295,23 +329,150 @@ namespace fickcast
     double previous_ds = 0;
     Vector u_new = problem.make_vector();
 
+    // Everything the loop carries from step to step, in one order for writing and reading.
+    auto save_checkpoint = [&]() {
+      PhaseTimer::Scope scope(problem.timer(), "checkpoint");
+      StateArchive a;
+      a.put_count(root ? series.flush() : 0);
+      put(a, observers.saved_state());
+      for (const std::uint64_t n :
+           {std::uint64_t(step), std::uint64_t(steps_since_restart), std::uint64_t(next_hard),
+            std::uint64_t(next_output), std::uint64_t(last_iterations), std::uint64_t(last_nonlinear),
+            std::uint64_t(record.steps_accepted), std::uint64_t(record.steps_rejected),
+            std::uint64_t(record.linear_iterations), std::uint64_t(record.nonlinear_iterations)})
+        a.put_count(n);
+      for (const double x : {t, s, previous_ds, controller.proposal(), rates_old.source, rates_old.decay, source_total,
+                             decayed_total, balance})
+        a.put(x);
+      a.put(rates_old.boundary_inflow);
+      a.put(reaction_rate_old);
+      a.put(amounts_prev);
+      a.put(record.boundary_entered);
+      a.put(record.output_times);
+      a.put(owned_values(u));
+      a.put_count(history.size());
+      for (const auto &h : history)
+        {
+          a.put(h.clock);
+          a.put(h.time);
+          a.put(owned_values(h.state));
+        }
+      a.put_count(lag_history.size());
+      for (const auto &lag : lag_history)
+        {
+          std::vector<double> times, rates;
+          for (const auto &[when, rate] : lag.second)
+            {
+              times.push_back(when);
+              rates.push_back(rate);
+            }
+          a.put(times);
+          a.put(rates);
+        }
+      put(a, problem.saved_state());
+      const std::vector<std::pair<double, std::string>> none;
+      const auto &written = fields ? fields->records() : none;
+      a.put_count(written.size());
+      for (const auto &[when, name] : written)
+        {
+          a.put(when);
+          a.put(name);
+        }
+      store.write(step, identity, a);
+    };
+
+    // A resumed run takes all of it back and goes on from its step.
+    if (resumed)
+      {
+        StateArchive &a = *resumed;
+        const std::uint64_t series_size = a.get_count();
+        if (root)
+          series.reopen(folder + "/series.csv", columns.size(), series_size);
+        ObserverState seen;
+        get(a, seen);
+        observers.restore(seen);
+        step = static_cast<unsigned int>(a.get_count());
+        steps_since_restart = static_cast<unsigned int>(a.get_count());
+        next_hard = a.get_count();
+        next_output = a.get_count();
+        last_iterations = static_cast<unsigned int>(a.get_count());
+        last_nonlinear = static_cast<unsigned int>(a.get_count());
+        record.steps_accepted = static_cast<unsigned int>(a.get_count());
+        record.steps_rejected = static_cast<unsigned int>(a.get_count());
+        record.linear_iterations = a.get_count();
+        record.nonlinear_iterations = a.get_count();
+        t = a.get();
+        s = a.get();
+        previous_ds = a.get();
+        controller.restore_proposal(a.get());
+        rates_old.source = a.get();
+        rates_old.decay = a.get();
+        source_total = a.get();
+        decayed_total = a.get();
+        balance = a.get();
+        rates_old.boundary_inflow = a.get_values();
+        reaction_rate_old = a.get_values();
+        amounts_prev = a.get_values();
+        record.boundary_entered = a.get_values();
+        record.output_times = a.get_values();
+        set_owned_values(u, a.get_values());
+        const std::uint64_t kept = a.get_count();
+        if (kept > 3 || rates_old.boundary_inflow.size() != n_boundaries || reaction_rate_old.size() != n_boundaries ||
+            amounts_prev.size() != n_boundaries + 2 || record.boundary_entered.size() != n_boundaries ||
+            next_hard > hard.size() || next_output > outputs.size())
+          throw IoError("the checkpoint in " + folder + " does not fit this case (a damaged file)");
+        history.clear();
+        for (std::uint64_t k = 0; k < kept; ++k)
+          {
+            Snapshot<Vector> h{a.get(), a.get(), problem.make_vector()};
+            set_owned_values(h.state, a.get_values());
+            history.push_back(std::move(h));
+          }
+        if (a.get_count() != lag_history.size())
+          throw IoError("the checkpoint in " + folder + " does not fit this case's time lags");
+        for (auto &lag : lag_history)
+          {
+            const std::vector<double> times = a.get_values(), rates = a.get_values();
+            if (times.size() != rates.size())
+              throw IoError("the checkpoint in " + folder + " is damaged (time lags)");
+            lag.second.clear();
+            for (std::size_t k = 0; k < times.size(); ++k)
+              lag.second.emplace_back(times[k], rates[k]);
+          }
+        ProblemState state;
+        get(a, state);
+        problem.restore(state);
+        std::vector<std::pair<double, std::string>> written(a.get_count());
+        for (auto &[when, name] : written)
+          {
+            when = a.get();
+            name = a.get_text();
+          }
+        if (fields)
+          fields->restore(written);
+        if (!a.at_end())
+          throw IoError("the checkpoint in " + folder + " holds more than this version of fickcast reads");
+        record.resumed_at = t;
+        have_good_state = true;
+      }
+    auto last_checkpoint = std::chrono::steady_clock::now();
+
     try
       {
-        {
-          check_finite(u, 0, 0.0);
-          have_good_state = true;
-          std::vector<double> initial_rates = rates_old.boundary_inflow;
-          for (unsigned int b = 0; b < n_boundaries; ++b)
-            if (problem.boundary_kind(b) == BoundaryKind::concentration ||
-                problem.boundary_kind(b) == BoundaryKind::bath)
-              initial_rates[b] = not_a_number; // undefined at the instant the condition starts
-          write_row(0.0, 0, 0.0, u, initial_rates);
-          output_fields(0.0, u);
-        }
+        if (!resumed)
+          {
+            check_finite(u, 0, 0.0);
+            have_good_state = true;
+            std::vector<double> initial_rates = rates_old.boundary_inflow;
+            for (unsigned int b = 0; b < n_boundaries; ++b)
+              if (problem.boundary_kind(b) == BoundaryKind::concentration ||
+                  problem.boundary_kind(b) == BoundaryKind::bath)
+                initial_rates[b] = not_a_number; // undefined at the instant the condition starts
+            write_row(0.0, 0, 0.0, u, initial_rates);
+            output_fields(0.0, u);
+          }
         while (next_hard < hard.size())
           {
-            if (stop_requested())
-              throw RunFailure("interrupted by a signal at t = " + std::to_string(t) + " s");
             const double hard_t = hard[next_hard];
             const double hard_s = clock.tau(hard_t);
             double ds = 0, t1 = 0;
@@ -545,6 +706,26 @@ namespace fickcast
               }
             if (progress)
               progress(t, c.time.end, step);
+
+            // A stop request (on any rank) and a checkpoint that is due are decided together.
+            int flags[2] = {stop_requested() ? 1 : 0, 0};
+            if (checkpoints.write && next_hard < hard.size())
+              flags[1] = std::chrono::duration<double>(std::chrono::steady_clock::now() - last_checkpoint).count() >=
+                             checkpoints.every
+                           ? 1
+                           : 0;
+            MPI_Allreduce(MPI_IN_PLACE, flags, 2, MPI_INT, MPI_MAX, communicator);
+            if (checkpoints.write && (flags[0] || flags[1]))
+              {
+                save_checkpoint();
+                last_checkpoint = std::chrono::steady_clock::now();
+              }
+            if (flags[0] && next_hard < hard.size())
+              {
+                record.status = "interrupted";
+                record.message = "interrupted at t = " + time_text(t) + " s (step " + std::to_string(step) + ")";
+                break;
+              }
           }
       }
     catch (const RunFailure &failure)
@@ -555,10 +736,12 @@ namespace fickcast
           output_fields(t, u);
       }
 
-    if (fields)
+    if (fields && record.status != "interrupted")
       fields->finish();
     if (root)
       series.close();
+    if (record.status != "interrupted")
+      store.remove_all();
     record.end_time = t;
     record.final_region_amounts = problem.region_amounts(u);
     record.final_undissolved = problem.undissolved_amount();
@@ -605,9 +788,9 @@ namespace fickcast
   }
 
   template RunRecord simulate<1>(const CaseDescription &, MPI_Comm, const std::string &, const ProgressCallback &,
-                                 const StateObserver<1> &);
+                                 const StateObserver<1> &, const CheckpointPolicy &);
   template RunRecord simulate<2>(const CaseDescription &, MPI_Comm, const std::string &, const ProgressCallback &,
-                                 const StateObserver<2> &);
+                                 const StateObserver<2> &, const CheckpointPolicy &);
   template RunRecord simulate<3>(const CaseDescription &, MPI_Comm, const std::string &, const ProgressCallback &,
-                                 const StateObserver<3> &);
+                                 const StateObserver<3> &, const CheckpointPolicy &);
 } // namespace fickcast

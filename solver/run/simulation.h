@@ -28,18 +28,32 @@ namespace fickcast
   using StateObserver =
     std::function<void(double, const DiffusionProblem<dim> &, const dealii::TrilinosWrappers::MPI::Vector &)>;
 
+  /// Checkpoints of a run (run/checkpoint.h): whether to write them, and whether to continue
+  /// from the newest one in the folder.
+  struct CheckpointPolicy
+  {
+    bool write = false;
+    double every = 600; ///< s of wall-clock time; 0: after every step
+    bool resume = false;
+  };
+
   /**
    * Runs one case of dimension @p dim on @p communicator, writing series.csv and fields/ into
    * @p folder (which exists and is shared by all ranks). Returns what was found; a numerical
    * failure returns status "failed" with the last good state written. Throws InputError for
    * input that only shows during the run (a diffusivity expression going negative, a point
-   * outside a mesh).
+   * outside a mesh). A stop request (request_stop, on every rank or any) ends the run after the
+   * step under way with status "interrupted", a checkpoint written if @p checkpoints asks for
+   * them; with checkpoints.resume the run continues from the newest checkpoint in @p folder and
+   * repeats the uninterrupted run's arithmetic (same ranks), so it ends with the same numbers.
+   * A finished or failed run removes its checkpoints.
    */
   template <int dim>
   RunRecord simulate(const CaseDescription &description, MPI_Comm communicator, const std::string &folder,
-                     const ProgressCallback &progress, const StateObserver<dim> &observer = {});
+                     const ProgressCallback &progress, const StateObserver<dim> &observer = {},
+                     const CheckpointPolicy &checkpoints = {});
 
-  /// Set by a SIGINT/SIGTERM handler: the time loop stops at the next step, keeping what it has.
+  /// Set by a SIGINT/SIGTERM handler: the time loop stops after the step under way.
   void request_stop();
   bool stop_requested();
 } // namespace fickcast

@@ -94,7 +94,7 @@ done
 kill -TERM "$pid"
 wait "$pid"
 code=$?
-[ "$code" -eq 1 ] || fail "an interrupted sweep exits $code, expected 1"
+[ "$code" -eq 4 ] || fail "an interrupted sweep exits $code, expected 4 (interrupted)"
 grep -q "interrupted" first.txt || fail "the interrupted sweep does not say so"
 [ -f resumed/sweep.csv ] && fail "an interrupted sweep wrote sweep.csv"
 ls resumed/cases | grep -q partial && fail "an interrupted sweep left a partial case folder"

@@ -1,0 +1,154 @@
+#!/usr/bin/env bash
+# Restart (issue 14 item 6). A 1-D, a 2-D and a 3-D case on two ranks, each killed with -9 at a
+# random step and continued with `run --resume`, end with the uninterrupted run's numbers: every
+# value of summary.json, series.csv and profiles.csv within 1e-12 relative (compare_results.py; the
+# resumed run repeats the same arithmetic, so the differences seen are 0). SIGTERM gives exit 4,
+# "interrupted at t = ..." and no results, and --resume continues it. A resume that does not fit
+# (another case, other ranks, a damaged checkpoint, --overwrite beside it) is refused with one line.
+# Usage: restart_test.sh FICKCAST SOURCE_DIR SCRATCH_DIR MPIEXEC [MPI flags...]
+set -u
+fickcast=$1 source=$2 scratch=$3 mpiexec=$4
+shift 4
+mpi_flags=("$@")
+compare="$source/tests/regression/compare_results.py"
+rm -rf "$scratch" && mkdir -p "$scratch"
+cd "$scratch" || exit 1
+failures=0
+fail() { echo "FAIL: $*"; failures=$((failures + 1)); }
+on_ranks() { # ranks fickcast-arguments...
+  local ranks=$1; shift
+  "$mpiexec" -np "$ranks" "${mpi_flags[@]}" "$fickcast" "$@"
+}
+
+# descendants PID: every process started by PID, children first.
+descendants() {
+  local child
+  for child in $(pgrep -P "$1"); do
+    descendants "$child"
+    echo "$child"
+  done
+}
+
+# kill_at ROWS TARGET command...: starts the command and kills it (every process it started, the
+# ranks included) with -9 once TARGET.partial-*/series.csv holds ROWS lines. Prints the exit code.
+kill_at() {
+  local rows=$1 target=$2; shift 2
+  "$@" >/dev/null 2>&1 &
+  local pid=$! file tree
+  while kill -0 "$pid" 2>/dev/null; do
+    file=$(ls "$target".partial-*/series.csv 2>/dev/null | head -1)
+    if [ -n "$file" ] && [ "$(wc -l <"$file")" -ge "$rows" ]; then
+      tree=$(descendants "$pid")
+      # shellcheck disable=SC2086
+      kill -9 $tree "$pid" 2>/dev/null
+      break
+    fi
+    sleep 0.002
+  done
+  wait "$pid" 2>/dev/null
+  local code=$?
+  # The ranks are gone before anyone looks at their folder.
+  for _ in $(seq 1 500); do
+    # shellcheck disable=SC2086
+    kill -0 $tree 2>/dev/null || break
+    sleep 0.01
+  done
+  echo $code
+}
+
+# restart_case NAME RANKS CASE.ini: reference run, a run killed at a random step, the resume.
+restart_case() {
+  local name=$1 ranks=$2 case_file=$3
+  local settings=(--set "output.checkpoint_every=0 s")
+  on_ranks "$ranks" run "$case_file" "${settings[@]}" --output "$name.reference" --quiet ||
+    { fail "$name: the uninterrupted run failed"; return; }
+  local rows
+  rows=$(wc -l <"$name.reference/series.csv")
+  local attempt code at
+  for attempt in 1 2 3; do
+    rm -rf "$name".resumed*
+    # A random step between a tenth and seven tenths of the run (series.csv has one row per step).
+    at=$((rows / 10 + RANDOM % (rows * 6 / 10)))
+    code=$(kill_at "$at" "$name.resumed" on_ranks "$ranks" run "$case_file" "${settings[@]}" --output "$name.resumed")
+    [ -d "$name.resumed" ] || break # killed before it finished: go on
+    echo "$name: the run finished before the kill at row $at; again"
+  done
+  echo "$name: killed at series row $at of $rows (exit $code)"
+  [ -d "$name.resumed" ] && { fail "$name: could not kill the run before it finished"; return; }
+  ls -d "$name".resumed.partial-*/checkpoint/step-*/complete >/dev/null 2>&1 ||
+    { fail "$name: the killed run left no complete checkpoint"; return; }
+  on_ranks "$ranks" run "$case_file" "${settings[@]}" --output "$name.resumed" --resume >"$name.out" 2>"$name.err"
+  code=$?
+  [ "$code" -eq 0 ] || { fail "$name: --resume exits $code ($(head -c 400 "$name.err"))"; return; }
+  grep -q "resumed from its checkpoint at t = " "$name.out" || fail "$name: the run did not say it resumed (it started over?)"
+  ls -d "$name".resumed.partial-* >/dev/null 2>&1 && fail "$name: a partial folder is left after the resume"
+  [ -d "$name.resumed/checkpoint" ] && fail "$name: the finished folder still holds its checkpoints"
+  python3 "$compare" "$name.reference" "$name.resumed" --relative 1e-12 >"$name.compare" 2>&1 ||
+    fail "$name: the resumed run differs from the uninterrupted one: $(tail -n 5 "$name.compare")"
+  echo "$name: $(tail -n 1 "$name.compare")"
+}
+
+restart_case one_d_staged 2 "$source/tests/cli/restart/staged_release.ini"
+restart_case one_d_reserve 2 "$source/cases/drug_matrix_bath.ini"
+restart_case two_d 2 "$source/cases/wafer_trench.ini"
+restart_case three_d 2 "$source/cases/pipe_penetration.ini"
+
+# --- SIGTERM: exit 4, "interrupted at t = ...", no results and no numbers; --resume continues it.
+case_file="$source/cases/pipe_penetration.ini"
+"$fickcast" run "$case_file" --output term >term.out 2>term.err &
+pid=$!
+for _ in $(seq 1 3000); do
+  [ -n "$(ls term.partial-*/series.csv 2>/dev/null)" ] && break
+  sleep 0.01
+done
+sleep 0.5
+kill -TERM "$pid"
+wait "$pid"
+code=$?
+[ "$code" -eq 4 ] || fail "SIGTERM: expected exit 4 (interrupted), found $code"
+grep -q "^fickcast: interrupted at t = .*(step [0-9]*); no results written" term.err ||
+  fail "SIGTERM: stderr lacks 'interrupted at t = ...': $(cat term.err)"
+grep -q "point\.\|threshold\.\|mass balance" term.out && fail "SIGTERM: headline numbers printed for an interrupted run"
+[ -e term ] && fail "SIGTERM: the results folder was committed"
+ls term.partial-*/summary.json >/dev/null 2>&1 && fail "SIGTERM: the kept state holds a summary.json"
+"$fickcast" run "$case_file" --output term --resume --quiet || fail "SIGTERM: --resume failed"
+"$fickcast" run "$case_file" --output term.reference --quiet
+python3 "$compare" term.reference term --relative 1e-12 >term.compare 2>&1 ||
+  fail "SIGTERM: the resumed run differs: $(tail -n 5 term.compare)"
+
+# --- Resumes that do not fit are refused with one line (exit 2), their state kept.
+expect_refusal() { # name fragment command...
+  local name=$1 fragment=$2; shift 2
+  "$@" >refusal.out 2>refusal.err
+  local code=$?
+  [ "$code" -eq 2 ] || fail "$name: expected exit 2, found $code ($(head -c 300 refusal.err))"
+  grep -qF -- "$fragment" refusal.err || fail "$name: stderr lacks '$fragment': $(head -c 300 refusal.err)"
+  echo "$name: $(head -n 1 refusal.err)"
+}
+case_file="$source/cases/wafer_trench.ini"
+kill_code=$(kill_at 20 mismatch on_ranks 2 run "$case_file" --set "output.checkpoint_every=0 s" --output mismatch)
+ls -d mismatch.partial-*/checkpoint/step-*/complete >/dev/null 2>&1 || fail "mismatch: no checkpoint to test with"
+expect_refusal "other ranks" "expected a checkpoint written by 1 rank(s) (this run), found one by 2" \
+  "$fickcast" run "$case_file" --set "output.checkpoint_every=0 s" --output mismatch --resume
+expect_refusal "another case" "found it changed" \
+  on_ranks 2 run "$case_file" --set "output.checkpoint_every=0 s" --set "time.end=20 min" --output mismatch --resume
+expect_refusal "resume and overwrite" "found both" \
+  "$fickcast" run "$case_file" --output mismatch --resume --overwrite
+ls -d mismatch.partial-*/checkpoint/step-*/complete >/dev/null 2>&1 || fail "a refused resume removed the checkpoint"
+# A damaged checkpoint file: exit 3 naming it, never a wrong start.
+file=$(ls mismatch.partial-*/checkpoint/step-*/rank-0001.bin | head -1)
+printf '\x55' | dd of="$file" bs=1 seek=200 conv=notrunc status=none
+on_ranks 2 run "$case_file" --set "output.checkpoint_every=0 s" --output mismatch --resume >damaged.out 2>damaged.err
+code=$?
+[ "$code" -eq 3 ] || fail "damaged checkpoint: expected exit 3, found $code ($(head -c 300 damaged.err))"
+grep -q "the file is damaged" damaged.err || fail "damaged checkpoint: stderr lacks 'the file is damaged': $(head -c 300 damaged.err)"
+# With nothing to resume, --resume starts at t = 0 and says so.
+"$fickcast" run "$source/cases/two_layer_front.ini" --output fresh --resume --quiet 2>fresh.err ||
+  fail "--resume with nothing to resume failed"
+grep -q "no interrupted run of fresh to resume; starting at t = 0" fresh.err || fail "--resume without a checkpoint does not say it starts over"
+
+if [ "$failures" -ne 0 ]; then
+  echo "$failures failure(s)"
+  exit 1
+fi
+echo "restart: all checks passed"
