@@ -1,6 +1,7 @@
 #include "numerics/run_size.h"
 
 #include "case/input_error.h"
+#include "geometry/msh_check.h"
 #include "geometry/layer_spacing.h"
 
 #include <algorithm>
@@ -89,18 +90,22 @@ namespace fickcast
             size.cells *= n;
             size.unknowns *= n * p + 1;
           }
-        // Sparse matrices: about (2p + 1)^dim entries per row, 12 bytes each (value and column),
-        // about eight of them (mass, static, unit, dynamic and system parts, constrained copies);
-        // vectors: about forty of 8 bytes per unknown (states, history, weights, solver work).
-        const double per_row = std::pow(2 * p + 1, static_cast<double>(dim));
-        size.memory = size.unknowns * (per_row * 12.0 * 8.0 + 40.0 * 8.0);
       }
     else
       {
-        size.cells = std::numeric_limits<double>::quiet_NaN();
-        size.unknowns = size.cells;
-        size.memory = 0;
+        // A mesh file: its cells are the elements of the mesh's dimension, each split into 2^dim
+        // per refinement; the unknowns as for a block of as many cells (a slight overestimate).
+        double elements = 0;
+        for (const MshElement &element : check_msh_structure(c.geometry.mesh_file))
+          elements += element.dimension == static_cast<int>(dim) ? 1 : 0;
+        size.cells = elements * std::pow(2.0, static_cast<double>(dim * c.geometry.refine));
+        size.unknowns = std::pow(std::pow(size.cells, 1.0 / dim) * p + 1, static_cast<double>(dim));
       }
+    // Sparse matrices: about (2p + 1)^dim entries per row, 12 bytes each (value and column),
+    // about eight of them (mass, static, unit, dynamic and system parts, constrained copies);
+    // vectors: about forty of 8 bytes per unknown (states, history, weights, solver work).
+    const double per_row = std::pow(2 * p + 1, static_cast<double>(dim));
+    size.memory = size.unknowns * (per_row * 12.0 * 8.0 + 40.0 * 8.0);
     size.output_times = static_cast<double>(c.output.times.size()) + 1;
     if (c.output.fields_every > 0)
       size.output_times += c.time.end / c.output.fields_every;
@@ -113,6 +118,13 @@ namespace fickcast
     if (!limits_enabled)
       return;
     const std::string remedy = "; or --allow-large to run it anyway";
+    if (memory_limit > 0 && size.memory > 0.8 * memory_limit && !c.geometry.mesh_file.empty())
+      throw InputError(origin_of(c, "geometry.refine"), "geometry.refine",
+                       "the mesh of " + c.geometry.mesh_file + " would have about " + count_text(size.cells) +
+                         " cells and " + count_text(size.unknowns) + " unknowns after " +
+                         std::to_string(c.geometry.refine) + " refinement(s), needing about " +
+                         bytes_text(size.memory) + " of memory where this machine has " + bytes_text(memory_limit) +
+                         ": expected fewer refinements or a coarser mesh" + remedy);
     if (memory_limit > 0 && size.memory > 0.8 * memory_limit)
       throw InputError(origin_of(c, "geometry.cell_size"), "geometry.cell_size",
                        "the mesh would have about " + count_text(size.cells) + " cells and " +

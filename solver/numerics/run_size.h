@@ -16,7 +16,8 @@ namespace fickcast
   };
 
   /// Estimates the size of @p c: exact cell counts for the built-in geometry (the same spacing
-  /// laws as the mesh), NaN cells and unknowns for a mesh file.
+  /// laws as the mesh); for a mesh file its elements times 2^(dim refine), unknowns as for a block
+  /// of that many cells. Throws InputError for a mesh file that is not a Gmsh mesh.
   RunSize estimate_run_size(const CaseDescription &c);
 
   /// Installed memory of this machine in bytes (0 if unknown).
