@@ -46,8 +46,14 @@ namespace fickcast
     if (!root)
       return run_code;
     if (r.status != "completed")
-      std::cerr << "fickcast: run failed: " << r.message << "\n  last good state (t = " << units.time(r.end_time)
-                << ") written to " << outcome.folder << '\n';
+      {
+        std::cerr << "fickcast: run failed: " << r.message << '\n';
+        if (r.state_written)
+          std::cerr << "  last good state (t = " << units.time(r.end_time) << ") written to " << outcome.folder << '\n';
+        else
+          std::cerr << "  it failed at the start: no state was good enough to write; " << outcome.folder
+                    << " holds the settings and the message\n";
+      }
     if (invocation.quiet)
       {
         const int report_code = invocation.report ? write_report(outcome.folder, true) : exit_success;

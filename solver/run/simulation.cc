@@ -734,6 +734,7 @@ namespace fickcast
         record.message = failure.what();
         if (have_good_state)
           output_fields(t, u);
+        record.state_written = have_good_state;
       }
 
     if (fields && record.status != "interrupted")

@@ -96,6 +96,18 @@ expect_numerical_failure transfer_ambient_nan 86400 "boundary.top.ambient: expec
 expect_numerical_failure state_overflow 86400 "the state became non-finite at step " -- \
   "$case_file" --set "time.end=1 d" --set "boundary.top.type=flux" --set "boundary.top.value=1e307 kg/(m2 s)"
 
+# Non-finite from the very start: no state is good, none is written, and the message says so
+# (it once claimed "last good state (t = 0 s) written").
+"$fickcast" run "$case_file" --output "$scratch/at_start" --set 'boundary.top.value={1000*sqrt(t/d-1)} mg/L' \
+  --quiet >"$scratch/at_start.out" 2>"$scratch/at_start.err"
+code=$?
+[ "$code" -eq 1 ] || fail "at_start: expected exit 1, found $code"
+grep -q "found NaN at t = 0 s" "$scratch/at_start.err" || fail "at_start: the cause at t = 0 is not named"
+grep -q "last good state" "$scratch/at_start.err" && fail "at_start: claims a last good state that was never written"
+grep -q "it failed at the start: no state was good enough to write" "$scratch/at_start.err" ||
+  fail "at_start: does not say that no state was written: $(cat "$scratch/at_start.err")"
+[ "$(wc -l <"$scratch/at_start/series.csv")" -eq 1 ] || fail "at_start: series.csv holds rows of a state that was not good"
+
 # The folders above hold the last good state only: every number finite.
 python3 "$here/../regression/check_finite_results.py" "$scratch" || fail "a results folder holds a non-finite number"
 
