@@ -1,8 +1,8 @@
 #include "numerics/run_size.h"
 
 #include "case/input_error.h"
-#include "geometry/msh_check.h"
 #include "geometry/layer_spacing.h"
+#include "geometry/msh_check.h"
 
 #include <algorithm>
 #include <cmath>

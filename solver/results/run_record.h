@@ -64,8 +64,9 @@ namespace fickcast
   {
     std::string status = "completed"; ///< completed, failed, interrupted (then no results are written)
     double resumed_at = not_a_number;
-    bool state_written = true; ///< a failed run wrote its last good state (false: it failed at t = 0) ///< s: where a resumed run took up its checkpoint
-    std::string message;              ///< why it failed, if it did
+    bool state_written = true; ///< a failed run wrote its last good state (false: it failed at t = 0) ///< s: where a
+                               ///< resumed run took up its checkpoint
+    std::string message;       ///< why it failed, if it did
     unsigned int dimension = 1;
     unsigned long cells = 0;
     unsigned long unknowns = 0;

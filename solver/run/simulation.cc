@@ -9,6 +9,7 @@
 #include "results/observers.h"
 #include "run/checkpoint.h"
 #include "run/field_view_of.h"
+#include "run/landing_times.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -26,36 +27,6 @@ namespace fickcast
   namespace
   {
     std::atomic<bool> stop_flag{false};
-
-    /// Output times: listed times, multiples of fields_every, and the end, sorted and unique.
-    std::vector<double> output_schedule(const CaseDescription &c)
-    {
-      std::vector<double> times = c.output.times;
-      if (c.output.fields_every > 0)
-        for (double t = c.output.fields_every; t < c.time.end * (1 - 1e-12); t += c.output.fields_every)
-          times.push_back(t);
-      times.push_back(c.time.end);
-      std::sort(times.begin(), times.end());
-      std::vector<double> unique;
-      for (const double t : times)
-        if (t > 0 && (unique.empty() || t - unique.back() > 1e-12 * c.time.end))
-          unique.push_back(t);
-      return unique;
-    }
-
-    /// Times a step must land on: output times and stage ends.
-    std::vector<double> hard_times(const CaseDescription &c, const std::vector<double> &outputs)
-    {
-      std::vector<double> times = outputs;
-      for (const auto &stage : c.stages)
-        times.push_back(stage.end());
-      std::sort(times.begin(), times.end());
-      std::vector<double> unique;
-      for (const double t : times)
-        if (t > 0 && (unique.empty() || t - unique.back() > 1e-12 * c.time.end))
-          unique.push_back(t);
-      return unique;
-    }
 
     /// A time in a message: six significant digits, any magnitude.
     std::string time_text(const double t)
