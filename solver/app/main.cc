@@ -80,6 +80,12 @@ int main(int argc, char **argv)
         std::cerr << "fickcast: " << fickcast::printable(error.what(), 480) << '\n';
       return fickcast::exit_io_error;
     }
+  catch (const fickcast::Interrupted &error)
+    {
+      if (root)
+        std::cerr << "fickcast: " << error.what() << '\n';
+      return fickcast::exit_interrupted;
+    }
   catch (const fickcast::RunFailure &error)
     {
       if (root)

@@ -45,6 +45,13 @@ namespace fickcast
     using std::runtime_error::runtime_error;
   };
 
+  /// A signal stopped the work (SIGINT, SIGTERM) before it was done. Exit code 4.
+  class Interrupted : public std::runtime_error
+  {
+  public:
+    using std::runtime_error::runtime_error;
+  };
+
   /// Reading or writing a file failed for a reason outside the input itself. Exit code 3.
   class IoError : public std::runtime_error
   {

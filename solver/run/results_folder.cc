@@ -7,6 +7,7 @@
 #include <filesystem>
 #include <fstream>
 #include <iostream>
+#include <sstream>
 #include <system_error>
 
 #include <signal.h>
@@ -29,6 +30,49 @@ namespace fickcast
       while (text.size() > 1 && text.back() == '/')
         text.pop_back();
       return text;
+    }
+
+    /// What tells this process from a later one with the same number: the boot and the process's
+    /// start time (Linux /proc; empty elsewhere).
+    std::string process_identity(const long pid)
+    {
+      std::ifstream boot("/proc/sys/kernel/random/boot_id");
+      std::string boot_id;
+      std::getline(boot, boot_id);
+      std::ifstream stat("/proc/" + std::to_string(pid) + "/stat");
+      std::string text;
+      std::getline(stat, text);
+      // Field 22 (start time) counts from after the command name, which may hold spaces.
+      const auto close = text.rfind(')');
+      if (boot_id.empty() || close == std::string::npos)
+        return "";
+      std::istringstream fields(text.substr(close + 2));
+      std::string field;
+      for (int k = 3; k <= 22 && fields >> field; ++k)
+        if (k == 22)
+          return boot_id + " " + field;
+      return "";
+    }
+
+    constexpr const char *owner_file = ".fickcast-owner";
+
+    /// Records which process writes into @p folder (a process number alone is reused).
+    void write_owner(const std::string &folder)
+    {
+      std::ofstream out(folder + "/" + owner_file);
+      out << process_identity(::getpid()) << '\n';
+    }
+
+    /// Whether the process that made the partial folder @p folder (number @p pid) still runs.
+    bool owner_alive(const std::string &folder, const long pid)
+    {
+      if (pid <= 0 || (::kill(static_cast<pid_t>(pid), 0) != 0 && errno == ESRCH))
+        return false;
+      std::ifstream in(folder + "/" + owner_file);
+      std::string recorded;
+      if (!std::getline(in, recorded) || recorded.empty())
+        return true; // no record: trust the number
+      return recorded == process_identity(pid);
     }
 
     /// Whether @p ancestor is @p path or one of its parent folders.
@@ -105,7 +149,7 @@ namespace fickcast
         if (digits.empty() || digits.find_first_not_of("0123456789") != std::string::npos)
           continue;
         const long pid = std::strtol(digits.c_str(), nullptr, 10);
-        if (pid <= 0 || (::kill(static_cast<pid_t>(pid), 0) != 0 && errno == ESRCH))
+        if (!owner_alive((parent / name).string(), pid))
           stale.push_back((parent / name).string());
       }
     return stale;
@@ -160,6 +204,7 @@ namespace fickcast
         fs::rename(taken, partial_, error);
         if (error)
           throw IoError("cannot take over " + taken + " to resume it: " + error.message());
+        write_owner(partial_);
         resumed_ = true;
         return;
       }
@@ -170,6 +215,7 @@ namespace fickcast
     if (error)
       throw IoError("cannot create the results folder " + partial_ + ": " + error.message());
     write_results_marker(partial_);
+    write_owner(partial_);
   }
 
   ResultsFolder::~ResultsFolder()
@@ -185,6 +231,7 @@ namespace fickcast
   void ResultsFolder::commit()
   {
     std::error_code error;
+    fs::remove(fs::path(partial_) / owner_file, error);
     std::string old;
     if (fs::exists(target_, error))
       {

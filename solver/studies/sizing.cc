@@ -186,6 +186,9 @@ namespace fickcast
       run.folder = path + "/runs/" + name;
       run.overwrite = true;
       const RunOutcome ran = run_case(description, run, communicator);
+      if (ran.record.status == "interrupted")
+        throw Interrupted("sizing interrupted after " + std::to_string(outcome.evaluations.size()) +
+                          " run(s): run the same command again to start it over");
       e.status = ran.record.status;
       e.message = ran.record.message;
       e.folder = options.folder + "/runs/" + name;

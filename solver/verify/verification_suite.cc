@@ -78,6 +78,8 @@ namespace fickcast
       options.overwrite = true;
       Run run;
       run.record = run_case(description, options, MPI_COMM_SELF).record;
+      if (run.record.status == "interrupted")
+        throw Interrupted("verification interrupted: run the same command again to start it over");
       if (run.record.status != "completed")
         throw std::runtime_error("the run failed: " + run.record.message);
       run.series = read_series(options.folder + "/series.csv");
@@ -432,6 +434,10 @@ namespace fickcast
           {
             result.error = check.error(scratch);
             result.passed = std::isfinite(result.error) && result.error <= check.tolerance;
+          }
+        catch (const Interrupted &)
+          {
+            throw; // not a failed check: nothing is written
           }
         catch (const std::exception &error)
           {

@@ -83,6 +83,13 @@ grep -q "out2.partial-$dead is left by an interrupted run" "$scratch/err.txt" ||
 [ -d "out2.partial-$dead" ] || fail "the stale partial folder was removed without --overwrite"
 expect_code 0 "the same run with --overwrite" "$fickcast" run case.ini --output out2 --overwrite "${quick[@]}"
 [ -d "out2.partial-$dead" ] && fail "--overwrite left the stale partial folder"
+# A process number is reused: a partial folder named after a live process (this shell) that did
+# not make it (its owner record names another process start) is stale all the same.
+mkdir -p "out2.partial-$$" && touch "out2.partial-$$/.fickcast-results"
+echo "some-other-boot 12345" >"out2.partial-$$/.fickcast-owner"
+expect_code 0 "a run next to a partial folder whose number was reused" "$fickcast" run case.ini --output out2 --overwrite "${quick[@]}"
+[ -d "out2.partial-$$" ] && fail "a partial folder whose process number was reused is taken for a live run"
+[ -e out2/.fickcast-owner ] && fail "the finished folder keeps the owner record"
 
 echo "$failures failures"
 [ "$failures" -eq 0 ]
