@@ -186,4 +186,18 @@ boundary.top.type = sealed
     EXPECT_DOUBLE_EQ(c.geometry.layers[0].thickness, 0.6);
     EXPECT_EQ(c.geometry.layers[1].name, "sand");
   }
+
+  // Found by tests/fuzz: values finite as written but not in SI, and stage durations whose sum
+  // overflows, were accepted as inf.
+  TEST(CaseReader, NumbersBeyondTheRangeOfDoublesAreInputErrors)
+  {
+    const std::string value = error_of(minimal, {"region.clay.diffusivity=1e308 km2/s"});
+    EXPECT_NE(value.find("region.clay.diffusivity"), std::string::npos) << value;
+    EXPECT_NE(value.find("range of numbers"), std::string::npos) << value;
+    std::string staged = minimal + "[stage.first]\nduration = 1.5e308 s\n[stage.second]\nduration = 1.5e308 s\n";
+    staged.replace(staged.find("end = 60 yr\n"), 12, "");
+    const std::string stages = error_of(staged);
+    EXPECT_NE(stages.find("case.ini:21: stage.second.duration"), std::string::npos) << stages;
+    EXPECT_NE(stages.find("range of numbers"), std::string::npos) << stages;
+  }
 } // namespace fickcast
