@@ -54,6 +54,8 @@ namespace
     for (const double v : {g.cell_size, g.width, g.length, g.radius, g.inner_radius, g.grading,
                            g.side_coating.thickness, g.side_coating.cell_size})
       finite(v, "geometry value");
+    finite(g.inner_radius + g.total_thickness(), "outer face of the layers");
+    finite(g.radius + g.side_coating.thickness, "outer face of the side coating");
     for (const auto &layer : g.layers)
       {
         finite(layer.thickness, "layer thickness");

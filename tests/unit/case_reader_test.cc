@@ -199,5 +199,9 @@ boundary.top.type = sealed
     const std::string stages = error_of(staged);
     EXPECT_NE(stages.find("case.ini:21: stage.second.duration"), std::string::npos) << stages;
     EXPECT_NE(stages.find("range of numbers"), std::string::npos) << stages;
+    // Layers each finite whose sum is not: `end of sand` would be a point at inf.
+    const std::string layers = error_of(minimal, {"geometry.layers=clay 1e308 m, sand 1e308 m"});
+    EXPECT_NE(layers.find("--set: geometry.layers"), std::string::npos) << layers;
+    EXPECT_NE(layers.find("range of numbers"), std::string::npos) << layers;
   }
 } // namespace fickcast
