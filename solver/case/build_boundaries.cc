@@ -214,6 +214,10 @@ namespace fickcast
         for (const auto &face : reader.faces)
           stage.boundaries.push_back(build_boundary(reader, c, face, section));
         start += stage.duration;
+        if (!std::isfinite(start))
+          reader.fail(*duration, "expected stage durations whose sum stays within the range of numbers, found a "
+                                 "total beyond 1.8e308 s at stage " +
+                                   name);
         c.stages.push_back(stage);
       }
     if (end && std::abs(end->si - start) > 1e-9 * start)

@@ -5,6 +5,7 @@
 #include "case/mesh_file.h"
 
 #include <algorithm>
+#include <cmath>
 #include <filesystem>
 #include <set>
 
@@ -149,5 +150,15 @@ namespace fickcast
     if (g.grade_toward == Face::none && g.grading != 1.0)
       reader.fail(*reader.get("geometry", "grading"), "expected grade_toward with a grading other than 1, "
                                                       "found grade_toward = none");
+    // Each length is finite as read; their sums are the coordinates of the outer faces.
+    const auto *inner = reader.get("geometry", "inner_radius");
+    if (!std::isfinite(total) || !std::isfinite(g.inner_radius + total))
+      reader.fail(inner != nullptr && std::isfinite(total) ? *inner : *layers,
+                  "expected layers whose total thickness (from the inner radius) stays within the range of "
+                  "numbers, found an outer face beyond 1.8e308 m");
+    if (!std::isfinite(g.radius + g.side_coating.thickness))
+      reader.fail(*reader.get("geometry", "side_coating"),
+                  "expected a radius and side coating whose sum stays within the range of numbers, found one beyond "
+                  "1.8e308 m");
   }
 } // namespace fickcast

@@ -1,5 +1,6 @@
 #include "case/temperature_schedule.h"
 
+#include "case/interpolation.h"
 #include "case/quantity_text.h"
 #include "case/units.h"
 
@@ -19,8 +20,7 @@ namespace fickcast
       return temperatures.back();
     const auto upper = std::upper_bound(times.begin(), times.end(), t);
     const std::size_t k = static_cast<std::size_t>(upper - times.begin());
-    const double fraction = (t - times[k - 1]) / (times[k] - times[k - 1]);
-    return temperatures[k - 1] + fraction * (temperatures[k] - temperatures[k - 1]);
+    return interpolate(times[k - 1], temperatures[k - 1], times[k], temperatures[k], t);
   }
 
   void TemperatureSchedule::append(const TemperatureSchedule &other, const double offset)
@@ -72,6 +72,21 @@ namespace fickcast
                       "': expected 'hold DURATION', 'ramp RATE to TEMPERATURE' or 'ramp to TEMPERATURE in "
                       "DURATION' (for example 'ramp 10 degC/min to 1100 degC')");
     }
+
+    /// The end of item @p index lasting @p duration from @p t0: finite and after t0.
+    double end_of_item(const double t0, const double duration, const std::string &item, const std::size_t index)
+    {
+      const double t = t0 + duration;
+      if (!std::isfinite(t))
+        throw UnitError("item " + std::to_string(index + 1) + " '" + item +
+                        "': expected a schedule that ends within the range of numbers, found one beyond 1.8e308 s");
+      if (!(t > t0))
+        throw UnitError("item " + std::to_string(index + 1) + " '" + item +
+                        "': expected a duration that counts after the items before it, found one lost in rounding "
+                        "after " +
+                        std::to_string(t0) + " s");
+      return t;
+    }
   } // namespace
 
   TemperatureSchedule parse_temperature_schedule(const std::string &text)
@@ -101,7 +116,7 @@ namespace fickcast
             const double duration = quantity(rest, "s", item);
             if (!(duration > 0))
               throw UnitError("item " + std::to_string(i + 1) + " '" + item + "': expected a duration > 0");
-            schedule.times.push_back(t0 + duration);
+            schedule.times.push_back(end_of_item(t0, duration, item, i));
             schedule.temperatures.push_back(temperature0);
             continue;
           }
@@ -137,7 +152,7 @@ namespace fickcast
         if (!(duration > 0))
           throw UnitError("item " + std::to_string(i + 1) + " '" + item +
                           "': the ramp takes no time (target equals the current temperature)");
-        schedule.times.push_back(t0 + duration);
+        schedule.times.push_back(end_of_item(t0, duration, item, i));
         schedule.temperatures.push_back(target);
       }
     return schedule;

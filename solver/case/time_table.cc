@@ -1,6 +1,7 @@
 #include "case/time_table.h"
 
 #include "case/input_error.h"
+#include "case/interpolation.h"
 #include "case/quantity_text.h"
 #include "case/units.h"
 
@@ -22,8 +23,7 @@ namespace fickcast
       return values.back();
     const auto upper = std::upper_bound(times.begin(), times.end(), t);
     const std::size_t k = static_cast<std::size_t>(upper - times.begin());
-    const double fraction = (t - times[k - 1]) / (times[k] - times[k - 1]);
-    return values[k - 1] + fraction * (values[k] - values[k - 1]);
+    return interpolate(times[k - 1], values[k - 1], times[k], values[k], t);
   }
 
   std::string time_table_value_unit(const std::string &path)
@@ -110,6 +110,12 @@ namespace fickcast
           {
             throw InputError(where, "", error.what());
           }
+        if (!std::isfinite(t) || !std::isfinite(v))
+          throw InputError(where, "",
+                           std::string("expected a time and a value within the range of numbers once converted to s "
+                                       "and ") +
+                             si_unit + ", found a " + (std::isfinite(t) ? "value" : "time") +
+                             " beyond 1.8e308 in SI ('" + (std::isfinite(t) ? cells[1] : cells[0]) + "')");
         if (!table.times.empty() && !(t > table.times.back()))
           throw InputError(where, "",
                            "expected times that increase from row to row, found " + std::to_string(t) + " s after " +

@@ -5,6 +5,7 @@
 #include <udunits2.h>
 
 #include <cmath>
+#include <cstdio>
 #include <mutex>
 #include <regex>
 
@@ -89,7 +90,15 @@ namespace fickcast
           const ConverterHandle converter(ut_get_converter(unit.get(), target.get()));
           if (!converter)
             throw UnitError("cannot convert '" + unit_text + "' to " + si_unit);
-          return cv_convert_double(converter.get(), number);
+          const double si = cv_convert_double(converter.get(), number);
+          if (!std::isfinite(si))
+            {
+              char written[64];
+              std::snprintf(written, sizeof(written), "%.10g", number);
+              throw UnitError("expected a value within the range of numbers once converted to " + si_unit + ", found " +
+                              written + " " + unit_text + " (beyond 1.8e308 " + si_unit + ")");
+            }
+          return si;
         }
     }
     std::string message =

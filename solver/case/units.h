@@ -46,7 +46,8 @@ namespace fickcast
      * Converts @p number given in @p unit_text to the SI unit @p si_unit (a UDUNITS-2 string
      * such as `m2/s`, `kg/m3` or `1`). An empty @p unit_text means the number is SI already.
      * Throws UnitError when the text does not parse or is not convertible; the message says what
-     * dimension was found and, for known traps (`a`, `C`), what to write instead.
+     * dimension was found and, for known traps (`a`, `C`), what to write instead. Also when the
+     * SI value is not finite (`1e300 Gm` overflows): a number beyond the range is never a value.
      */
     double to_si(double number, const std::string &unit_text, const std::string &si_unit) const;
 

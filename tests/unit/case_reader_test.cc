@@ -186,4 +186,22 @@ boundary.top.type = sealed
     EXPECT_DOUBLE_EQ(c.geometry.layers[0].thickness, 0.6);
     EXPECT_EQ(c.geometry.layers[1].name, "sand");
   }
+
+  // Found by tests/fuzz: values finite as written but not in SI, and stage durations whose sum
+  // overflows, were accepted as inf.
+  TEST(CaseReader, NumbersBeyondTheRangeOfDoublesAreInputErrors)
+  {
+    const std::string value = error_of(minimal, {"region.clay.diffusivity=1e308 km2/s"});
+    EXPECT_NE(value.find("region.clay.diffusivity"), std::string::npos) << value;
+    EXPECT_NE(value.find("range of numbers"), std::string::npos) << value;
+    std::string staged = minimal + "[stage.first]\nduration = 1.5e308 s\n[stage.second]\nduration = 1.5e308 s\n";
+    staged.replace(staged.find("end = 60 yr\n"), 12, "");
+    const std::string stages = error_of(staged);
+    EXPECT_NE(stages.find("case.ini:21: stage.second.duration"), std::string::npos) << stages;
+    EXPECT_NE(stages.find("range of numbers"), std::string::npos) << stages;
+    // Layers each finite whose sum is not: `end of sand` would be a point at inf.
+    const std::string layers = error_of(minimal, {"geometry.layers=clay 1e308 m, sand 1e308 m"});
+    EXPECT_NE(layers.find("--set: geometry.layers"), std::string::npos) << layers;
+    EXPECT_NE(layers.find("range of numbers"), std::string::npos) << layers;
+  }
 } // namespace fickcast

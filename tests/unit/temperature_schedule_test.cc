@@ -41,4 +41,24 @@ namespace fickcast
         EXPECT_NE(std::string(error.what()).find("ramp 10 m to 900 degC"), std::string::npos) << error.what();
       }
   }
+
+  // Found by tests/fuzz: holds whose sum overflows gave a schedule ending at inf.
+  TEST(TemperatureSchedule, EndsWithinTheRangeOfNumbers)
+  {
+    try
+      {
+        parse_temperature_schedule("1000 K, hold 1.5e308 s, hold 1.5e308 s");
+        FAIL() << "a schedule ending at inf was accepted";
+      }
+    catch (const UnitError &error)
+      {
+        const std::string message = error.what();
+        EXPECT_NE(message.find("item 3"), std::string::npos) << message;
+        EXPECT_NE(message.find("range of numbers"), std::string::npos) << message;
+      }
+    // A duration lost in rounding after a long schedule would give two equal times.
+    EXPECT_THROW(parse_temperature_schedule("1000 K, hold 1e300 s, hold 1 s"), UnitError);
+    const TemperatureSchedule far = parse_temperature_schedule("1000 K, hold 1e300 s, ramp to 2000 K in 1e300 s");
+    EXPECT_DOUBLE_EQ(far.at(1.5e300), 1500.0);
+  }
 } // namespace fickcast

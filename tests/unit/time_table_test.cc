@@ -76,4 +76,33 @@ namespace fickcast
         EXPECT_EQ(std::string(error.what()).find("secret"), std::string::npos) << error.what();
       }
   }
+
+  // Found by tests/fuzz: rows finite as written but beyond the range of doubles once in SI were
+  // accepted as inf (the time 1e308 h; a time unit of 1e300 s).
+  TEST(TimeTable, RowsBeyondTheRangeOfNumbersNameTheLine)
+  {
+    for (const std::string text :
+         {"time [h], value [mg/L]\n0, 1\n1e308, 2\n", "time [1e300 s], value [mg/L]\n0, 1\n1e10, 2\n",
+          "time [s], value [1e300 kg/m3]\n0, 1\n1, 1e10\n"})
+      try
+        {
+          read_time_table(write("fickcast_table_overflow.csv", text), "kg/m3");
+          FAIL() << "accepted: " << text;
+        }
+      catch (const InputError &error)
+        {
+          const std::string message = error.what();
+          EXPECT_NE(message.find("fickcast_table_overflow.csv:3"), std::string::npos) << message;
+          EXPECT_NE(message.find("range of numbers"), std::string::npos) << message;
+        }
+  }
+
+  // Found by tests/fuzz: between rows of -1.7e308 and 1.7e308 kg/m3 the interpolation gave inf.
+  TEST(TimeTable, InterpolationBetweenExtremeRowsIsFinite)
+  {
+    const TimeTable table = read_time_table(
+      write("fickcast_table_extremes.csv", "time [s], value [kg/m3]\n0, -1.7e308\n10, 1.7e308\n"), "kg/m3");
+    EXPECT_DOUBLE_EQ(table.at(5.0), 0.0);
+    EXPECT_DOUBLE_EQ(table.at(7.5), 0.85e308);
+  }
 } // namespace fickcast

@@ -136,4 +136,21 @@ namespace fickcast
     EXPECT_EQ(units.first_convertible("ppm", families), "1");
     EXPECT_EQ(units.first_convertible("m", families), "");
   }
+
+  // A number that is finite as written but not in SI is refused, never passed on as inf
+  // (found by tests/fuzz: `diffusivity = 1e308 km2/s`).
+  TEST(Units, ConversionsBeyondTheRangeOfDoublesAreErrors)
+  {
+    EXPECT_DOUBLE_EQ(si(1e300, "km", "m"), 1e303);
+    try
+      {
+        si(1e308, "km2/s", "m2/s");
+        FAIL() << "1e308 km2/s was converted";
+      }
+    catch (const UnitError &error)
+      {
+        EXPECT_NE(std::string(error.what()).find("range of numbers"), std::string::npos) << error.what();
+      }
+    EXPECT_THROW(si(1e10, "1e300 s", "s"), UnitError);
+  }
 } // namespace fickcast
