@@ -98,22 +98,19 @@ namespace fickcast
 
   void StateArchive::put(const double value)
   {
-    const unsigned char tag = tag_number;
-    raw(&tag, 1);
+    put_tag(tag_number);
     raw(&value, sizeof(value));
   }
 
   void StateArchive::put_count(const std::uint64_t value)
   {
-    const unsigned char tag = tag_count;
-    raw(&tag, 1);
+    put_tag(tag_count);
     raw(&value, sizeof(value));
   }
 
   void StateArchive::put(const std::string &text)
   {
-    const unsigned char tag = tag_text;
-    raw(&tag, 1);
+    put_tag(tag_text);
     const std::uint64_t size = text.size();
     raw(&size, sizeof(size));
     raw(text.data(), text.size());
@@ -121,8 +118,7 @@ namespace fickcast
 
   void StateArchive::put(const std::vector<double> &values)
   {
-    const unsigned char tag = tag_values;
-    raw(&tag, 1);
+    put_tag(tag_values);
     const std::uint64_t size = values.size();
     raw(&size, sizeof(size));
     raw(values.data(), values.size() * sizeof(double));
@@ -130,7 +126,7 @@ namespace fickcast
 
   namespace
   {
-    void expect_tag(const unsigned char found, const unsigned char expected)
+    void check_tag(const unsigned char found, const unsigned char expected)
     {
       if (found != expected)
         throw IoError("the checkpoint does not hold what this version of fickcast expects (a damaged file, or "
@@ -138,11 +134,21 @@ namespace fickcast
     }
   } // namespace
 
-  double StateArchive::get()
+  void StateArchive::put_tag(const unsigned char tag)
+  {
+    raw(&tag, 1);
+  }
+
+  void StateArchive::expect_tag(const unsigned char expected)
   {
     unsigned char tag = 0;
     read_raw(&tag, 1);
-    expect_tag(tag, tag_number);
+    check_tag(tag, expected);
+  }
+
+  double StateArchive::get()
+  {
+    expect_tag(tag_number);
     double value = 0;
     read_raw(&value, sizeof(value));
     return value;
@@ -150,9 +156,7 @@ namespace fickcast
 
   std::uint64_t StateArchive::get_count()
   {
-    unsigned char tag = 0;
-    read_raw(&tag, 1);
-    expect_tag(tag, tag_count);
+    expect_tag(tag_count);
     std::uint64_t value = 0;
     read_raw(&value, sizeof(value));
     return value;
@@ -160,9 +164,7 @@ namespace fickcast
 
   std::string StateArchive::get_text()
   {
-    unsigned char tag = 0;
-    read_raw(&tag, 1);
-    expect_tag(tag, tag_text);
+    expect_tag(tag_text);
     std::uint64_t size = 0;
     read_raw(&size, sizeof(size));
     if (size > bytes_.size() - position_)
@@ -174,9 +176,7 @@ namespace fickcast
 
   std::vector<double> StateArchive::get_values()
   {
-    unsigned char tag = 0;
-    read_raw(&tag, 1);
-    expect_tag(tag, tag_values);
+    expect_tag(tag_values);
     std::uint64_t size = 0;
     read_raw(&size, sizeof(size));
     if (size > (bytes_.size() - position_) / sizeof(double))

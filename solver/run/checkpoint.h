@@ -43,6 +43,9 @@ namespace fickcast
   private:
     void raw(const void *data, std::size_t size);
     void read_raw(void *data, std::size_t size);
+    /// Each field starts with a byte telling its kind; reading another kind is damage.
+    void put_tag(unsigned char tag);
+    void expect_tag(unsigned char expected);
     std::string bytes_;
     std::size_t position_ = 0;
   };

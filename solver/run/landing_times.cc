@@ -1,9 +1,24 @@
 #include "run/landing_times.h"
 
 #include <algorithm>
+#include <utility>
 
 namespace fickcast
 {
+  namespace
+  {
+    /// @p times sorted, positive and without repeats closer than 1e-12 of the run.
+    std::vector<double> sorted_unique(std::vector<double> times, const double end)
+    {
+      std::sort(times.begin(), times.end());
+      std::vector<double> unique;
+      for (const double t : times)
+        if (t > 0 && (unique.empty() || t - unique.back() > 1e-12 * end))
+          unique.push_back(t);
+      return unique;
+    }
+  } // namespace
+
   /// Output times: listed times, multiples of fields_every, and the end, sorted and unique.
   std::vector<double> output_schedule(const CaseDescription &c)
   {
@@ -12,12 +27,7 @@ namespace fickcast
       for (double t = c.output.fields_every; t < c.time.end * (1 - 1e-12); t += c.output.fields_every)
         times.push_back(t);
     times.push_back(c.time.end);
-    std::sort(times.begin(), times.end());
-    std::vector<double> unique;
-    for (const double t : times)
-      if (t > 0 && (unique.empty() || t - unique.back() > 1e-12 * c.time.end))
-        unique.push_back(t);
-    return unique;
+    return sorted_unique(std::move(times), c.time.end);
   }
 
   /// Times a step must land on: output times and stage ends.
@@ -26,11 +36,6 @@ namespace fickcast
     std::vector<double> times = outputs;
     for (const auto &stage : c.stages)
       times.push_back(stage.end());
-    std::sort(times.begin(), times.end());
-    std::vector<double> unique;
-    for (const double t : times)
-      if (t > 0 && (unique.empty() || t - unique.back() > 1e-12 * c.time.end))
-        unique.push_back(t);
-    return unique;
+    return sorted_unique(std::move(times), c.time.end);
   }
 } // namespace fickcast
