@@ -11,10 +11,27 @@
 
 #include <cmath>
 #include <cstdio>
+#include <functional>
 #include <iostream>
+#include <string>
 
 namespace fickcast
 {
+  namespace
+  {
+    /// "120 -> 240 cells, 310 -> 650 steps": the solves of an accuracy check.
+    std::string solves_text(const AccuracyRecord &a)
+    {
+      std::string cells, steps;
+      for (const auto &solve : a.solves)
+        {
+          cells += (cells.empty() ? "" : " -> ") + std::to_string(solve.cells);
+          steps += (steps.empty() ? "" : " -> ") + std::to_string(solve.steps);
+        }
+      return cells + " cells, " + steps + " steps";
+    }
+  } // namespace
+
   int verb_run(const Invocation &invocation, MPI_Comm communicator)
   {
     const bool root = dealii::Utilities::MPI::this_mpi_process(communicator) == 0;
@@ -54,8 +71,14 @@ namespace fickcast
           std::cerr << "  it failed at the start: no state was good enough to write; " << outcome.folder
                     << " holds the settings and the message\n";
       }
+    const auto warn = [&r] {
+      std::fflush(stdout);
+      for (const auto &warning : r.warnings)
+        std::cerr << "fickcast: warning: " << warning << '\n';
+    };
     if (invocation.quiet)
       {
+        warn();
         const int report_code = invocation.report ? write_report(outcome.folder, true) : exit_success;
         return run_code != exit_success ? run_code : report_code;
       }
@@ -68,30 +91,62 @@ namespace fickcast
     if (std::isfinite(r.resumed_at))
       std::printf("  resumed from its checkpoint at t = %s (the time above is this part's)\n",
                   units.time(r.resumed_at).c_str());
+    // Each named result with its estimated error (numerics.accuracy), in the unit it is shown in.
+    const AccuracyRecord &accuracy = r.accuracy;
+    const auto estimate = [&](const std::string &name, const std::function<std::string(double)> &show) {
+      const auto found = accuracy.estimates.find(name);
+      if (found == accuracy.estimates.end())
+        return std::string();
+      if (!std::isfinite(found->second))
+        return std::string(" (not confirmed: reached in one solve of the check only)");
+      return " +- " + show(found->second) + " (estimated)";
+    };
+    const DisplayUnits brief(description, 2); // estimates: two significant digits
+    const auto time = [&](double v) { return brief.time(v); };
+    const auto concentration = [&](double v) { return brief.concentration(v); };
+    const auto length = [&](double v) { return brief.length(v); };
     for (const auto &named_point : r.points)
       {
         if (std::isfinite(named_point.threshold))
-          std::printf("  threshold.%s: %s (point %s reaches %s)\n", named_point.name.c_str(),
-                      units.time(named_point.threshold_time).c_str(), named_point.name.c_str(),
+          std::printf("  threshold.%s: %s%s (point %s reaches %s)\n", named_point.name.c_str(),
+                      units.time(named_point.threshold_time).c_str(),
+                      estimate("threshold." + named_point.name, time).c_str(), named_point.name.c_str(),
                       units.concentration(named_point.threshold).c_str());
-        std::printf("  point.%s at the end: %s\n", named_point.name.c_str(),
-                    units.concentration(named_point.final_value).c_str());
+        std::printf("  point.%s at the end: %s%s\n", named_point.name.c_str(),
+                    units.concentration(named_point.final_value).c_str(),
+                    estimate("point." + named_point.name + ".final", concentration).c_str());
       }
     for (const auto &depth : r.depths)
       if (!depth.depths.empty())
-        std::printf("  depth.%s at the end: %s (where c falls below %s)\n", depth.name.c_str(),
+        std::printf("  depth.%s at the end: %s%s (where c falls below %s)\n", depth.name.c_str(),
                     std::isfinite(depth.depths.back()) ? units.length(depth.depths.back()).c_str()
                                                        : "below the whole domain",
-                    units.concentration(depth.level).c_str());
+                    estimate("depth." + depth.name, length).c_str(), units.concentration(depth.level).c_str());
     for (const auto &release : r.releases)
-      std::printf("  release.%s: %s (%.0f %% released)\n", release.name.c_str(), units.time(release.time).c_str(),
-                  100 * release.level);
+      std::printf("  release.%s: %s%s (%.0f %% released)\n", release.name.c_str(), units.time(release.time).c_str(),
+                  estimate("release." + release.name, time).c_str(), 100 * release.level);
     if (std::isfinite(r.released_final) && (!r.releases.empty() || description.output.loading > 0))
-      std::printf("  released at the end: %.4g %%\n", 100 * r.released_final);
+      std::printf("  released at the end: %.4g %%%s\n", 100 * r.released_final,
+                  estimate("released_fraction.final", [](double v) {
+                    char text[32];
+                    std::snprintf(text, sizeof text, "%.2g %%", 100 * v);
+                    return std::string(text);
+                  }).c_str());
     for (const auto &lag : r.time_lags)
-      std::printf("  time_lag.%s: %s through %s%s\n", lag.name.c_str(), units.time(lag.time_lag).c_str(),
-                  lag.boundary.c_str(), lag.steady ? "" : " (flux not yet steady: the run may be too short)");
+      std::printf("  time_lag.%s: %s%s through %s%s\n", lag.name.c_str(), units.time(lag.time_lag).c_str(),
+                  estimate("time_lag." + lag.name, time).c_str(), lag.boundary.c_str(),
+                  lag.steady ? "" : " (flux not yet steady: the run may be too short)");
+    if (accuracy.requested <= 0)
+      std::printf("  accuracy: off; these numbers are unchecked (one solve, no error estimate)\n");
+    else
+      {
+        std::printf("  accuracy %.2g asked of each named result: %s after %zu solves (%s)\n", accuracy.requested,
+                    accuracy.met ? "met" : "NOT MET", accuracy.solves.size(), solves_text(accuracy).c_str());
+        if (!accuracy.note.empty())
+          std::printf("  %s\n", accuracy.note.c_str());
+      }
     std::printf("  mass balance error: %.2e of the amounts moved\n", r.balance_error_relative);
+    warn();
     std::printf("results: %s\n", outcome.folder.c_str());
     std::printf("  Model predictions support, but do not replace, testing and engineering judgement; see the\n"
                 "  README's cautions before using them for medical, containment or safety decisions.\n");

@@ -3,6 +3,9 @@
 
 #include "case/section_builders.h"
 
+#include <stdexcept>
+#include <string>
+
 namespace fickcast
 {
   namespace
@@ -43,6 +46,39 @@ namespace fickcast
       c.numerics.nonlinear_tolerance = reader.quantity("numerics", "nonlinear_tolerance", 1e-8);
       c.numerics.max_nonlinear_iterations =
         static_cast<unsigned int>(reader.quantity("numerics", "max_nonlinear_iterations", 30));
+      c.numerics.accuracy = 1e-3;
+      if (const auto *v = reader.get("numerics", "accuracy"))
+        {
+          const std::string &text = v->text;
+          const std::string expected = "expected a relative accuracy between 1e-8 and 0.1 (such as 1e-3 or 0.1 %), or "
+                                       "off, found '" +
+                                       v->written + "'";
+          if (text == "off")
+            c.numerics.accuracy = 0;
+          else
+            {
+              std::size_t used = 0;
+              double value = 0;
+              try
+                {
+                  value = std::stod(text, &used);
+                }
+              catch (const std::exception &)
+                {
+                  reader.fail(*v, expected);
+                }
+              std::string rest = text.substr(used);
+              rest.erase(0, rest.find_first_not_of(' '));
+              if (rest == "%")
+                value /= 100;
+              else if (!rest.empty())
+                reader.fail(*v, expected);
+              if (!(value >= 1e-8 && value <= 0.1))
+                reader.fail(*v, expected);
+              c.numerics.accuracy = value;
+            }
+        }
+      c.numerics.accuracy_solves = static_cast<unsigned int>(reader.quantity("numerics", "accuracy_solves", 3));
     }
 
     /// Records @p section.@p key as given, or its default if it has one.

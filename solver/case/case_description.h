@@ -192,6 +192,10 @@ namespace fickcast
     unsigned int start_steps = 4; ///< implicit-Euler steps after every discontinuity (Crank-Nicolson)
     double initial_step = 0;      ///< s; 0: chosen from tolerance and end time
     double max_step = 0;          ///< s; 0: end / 20
+    /// Concentration (SI) under which a node's step error is measured absolutely (above it,
+    /// relative to the node's own value); 0: the concentration scale for every node. Set by the
+    /// accuracy check from the levels and point values asked for, not by a key.
+    double error_floor = 0;
   };
 
   enum class LinearSolverKind
@@ -209,6 +213,10 @@ namespace fickcast
     bool newton = true;                ///< Newton (else Picard) for concentration-dependent D
     double nonlinear_tolerance = 1e-8; ///< change per iteration relative to the concentration scale
     unsigned int max_nonlinear_iterations = 30;
+    /// Relative accuracy asked of each named result; 0: off. A case file's default is 1e-3;
+    /// a description built in code is off unless it says otherwise.
+    double accuracy = 0;
+    unsigned int accuracy_solves = 3; ///< most solves of the check
   };
 
   struct NamedPointSpec

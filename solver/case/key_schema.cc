@@ -214,6 +214,12 @@ namespace fickcast
       s.push_back(bounded(make("numerics", "max_nonlinear_iterations", K::integer, Dim::none, "30",
                                "iterations before a step is retried smaller or the run fails"),
                           1, false, 1000, false));
+      s.push_back(make("numerics", "accuracy", K::text, Dim::none, "1e-3",
+                       "relative accuracy of each named result (e.g. 1e-3 or 0.1 %), checked by solving again "
+                       "finer; off: one unchecked solve"));
+      s.push_back(bounded(make("numerics", "accuracy_solves", K::integer, Dim::none, "3",
+                               "most solves an accuracy check may take (each one refinement finer)"),
+                          2, false, 6, false));
       // [sweep]
       s.push_back(make("sweep", "vary.*", K::text, Dim::none, "",
                        "what-if: values of a case key, comma separated with units, or whole strings separated by |"));

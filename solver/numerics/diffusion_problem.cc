@@ -402,7 +402,7 @@ namespace fickcast
   }
 
   template <int dim>
-  double DiffusionProblem<dim>::concentration_scale() const
+  double DiffusionProblem<dim>::concentration_scale(const double t) const
   {
     double scale = 0;
     if (description_.initial.is_constant())
@@ -420,7 +420,7 @@ namespace fickcast
         if (boundaries_[b].kind() == BoundaryKind::concentration)
           {
             const Point<dim> &p = fixed_points_[k];
-            const double value = boundaries_[b].fixed_value(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, 0.0);
+            const double value = boundaries_[b].fixed_value(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, t);
             scale = std::max(scale, std::abs(value));
           }
       }
@@ -428,7 +428,7 @@ namespace fickcast
       scale = std::max(scale, std::abs(bath_value_[b]));
     for (unsigned int b = 0; b < boundaries_.size(); ++b)
       if (boundaries_[b].kind() == BoundaryKind::transfer && !boundaries_[b].ambient_function().depends_on_space())
-        scale = std::max(scale, std::abs(boundaries_[b].driving_at_time(0.0)));
+        scale = std::max(scale, std::abs(boundaries_[b].driving_at_time(t)));
     return Utilities::MPI::max(scale, communicator_);
   }
 

@@ -148,8 +148,9 @@ namespace fickcast
     /// u at t = 0: the initial phase concentration over the partition (saturation where a loading
     /// exceeds the solubility); fills the undissolved reserve and the bath values.
     void initial_state(Vector &u);
-    /// A scale for u: the largest initial and boundary value magnitude (collective, > 0 if any).
-    double concentration_scale() const;
+    /// A scale for u: the largest initial and boundary value magnitude, boundary values taken at
+    /// @p t in the current stage (collective, > 0 if any).
+    double concentration_scale(double t = 0) const;
     /// Zeroes the fixed unknowns of @p v (concentration boundaries and baths).
     void zero_fixed(Vector &v) const;
     /// Zeroes the nodes whose undissolved reserve ran out in the last step: their history has a

@@ -60,6 +60,29 @@ namespace fickcast
     double start = 0, end = 0; ///< s
   };
 
+  /// One solve of an accuracy check (numerics.accuracy): the mesh and step control it used.
+  struct SolveFacts
+  {
+    unsigned int refine = 0; ///< geometry.refine of this solve
+    double step_control = 0; ///< time.tolerance (adaptive steps) or time.step in s (fixed steps)
+    bool adaptive_steps = true;
+    unsigned long cells = 0, unknowns = 0;
+    unsigned int steps = 0;
+    double wall_time = 0; ///< s
+  };
+
+  /// What the accuracy check found: each named result's estimated error (SI, its unit).
+  struct AccuracyRecord
+  {
+    double requested = 0; ///< relative accuracy asked for; 0: off (one unchecked solve)
+    bool checked = false; ///< at least two solves were compared
+    bool met = false;     ///< every estimate within the request
+    std::vector<SolveFacts> solves;
+    std::map<std::string, double> estimates; ///< result name -> estimated error (SI); inf: the event
+                                             ///< happened in one solve only
+    std::string note;                        ///< why the check stopped short, if it did
+  };
+
   struct RunRecord
   {
     std::string status = "completed"; ///< completed, failed, interrupted (then no results are written)
@@ -100,5 +123,9 @@ namespace fickcast
     std::vector<std::string> lines;
     std::vector<double> output_times;
     std::map<std::string, double> timing; ///< wall seconds per phase
+    AccuracyRecord accuracy;
+    /// Signs that the numbers may be poor (coarse mesh where the species enters, values out of
+    /// range), one line each with the remedy.
+    std::vector<std::string> warnings;
   };
 } // namespace fickcast

@@ -240,6 +240,48 @@ namespace fickcast
         d["final"] = depth.depths.empty() ? not_a_number : depth.depths.back();
         results["depth." + depth.name] = d;
       }
+
+    Json::Value warnings(Json::arrayValue);
+    for (const auto &warning : r.warnings)
+      warnings.append(warning);
+    s["warnings"] = warnings;
+
+    // The accuracy check: an estimate beside each result it compared, and how it went.
+    Json::Value &accuracy = s["accuracy"];
+    const AccuracyRecord &a = r.accuracy;
+    if (a.requested > 0)
+      accuracy["requested"] = a.requested;
+    else
+      accuracy["requested"] = "off";
+    accuracy["relative_to"] = "each result itself";
+    accuracy["checked"] = a.checked;
+    accuracy["met"] = a.met;
+    accuracy["note"] = a.note;
+    Json::Value solves(Json::arrayValue);
+    for (const auto &solve : a.solves)
+      {
+        Json::Value item(Json::objectValue);
+        item["refine"] = solve.refine;
+        item[solve.adaptive_steps ? "time_tolerance" : "time_step_s"] = solve.step_control;
+        item["cells"] = static_cast<Json::UInt64>(solve.cells);
+        item["unknowns"] = static_cast<Json::UInt64>(solve.unknowns);
+        item["steps"] = solve.steps;
+        item["wall_time_s"] = solve.wall_time;
+        solves.append(item);
+      }
+    accuracy["solves"] = solves;
+    for (const auto &[name, estimate] : a.estimates)
+      {
+        if (!results.isMember(name))
+          continue;
+        if (std::isfinite(estimate))
+          results[name]["error_estimate"] = estimate;
+        else
+          {
+            results[name]["error_estimate"] = Json::Value(Json::nullValue);
+            results[name]["error_note"] = "reached in one solve of the check but not in the other";
+          }
+      }
     return s;
   }
 } // namespace fickcast

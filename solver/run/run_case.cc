@@ -4,6 +4,7 @@
 #include "numerics/collective.h"
 #include "numerics/run_size.h"
 #include "results/summary.h"
+#include "run/accuracy_check.h"
 #include "run/checkpoint.h"
 #include "run/results_folder.h"
 
@@ -15,10 +16,6 @@
 namespace fickcast
 {
   using namespace dealii;
-
-  namespace
-  {
-  } // namespace
 
   RunOutcome run_case(const CaseDescription &description, const RunOptions &options, MPI_Comm communicator)
   {
@@ -33,9 +30,8 @@ namespace fickcast
       if (rank == 0)
         {
           folder = std::make_unique<ResultsFolder>(target, options.overwrite,
-                                                   options.resume ? ResultsFolder::Progress(latest_checkpoint_step)
+                                                   options.resume ? ResultsFolder::Progress(accuracy_progress)
                                                                   : ResultsFolder::Progress());
-          std::filesystem::create_directories(folder->path() + "/fields");
           path = folder->path();
           resumed = folder->resumed();
         }
@@ -47,38 +43,55 @@ namespace fickcast
     checkpoints.every = description.output.checkpoint_every;
     checkpoints.resume = resumed;
 
-    // 1-D: rank 0 alone; 2-D and 3-D: everybody.
-    MPI_Comm solve_communicator = communicator;
-    MPI_Comm split = MPI_COMM_NULL;
-    if (description.dimension == 1 && Utilities::MPI::n_mpi_processes(communicator) > 1)
-      {
-        MPI_Comm_split(communicator, rank == 0 ? 0 : MPI_UNDEFINED, 0, &split);
-        solve_communicator = split;
-      }
+    // One solve (collective; the status on every rank). 1-D: rank 0 alone; 2-D and 3-D: everybody.
+    const SolveOnce solve = [&](const CaseDescription &c, const std::string &into, const CheckpointPolicy &policy) {
+      MPI_Comm solve_communicator = communicator;
+      MPI_Comm split = MPI_COMM_NULL;
+      if (c.dimension == 1 && Utilities::MPI::n_mpi_processes(communicator) > 1)
+        {
+          MPI_Comm_split(communicator, rank == 0 ? 0 : MPI_UNDEFINED, 0, &split);
+          solve_communicator = split;
+        }
+      RunRecord record;
+      collectively(communicator, [&] {
+        if (solve_communicator == MPI_COMM_NULL)
+          return;
+        const ProgressCallback progress = rank == 0 ? options.progress : ProgressCallback();
+        switch (c.dimension)
+          {
+            case 1:
+              record = simulate<1>(c, solve_communicator, into, progress, {}, policy);
+              break;
+            case 2:
+              record = simulate<2>(c, solve_communicator, into, progress, {}, policy);
+              break;
+            default:
+              record = simulate<3>(c, solve_communicator, into, progress, {}, policy);
+              break;
+          }
+      });
+      if (split != MPI_COMM_NULL)
+        MPI_Comm_free(&split);
+      record.status = Utilities::MPI::broadcast(communicator, record.status, 0);
+      return record;
+    };
 
     RunOutcome outcome;
-    collectively(communicator, [&] {
-      if (solve_communicator == MPI_COMM_NULL)
-        return;
-      const ProgressCallback progress = rank == 0 ? options.progress : ProgressCallback();
-      switch (description.dimension)
-        {
-          case 1:
-            outcome.record = simulate<1>(description, solve_communicator, path, progress, {}, checkpoints);
-            break;
-          case 2:
-            outcome.record = simulate<2>(description, solve_communicator, path, progress, {}, checkpoints);
-            break;
-          default:
-            outcome.record = simulate<3>(description, solve_communicator, path, progress, {}, checkpoints);
-            break;
-        }
-    });
-    if (split != MPI_COMM_NULL)
-      MPI_Comm_free(&split);
+    if (description.numerics.accuracy > 0)
+      outcome.record = check_accuracy(description, path, checkpoints, solve, communicator);
+    else
+      {
+        collectively(communicator, [&] {
+          if (rank == 0)
+            std::filesystem::create_directories(path + "/fields");
+        });
+        outcome.record = solve(description, path, checkpoints);
+        outcome.record.accuracy.solves.push_back(SolveFacts{
+          description.geometry.refine, description.time.adaptive ? description.time.tolerance : description.time.step,
+          description.time.adaptive, outcome.record.cells, outcome.record.unknowns, outcome.record.steps_accepted,
+          outcome.record.wall_time});
+      }
 
-    // 1-D: the other ranks learn the status from rank 0.
-    outcome.record.status = Utilities::MPI::broadcast(communicator, outcome.record.status, 0);
     if (outcome.record.status == "interrupted")
       {
         if (rank == 0 && options.checkpoints)

@@ -9,6 +9,7 @@
 #include "results/observers.h"
 #include "run/checkpoint.h"
 #include "run/field_view_of.h"
+#include "run/guards.h"
 #include "run/landing_times.h"
 
 #include <deal.II/base/mpi.h>
@@ -293,6 +294,20 @@ namespace fickcast
       }
     StepController controller(steps, clock_end);
     const double scale = std::max(problem.concentration_scale(), 1e-300);
+
+    // Guards: a mesh too coarse where the species enters; values outside the range of the data.
+    {
+      double first_output = c.time.end;
+      for (const double when : outputs)
+        if (when > 0)
+          {
+            first_output = std::min(first_output, when);
+            break;
+          }
+      record.warnings = resolution_warnings(problem, c, first_output);
+    }
+    RangeGuard range(1e-6, !has_source);
+    double range_upper = std::max(scale, u.linfty_norm());
     const bool dispersed = problem.has_dispersed_phase();
     double t = 0, s = 0;
     unsigned int step = 0, steps_since_restart = 0;
@@ -320,6 +335,9 @@ namespace fickcast
       a.put(amounts_prev);
       a.put(record.boundary_entered);
       a.put(record.output_times);
+      std::vector<double> guard = range.saved();
+      guard.push_back(range_upper);
+      a.put(guard);
       a.put(owned_values(u));
       a.put_count(history.size());
       for (const auto &h : history)
@@ -386,6 +404,14 @@ namespace fickcast
         amounts_prev = a.get_values();
         record.boundary_entered = a.get_values();
         record.output_times = a.get_values();
+        {
+          std::vector<double> guard = a.get_values();
+          if (guard.empty())
+            throw IoError("the checkpoint in " + folder + " is damaged (range guard)");
+          range_upper = guard.back();
+          guard.pop_back();
+          range.restore(guard);
+        }
         set_owned_values(u, a.get_values());
         const std::uint64_t kept = a.get_count();
         if (kept > 3 || rates_old.boundary_inflow.size() != n_boundaries || reaction_rate_old.size() != n_boundaries ||
@@ -567,12 +593,26 @@ namespace fickcast
                     predicted -= u_new;
                     problem.zero_fixed(predicted);
                     problem.zero_depleted(predicted);
-                    // Largest local error; with an undissolved reserve the root mean square, because
-                    // every node the dissolution front passes has a kink in its history.
-                    const double size = dispersed
-                                          ? predicted.l2_norm() / std::sqrt(static_cast<double>(predicted.size()))
-                                          : predicted.linfty_norm();
-                    const double error = factor * size / (c.time.tolerance * std::max(scale, u_new.linfty_norm()));
+                    // Largest local error, each node's relative to its own value but not below the
+                    // floor (time.error_floor; without one, the concentration scale: one absolute
+                    // yardstick for all nodes); with an undissolved reserve the root mean square,
+                    // because every node the dissolution front passes has a kink in its history.
+                    const double yardstick = std::max(scale, u_new.linfty_norm());
+                    const double floor = c.time.error_floor > 0
+                                           ? std::clamp(c.time.error_floor, 1e-10 * yardstick, yardstick)
+                                           : yardstick;
+                    double largest = 0, squares = 0;
+                    for (auto p = predicted.begin(), v = u_new.begin(); p != predicted.end(); ++p, ++v)
+                      {
+                        const double weighted = std::abs(*p) / std::max(std::abs(*v), floor);
+                        largest = std::max(largest, weighted);
+                        squares += weighted * weighted;
+                      }
+                    const double size =
+                      dispersed
+                        ? std::sqrt(Utilities::MPI::sum(squares, communicator) / static_cast<double>(predicted.size()))
+                        : Utilities::MPI::max(largest, communicator);
+                    const double error = factor * size / c.time.tolerance;
                     accepted = controller.judge(ds, error, order, shortened);
                   }
               }
@@ -649,6 +689,8 @@ namespace fickcast
             ++steps_since_restart;
             ++record.steps_accepted;
 
+            range_upper = std::max(range_upper, problem.concentration_scale(t));
+            range.observe(u.min(), u.max(), range_upper, t);
             observers.step(plan.t0, t1, problem.make_ghosted(u), remaining(u));
             for (auto &lag : lag_history)
               lag.second.emplace_back(t, boundary_rates[lag.first]);
@@ -753,6 +795,8 @@ namespace fickcast
           }
         record.time_lags.push_back(lag);
       }
+    for (const auto &warning : range.warnings())
+      record.warnings.push_back(warning);
     record.matrix_setups = problem.n_matrix_setups();
     record.wall_time = std::chrono::duration<double>(std::chrono::steady_clock::now() - wall_start).count();
     record.timing = problem.timer().seconds();

@@ -15,7 +15,7 @@ namespace fickcast::testing
   std::string scratch_folder(const std::string &name, MPI_Comm communicator = MPI_COMM_WORLD);
 
   /// Reads @p case_text (INI) as if it were the file `<name>.ini`, with the results folder
-  /// set to scratch_folder(name)/results.
+  /// set to scratch_folder(name)/results; numerics.accuracy is off unless the text sets it.
   CaseDescription describe(const std::string &case_text, const std::string &name,
                            MPI_Comm communicator = MPI_COMM_WORLD);
 

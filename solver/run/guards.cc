@@ -1,0 +1,133 @@
+#include "run/guards.h"
+
+#include "case/input_error.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <cmath>
+#include <cstdio>
+#include <limits>
+
+namespace fickcast
+{
+  using namespace dealii;
+
+  namespace
+  {
+    std::string number(const double value, const char *unit)
+    {
+      char text[64];
+      std::snprintf(text, sizeof text, "%.3g %s", value, unit);
+      return text;
+    }
+  } // namespace
+
+  template <int dim>
+  std::vector<std::string> resolution_warnings(const DiffusionProblem<dim> &problem, const CaseDescription &c,
+                                               const double first_output)
+  {
+    const auto &names = problem.names().boundaries;
+    const std::size_t n = names.size();
+    std::vector<double> spacing(n, 0.0), length_squared(n, std::numeric_limits<double>::max());
+    std::vector<bool> open(n, false);
+    for (const auto &stage : c.stages)
+      for (std::size_t b = 0; b < n; ++b)
+        if (const BoundarySpec *spec = stage.find_boundary(names[b]))
+          open[b] = open[b] || spec->kind == BoundaryKind::concentration || spec->kind == BoundaryKind::transfer ||
+                    spec->kind == BoundaryKind::bath;
+    for (const auto &cell : problem.dof_handler().active_cell_iterators())
+      {
+        if (!cell->is_locally_owned())
+          continue;
+        for (const unsigned int f : cell->face_indices())
+          {
+            if (!cell->at_boundary(f))
+              continue;
+            const unsigned int b = cell->face(f)->boundary_id();
+            if (b >= n || !open[b])
+              continue;
+            const double h = cell->diameter() / std::sqrt(static_cast<double>(dim)) / problem.degree();
+            const double d = problem.effective_diffusivity(cell->material_id(), cell->center(), 0.5 * first_output);
+            spacing[b] = std::max(spacing[b], h);
+            if (d > 0)
+              length_squared[b] = std::min(length_squared[b], d * first_output);
+          }
+      }
+    const MPI_Comm communicator = problem.communicator();
+    std::vector<std::string> warnings;
+    for (std::size_t b = 0; b < n; ++b)
+      {
+        const double h = Utilities::MPI::max(spacing[b], communicator);
+        const double l2 = Utilities::MPI::min(length_squared[b], communicator);
+        if (!open[b] || h == 0 || l2 >= std::numeric_limits<double>::max())
+          continue;
+        const double length = std::sqrt(l2);
+        if (h > length)
+          warnings.push_back("the nodes next to boundary '" + names[b] + "' are up to " + number(h, "m") +
+                             " apart, more than the diffusion length sqrt(D t) = " + number(length, "m") +
+                             " of the first output interval (to " + number(first_output, "s") +
+                             "): values near it are poor until the front has crossed several cells; refine the "
+                             "mesh there (cell sizes, geometry.refine) or keep numerics.accuracy on to measure "
+                             "the error");
+      }
+    return warnings;
+  }
+
+  void RangeGuard::observe(const double lowest, const double highest, const double upper, const double t)
+  {
+    if (!(upper > 0))
+      return;
+    last_below_ = std::min(0.0, lowest / upper);
+    last_above_ = check_upper_ ? std::max(0.0, (highest - upper) / upper) : 0.0;
+    if (lowest / upper < worst_below_)
+      {
+        worst_below_ = lowest / upper;
+        below_time_ = t;
+      }
+    if (check_upper_ && (highest - upper) / upper > worst_above_)
+      {
+        worst_above_ = (highest - upper) / upper;
+        above_time_ = t;
+      }
+  }
+
+  void RangeGuard::restore(const std::vector<double> &saved)
+  {
+    if (saved.size() != 6)
+      throw IoError("a checkpoint's range guard holds " + std::to_string(saved.size()) + " values, expected 6");
+    worst_below_ = saved[0];
+    below_time_ = saved[1];
+    worst_above_ = saved[2];
+    above_time_ = saved[3];
+    last_below_ = saved[4];
+    last_above_ = saved[5];
+  }
+
+  std::vector<std::string> RangeGuard::warnings() const
+  {
+    std::vector<std::string> warnings;
+    const auto at_end = [this](const double last) {
+      return last == 0 || std::abs(last) <= tolerance_ ? std::string("back in range by the end")
+                                                       : "still " + number(std::abs(last), "") + "at the end";
+    };
+    const std::string remedy = ": the mesh or the steps are too coarse for a front there, and values near it are poor "
+                               "while it lasts; refine the mesh (cell sizes, geometry.refine) or keep "
+                               "numerics.accuracy on";
+    if (worst_below_ < -tolerance_)
+      warnings.push_back("the concentration went below zero by " + number(-worst_below_, "") +
+                         "of the largest initial or boundary value (worst at t = " + number(below_time_, "s") + "; " +
+                         at_end(last_below_) + ")" + remedy);
+    if (worst_above_ > tolerance_)
+      warnings.push_back("the concentration rose above the largest initial or boundary value by " +
+                         number(worst_above_, "") + "of it (worst at t = " + number(above_time_, "s") + "; " +
+                         at_end(last_above_) + ")" + remedy);
+    return warnings;
+  }
+
+  template std::vector<std::string> resolution_warnings<1>(const DiffusionProblem<1> &, const CaseDescription &,
+                                                           double);
+  template std::vector<std::string> resolution_warnings<2>(const DiffusionProblem<2> &, const CaseDescription &,
+                                                           double);
+  template std::vector<std::string> resolution_warnings<3>(const DiffusionProblem<3> &, const CaseDescription &,
+                                                           double);
+} // namespace fickcast
