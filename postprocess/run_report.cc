@@ -27,7 +27,30 @@ namespace fickcast::post
       return format_number(value, 5) + (unit.empty() || unit == "1" ? "" : " " + unit);
     }
 
-    /// Headline results of summary.json, one row each: name, value, note.
+    /// The estimated error of a named result as the accuracy check wrote it, in the value's unit.
+    std::string estimate_text(const RunSummary &s, const std::string &name, const Json::Value &r, const DisplayUnit &c)
+    {
+      const bool checked = s.accuracy.isObject() && s.accuracy["checked"].asBool();
+      if (!checked)
+        return s.accuracy.isObject() ? "unchecked" : "";
+      if (r.isMember("error_note"))
+        return r["error_note"].asString();
+      if (!r.isMember("error_estimate") || !r["error_estimate"].isNumeric())
+        return "";
+      const double e = r["error_estimate"].asDouble();
+      if (name.rfind("point.", 0) == 0)
+        return "+- " + format_number(e / c.si_per_unit, 2) + " " + c.symbol;
+      if (name.rfind("depth.", 0) == 0)
+        return "+- " + format_number(e, 2) + " m";
+      if (name == "released_fraction.final")
+        return "+- " + format_number(100 * e, 2) + " %";
+      const std::string unit = r["unit"].isString() ? r["unit"].asString() : "";
+      if (unit == "s")
+        return "+- " + format_time(e);
+      return "+- " + format_number(e, 2) + (unit.empty() || unit == "1" ? "" : " " + unit);
+    }
+
+    /// Headline results of summary.json, one row each: name, value, estimated error, note.
     std::vector<std::vector<std::string>> headline_rows(const RunSummary &s, const DisplayUnit &c)
     {
       std::vector<std::vector<std::string>> rows;
@@ -35,6 +58,7 @@ namespace fickcast::post
       for (const auto &name : s.results.getMemberNames())
         {
           const Json::Value &r = s.results[name];
+          const std::size_t before = rows.size();
           const double value = r["value"].isNumeric() ? r["value"].asDouble() : std::nan("");
           const std::string unit = r["unit"].isString() ? r["unit"].asString() : "";
           if (name.rfind("threshold.", 0) == 0)
@@ -61,8 +85,54 @@ namespace fickcast::post
                             "amount, mean position and variance in summary.json"});
           else if (r.isObject() && r["value"].isNumeric())
             rows.push_back({name, quantity(value, unit), ""});
+          if (rows.size() > before)
+            rows.back().insert(rows.back().begin() + 2, name == "moments" ? "" : estimate_text(s, name, r, c));
         }
       return rows;
+    }
+
+    /// How the accuracy check went, and the warnings of the run.
+    std::string accuracy_section(const RunSummary &s)
+    {
+      std::string html;
+      const Json::Value &a = s.accuracy;
+      if (a.isObject())
+        {
+          if (!a["checked"].asBool() && a["requested"].isString())
+            html += "<p>numerics.accuracy = off: one solve, <strong>the numbers are unchecked</strong> (no error "
+                    "estimate).</p>\n";
+          else
+            {
+              std::vector<std::vector<std::string>> rows;
+              for (const auto &solve : a["solves"])
+                rows.push_back({std::to_string(solve["refine"].asUInt()),
+                                solve.isMember("time_tolerance") ? format_number(solve["time_tolerance"].asDouble(), 3)
+                                                                 : format_time(solve["time_step_s"].asDouble()),
+                                std::to_string(solve["cells"].asUInt64()), std::to_string(solve["unknowns"].asUInt64()),
+                                std::to_string(solve["steps"].asUInt()),
+                                format_number(solve["wall_time_s"].asDouble(), 3)});
+              html +=
+                "<p>Accuracy asked of each named result: " +
+                html_escape(a["requested"].isNumeric() ? format_number(a["requested"].asDouble(), 3)
+                                                       : a["requested"].asString()) +
+                " relative to the result itself; " +
+                (a["met"].asBool() ? std::string("<strong>met</strong>") : std::string("<strong>not met</strong>")) +
+                ". Each estimate comes from the change of the result between solves one refinement apart "
+                "in space and time (the results shown are the last solve's).</p>\n";
+              if (!a["note"].asString().empty())
+                html += "<p>" + html_escape(a["note"].asString()) + "</p>\n";
+              html += html_table({"refine", "time tolerance or step", "cells", "unknowns", "steps", "wall time (s)"},
+                                 rows, "solves");
+            }
+        }
+      if (!s.warnings.empty())
+        {
+          html += "<h3>Warnings</h3>\n<ul class=\"warnings\">\n";
+          for (const auto &warning : s.warnings)
+            html += "<li>" + html_escape(warning) + "</li>\n";
+          html += "</ul>\n";
+        }
+      return html;
     }
 
     std::string settings_table(const RunSummary &s, const bool defaults)
@@ -172,7 +242,8 @@ namespace fickcast::post
     body += "<h2>Headline results</h2>\n";
     const auto rows = headline_rows(s, c);
     body += rows.empty() ? "<p>The case asked for no named results.</p>\n"
-                         : html_table({"result", "value", "meaning"}, rows, "results");
+                         : html_table({"result", "value", "estimated error", "meaning"}, rows, "results");
+    body += accuracy_section(s);
 
     body += "<h2>Mass balance</h2>\n";
     const bool closed = std::isfinite(s.balance_relative) && std::abs(s.balance_relative) <= 1e-6;

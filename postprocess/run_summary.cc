@@ -132,6 +132,13 @@ namespace fickcast::post
     s.balance_error = read.number_or_nan("mass_balance.error.value");
     s.balance_relative = read.number_or_nan("mass_balance.relative");
     s.results = read.at("results", Json::objectValue);
+    // Written since the accuracy check (issue 23); absent in older summaries.
+    if (root.isMember("accuracy") && root["accuracy"].isObject())
+      s.accuracy = root["accuracy"];
+    if (root.isMember("warnings") && root["warnings"].isArray())
+      for (const auto &warning : root["warnings"])
+        if (warning.isString())
+          s.warnings.push_back(warning.asString());
     return s;
   }
 

@@ -64,7 +64,9 @@ namespace fickcast::post
     double wall_time = 0;
     double balance_error = 0;
     double balance_relative = 0;
-    Json::Value results; ///< the `results` object as written
+    Json::Value results;               ///< the `results` object as written
+    Json::Value accuracy;              ///< the `accuracy` object (null if the summary has none)
+    std::vector<std::string> warnings; ///< signs that numbers may be poor, with remedies
 
     /// The echoed setting @p key, or nullptr.
     const EchoedSetting *setting(const std::string &key) const;

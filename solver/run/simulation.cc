@@ -594,12 +594,13 @@ namespace fickcast
                     problem.zero_fixed(predicted);
                     problem.zero_depleted(predicted);
                     // Largest local error, each node's relative to its own value but not below the
-                    // floor (time.error_floor; without one, the concentration scale: one absolute
-                    // yardstick for all nodes); with an undissolved reserve the root mean square,
+                    // floor (time.error_floor, at least 1e-3 of the concentration scale: deeper, the
+                    // steps would shrink for every node of a front's foot; without one, the scale:
+                    // one absolute yardstick for all nodes); with an undissolved reserve the root mean square,
                     // because every node the dissolution front passes has a kink in its history.
                     const double yardstick = std::max(scale, u_new.linfty_norm());
                     const double floor = c.time.error_floor > 0
-                                           ? std::clamp(c.time.error_floor, 1e-10 * yardstick, yardstick)
+                                           ? std::clamp(c.time.error_floor, 1e-3 * yardstick, yardstick)
                                            : yardstick;
                     double largest = 0, squares = 0;
                     for (auto p = predicted.begin(), v = u_new.begin(); p != predicted.end(); ++p, ++v)
