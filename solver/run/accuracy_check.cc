@@ -283,10 +283,7 @@ namespace fickcast
         const bool met = Utilities::MPI::broadcast(communicator, accuracy.met, 0);
         if (met)
           break;
-        // A first solve whose step error was measured without the point values (found by it)
-        // is a scout: the solves after it do not count it.
-        const bool scout = floors.size() >= 2 && floors[1] > 0 && (floors[0] == 0 || floors[0] > 2 * floors[1]);
-        if (k + 1 >= most + (scout ? 1 : 0))
+        if (k + 1 >= most)
           {
             accuracy.note = "not met after " + std::to_string(k + 1) +
                             " solves (numerics.accuracy_solves); the estimates say by how much";

@@ -31,9 +31,7 @@ namespace fickcast
    * relative to each node's own value down to half the smallest level or point value the case
    * reports (time.error_floor); from the second solve on, each named result's error is
    * estimated from its changes between solves, and the check ends when every estimate is
-   * within the request relative to its result, after numerics.accuracy_solves solves (one more
-   * when the first solve did not know the point values its successors measure the step error
-   * against), or when
+   * within the request relative to its result, after numerics.accuracy_solves solves, or when
    * the next solve would not fit the machine (the record's note says which). The last solve's
    * files are moved into @p folder and the solve-k folders removed; the returned record is the
    * last solve's, with the estimates in record.accuracy. A solve that fails or is interrupted
