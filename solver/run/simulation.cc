@@ -11,6 +11,7 @@
 #include "run/field_view_of.h"
 #include "run/guards.h"
 #include "run/landing_times.h"
+#include "run/step_error.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -296,16 +297,7 @@ namespace fickcast
     const double scale = std::max(problem.concentration_scale(), 1e-300);
 
     // Guards: a mesh too coarse where the species enters; values outside the range of the data.
-    {
-      double first_output = c.time.end;
-      for (const double when : outputs)
-        if (when > 0)
-          {
-            first_output = std::min(first_output, when);
-            break;
-          }
-      record.warnings = resolution_warnings(problem, c, first_output);
-    }
+    record.warnings = resolution_warnings(problem, c, first_output_time(c.time.end, outputs));
     RangeGuard range(1e-6, !has_source);
     double range_upper = std::max(scale, u.linfty_norm());
     const bool dispersed = problem.has_dispersed_phase();
@@ -593,26 +585,8 @@ namespace fickcast
                     predicted -= u_new;
                     problem.zero_fixed(predicted);
                     problem.zero_depleted(predicted);
-                    // Largest local error, each node's relative to its own value but not below the
-                    // floor (time.error_floor, at least 1e-3 of the concentration scale: deeper, the
-                    // steps would shrink for every node of a front's foot; without one, the scale:
-                    // one absolute yardstick for all nodes); with an undissolved reserve the root mean square,
-                    // because every node the dissolution front passes has a kink in its history.
-                    const double yardstick = std::max(scale, u_new.linfty_norm());
-                    const double floor = c.time.error_floor > 0
-                                           ? std::clamp(c.time.error_floor, 1e-3 * yardstick, yardstick)
-                                           : yardstick;
-                    double largest = 0, squares = 0;
-                    for (auto p = predicted.begin(), v = u_new.begin(); p != predicted.end(); ++p, ++v)
-                      {
-                        const double weighted = std::abs(*p) / std::max(std::abs(*v), floor);
-                        largest = std::max(largest, weighted);
-                        squares += weighted * weighted;
-                      }
                     const double size =
-                      dispersed
-                        ? std::sqrt(Utilities::MPI::sum(squares, communicator) / static_cast<double>(predicted.size()))
-                        : Utilities::MPI::max(largest, communicator);
+                      weighted_step_error(predicted, u_new, scale, c.time.error_floor, dispersed, communicator);
                     const double error = factor * size / c.time.tolerance;
                     accepted = controller.judge(ds, error, order, shortened);
                   }

@@ -184,11 +184,11 @@ namespace
   // the request relative to the point's value; the cost is all of its solves.
   Cost fickcast_checked_run(const double cell, const double accuracy)
   {
-    std::string text = "[case]\ntitle = accuracy\n[geometry]\nlayers = medium " + number(accuracy_depth) +
-                       " m\ncell_size = " + number(cell) + " m\n[region.medium]\ndiffusivity = " + number(accuracy_d) +
-                       " m2/s\n[boundary.top]\ntype = concentration\nvalue = 1 mol/m3\n[time]\nend = " +
-                       number(accuracy_end) + " s\n[numerics]\naccuracy = " + number(accuracy) +
-                       "\naccuracy_solves = 5\n[output]\nfields = false\n";
+    std::string text =
+      "[case]\ntitle = accuracy\n[geometry]\nlayers = medium " + number(accuracy_depth) +
+      " m\ncell_size = " + number(cell) + " m\n[region.medium]\ndiffusivity = " + number(accuracy_d) +
+      " m2/s\n[boundary.top]\ntype = concentration\nvalue = 1 mol/m3\n[time]\nend = " + number(accuracy_end) +
+      " s\n[numerics]\naccuracy = " + number(accuracy) + "\naccuracy_solves = 5\n[output]\nfields = false\n";
     for (int i = 0; i < accuracy_points; ++i)
       text += "point.p" + std::to_string(i) + " = " + number(point_depth(i)) + " m\n";
     CaseDescription description = read_case_text(text, "checked.ini");

@@ -176,8 +176,8 @@ depth.junction = 1e16 1/cm3
         return ns * boost::math::erfc(s / (2 * std::sqrt(dt1))) * g *
                (std::exp(-(x - s) * (x - s) / (4 * dt2)) + std::exp(-(x + s) * (x + s) / (4 * dt2)));
       };
-      return boost::math::quadrature::gauss_kronrod<double, 61>::integrate(integrand, 0.0, x + 14 * std::sqrt(dt2),
-                                                                           15, 1e-13);
+      return boost::math::quadrature::gauss_kronrod<double, 61>::integrate(integrand, 0.0, x + 14 * std::sqrt(dt2), 15,
+                                                                           1e-13);
     };
     double low = 0, high = 20 * std::sqrt(dt2);
     for (int i = 0; i < 200 && high - low > 1e-16; ++i)
@@ -216,11 +216,10 @@ release.half = 50 %
 release.most = 90 %
 )";
     const RunRecord record = run(describe(text, "accuracy_sheet"));
-    expect_honest(record,
-                  {{"release.half", 0.196730739524},
-                   {"release.most", 0.848085408046},
-                   {"released_fraction.final", 0.931259678463}},
-                  1e-3, "sheet");
+    expect_honest(
+      record,
+      {{"release.half", 0.196730739524}, {"release.most", 0.848085408046}, {"released_fraction.final", 0.931259678463}},
+      1e-3, "sheet");
   }
 
   // 5. Membrane 0 < x < l, initially empty, upstream face held, downstream face at zero: the
