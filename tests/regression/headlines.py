@@ -195,7 +195,7 @@ EXPECT = {
 }
 
 # README.md: the demo command's headline (compared to the digits written, 3 for 2.42).
-README = [(r"threshold\.mid: (\S+) yr \(point mid reaches", "yr", "two_layer_front",
+README = [(r"threshold\.mid: (\S+) yr(?: \+- \S+ yr \(estimated\))? \(point mid reaches", "yr", "two_layer_front",
            "threshold.mid", "digits")]
 
 # Units that are written in a results file or a header but are not SI: unit -> (SI unit, factor).
