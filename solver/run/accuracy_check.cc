@@ -28,19 +28,23 @@ namespace fickcast
       return folder + "/solve-" + std::to_string(k);
     }
 
-    SolveFacts facts_of(const CaseDescription &c, const RunRecord &r)
-    {
-      SolveFacts f;
-      f.refine = c.geometry.refine;
-      f.adaptive_steps = c.time.adaptive;
-      f.step_control = c.time.adaptive ? c.time.tolerance : c.time.step;
-      f.cells = r.cells;
-      f.unknowns = r.unknowns;
-      f.steps = r.steps_accepted;
-      f.wall_time = r.wall_time;
-      return f;
-    }
+  } // namespace
 
+  SolveFacts facts_of(const CaseDescription &c, const RunRecord &r)
+  {
+    SolveFacts f;
+    f.refine = c.geometry.refine;
+    f.adaptive_steps = c.time.adaptive;
+    f.step_control = c.time.adaptive ? c.time.tolerance : c.time.step;
+    f.cells = r.cells;
+    f.unknowns = r.unknowns;
+    f.steps = r.steps_accepted;
+    f.wall_time = r.wall_time;
+    return f;
+  }
+
+  namespace
+  {
     Json::Value solve_json(const std::vector<std::pair<std::string, double>> &values, const SolveFacts &f)
     {
       Json::Value s(Json::objectValue);

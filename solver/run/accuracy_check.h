@@ -23,6 +23,9 @@ namespace fickcast
    * a second-order scheme's global error falls fourfold; fixed steps: time.step / 2, likewise
    * the first and largest steps).
    */
+  /// What one solve of @p c used and cost, from its record.
+  SolveFacts facts_of(const CaseDescription &c, const RunRecord &record);
+
   CaseDescription refined_case(const CaseDescription &description, unsigned int level);
 
   /**

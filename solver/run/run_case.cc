@@ -86,10 +86,7 @@ namespace fickcast
             std::filesystem::create_directories(path + "/fields");
         });
         outcome.record = solve(description, path, checkpoints);
-        outcome.record.accuracy.solves.push_back(SolveFacts{
-          description.geometry.refine, description.time.adaptive ? description.time.tolerance : description.time.step,
-          description.time.adaptive, outcome.record.cells, outcome.record.unknowns, outcome.record.steps_accepted,
-          outcome.record.wall_time});
+        outcome.record.accuracy.solves.push_back(facts_of(description, outcome.record));
       }
 
     if (outcome.record.status == "interrupted")
