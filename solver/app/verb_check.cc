@@ -106,6 +106,10 @@ namespace fickcast
               << "mesh: " << mesh.cells << " cells, " << mesh.unknowns << " unknowns (degree "
               << description.numerics.degree << "), cell sizes " << mesh.smallest_cell << " to " << mesh.largest_cell
               << " m\n";
+    if (!mesh.refinement_note.empty())
+      std::cout << "mesh near open faces: " << mesh.refinement_note << "\n";
+    if (!mesh.refinement_warning.empty())
+      std::cout << "warning: " << mesh.refinement_warning << "\n";
     // A distortion measure (the smallest over the largest Jacobian determinant in a cell): 1 for
     // boxes and parallelograms; near 0 the cell is close to collapse and the solution there is poor.
     std::string centre;

@@ -78,6 +78,15 @@ namespace fickcast
         reader.fail(*v, "not used " + why + ", found '" + v->written + "'");
     };
     g.refine = static_cast<unsigned int>(reader.quantity("geometry", "refine", 0));
+    const std::string open_faces = reader.text("geometry", "open_face_refinement");
+    g.open_face_refinement = open_faces == "on"    ? OpenFaceRefinement::on
+                             : open_faces == "off" ? OpenFaceRefinement::off
+                                                   : OpenFaceRefinement::automatic;
+    g.open_face_cell = reader.quantity("geometry", "open_face_cell", 0.0);
+    g.open_face_band = reader.quantity("geometry", "open_face_band", 0.0);
+    for (const char *key : {"open_face_cell", "open_face_band"})
+      if (g.open_face_refinement == OpenFaceRefinement::off)
+        forbid(key, "with geometry.open_face_refinement = off");
     if (const auto *mesh = reader.get("geometry", "mesh"))
       {
         for (const char *key : {"layers", "width", "length", "radius", "inner_radius", "side_coating", "grade_toward",

@@ -80,6 +80,15 @@ namespace fickcast
       s.push_back(bounded(make("geometry", "refine", K::integer, Dim::none, "0",
                                "global refinements of the mesh (each halves the cell size)"),
                           0, false, 8, false));
+      s.push_back(choices(make("geometry", "open_face_refinement", K::choice, Dim::none, "auto",
+                               "refine the cells in a band next to the faces where the species enters or leaves "
+                               "(concentration, transfer, bath): on, off, or auto (on when numerics.accuracy is on)"),
+                          {"auto", "on", "off"}));
+      s.push_back(with_auto(positive(make("geometry", "open_face_cell", K::quantity, Dim::length, "",
+                                          "largest cell in that band; auto: element degree x the diffusion length "
+                                          "sqrt(D t) of the whole run / 4"))));
+      s.push_back(with_auto(positive(make("geometry", "open_face_band", K::quantity, Dim::length, "",
+                                          "depth of that band; auto: 8 diffusion lengths of the whole run"))));
       s.push_back(with_auto(positive(
         make("geometry", "cell_size", K::quantity, Dim::length, "", "target cell size; auto: total thickness / 100"))));
       s.push_back(positive(make("geometry", "width", K::quantity, Dim::length, "", "extent along x (2-D and 3-D)")));

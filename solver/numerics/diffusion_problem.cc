@@ -63,13 +63,12 @@ namespace fickcast
   }
 
   template <int dim>
-  void DiffusionProblem<dim>::setup()
+  void DiffusionProblem<dim>::build_mesh()
   {
-    PhaseTimer::Scope scope(timer_, "setup");
     make_mesh();
 
     // Regions: how each diffusivity enters the operator.
-    int n_unit = 0;
+    n_unit_ = 0;
     for (const auto &name : names_.regions)
       {
         const RegionSpec *region = description_.find_region(name);
@@ -85,7 +84,7 @@ namespace fickcast
         dispersed_ = dispersed_ || material.has_dispersed_phase();
         if (!dynamic && d.uniform_in_space() && d.depends_on_time())
           {
-            unit_index_.push_back(n_unit++);
+            unit_index_.push_back(n_unit_++);
             if (clock_region_ < 0)
               {
                 clock_region_ = static_cast<int>(materials_.size()) - 1;
@@ -97,6 +96,14 @@ namespace fickcast
         else
           unit_index_.push_back(-1);
       }
+    refine_near_open_faces();
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::setup()
+  {
+    PhaseTimer::Scope scope(timer_, "setup");
+    build_mesh();
 
     // K of the region touching each boundary (any rank that sees the boundary reports it).
     boundary_partition_.assign(names_.boundaries.size(), -1.0);
@@ -137,7 +144,7 @@ namespace fickcast
       }
 
     setup_dofs();
-    unit_.resize(static_cast<std::size_t>(n_unit));
+    unit_.resize(static_cast<std::size_t>(n_unit_));
     reinit(mass_);
     reinit(static_);
     for (auto &pair : unit_)
@@ -175,6 +182,11 @@ namespace fickcast
     dof_handler_.distribute_dofs(fe_);
     owned_ = dof_handler_.locally_owned_dofs();
     DoFTools::extract_locally_relevant_dofs(dof_handler_, relevant_);
+    hanging_.clear();
+    hanging_.reinit(relevant_);
+    DoFTools::make_hanging_node_constraints(dof_handler_, hanging_);
+    hanging_.close();
+    has_hanging_ = Utilities::MPI::max(hanging_.n_constraints(), communicator_) > 0;
     reserve_ = make_vector();
     reserve_trial_ = make_vector();
     saturation_ = make_vector();
@@ -206,7 +218,7 @@ namespace fickcast
   void DiffusionProblem<dim>::reinit(MatrixPair &pair)
   {
     DynamicSparsityPattern pattern(relevant_);
-    DoFTools::make_sparsity_pattern(dof_handler_, pattern);
+    DoFTools::make_sparsity_pattern(dof_handler_, pattern, hanging_, true);
     SparsityTools::distribute_sparsity_pattern(pattern, owned_, communicator_, relevant_);
     pair.full.reinit(owned_, owned_, pattern, communicator_);
     pair.constrained.reinit(owned_, owned_, pattern, communicator_);
@@ -250,6 +262,7 @@ namespace fickcast
     // Fixed unknowns: concentration boundaries and baths; the first boundary (by id) wins at corners.
     constraints_.clear();
     constraints_.reinit(relevant_);
+    DoFTools::make_hanging_node_constraints(dof_handler_, constraints_);
     fixed_dofs_.clear();
     fixed_points_.clear();
     std::map<types::global_dof_index, unsigned int> owner_boundary;
@@ -263,7 +276,8 @@ namespace fickcast
         for (const auto &[dof, value] : values)
           {
             (void)value;
-            if (owner_boundary.count(dof) == 0)
+            // A hanging node on the face follows its parents (which carry the value).
+            if (owner_boundary.count(dof) == 0 && !hanging_.is_constrained(dof))
               owner_boundary[dof] = b;
           }
       }
@@ -384,6 +398,22 @@ namespace fickcast
         (void)boundary;
         v[dof] = 0;
       }
+    v.compress(VectorOperation::insert);
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::distribute(Vector &v) const
+  {
+    if (has_hanging_)
+      hanging_.distribute(v);
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::zero_hanging(Vector &v) const
+  {
+    for (const auto &line : hanging_.get_lines())
+      if (owned_.is_element(line.index))
+        v[line.index] = 0;
     v.compress(VectorOperation::insert);
   }
 
@@ -564,11 +594,12 @@ namespace fickcast
               for (unsigned int i = 0; i < dofs.size(); ++i)
                 local(i) +=
                   excess * values.shape_value(i, q) * coordinate_weight(values.quadrature_point(q)) * values.JxW(q);
-            reserve_.add(dofs, local);
+            hanging_.distribute_local_to_global(local, dofs, reserve_);
           }
         reserve_.compress(VectorOperation::add);
       }
     reserve_trial_ = reserve_;
+    distribute(u);
     check_coefficients(); // a non-finite initial value on any rank: one InputError on every rank
   }
 

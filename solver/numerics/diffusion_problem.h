@@ -85,7 +85,9 @@ namespace fickcast
    * residual at them gives the reactions (boundary fluxes). A bath's value follows from its mass
    * balance by superposition. Undissolved content (loading above solubility) sits in a nodal
    * reserve; nodes holding reserve stay at saturation (an active set).
-   * Distributed over MPI ranks in 2-D and 3-D (p4est); 1-D runs on one rank.
+   * Distributed over MPI ranks in 2-D and 3-D (p4est); 1-D runs on one rank. On a locally
+   * refined mesh the operators are condensed with the hanging-node constraints (their rows carry
+   * only a diagonal) and every state is distributed after a solve.
    */
   template <int dim>
   class DiffusionProblem
@@ -96,7 +98,9 @@ namespace fickcast
     DiffusionProblem(const CaseDescription &description, MPI_Comm communicator);
     ~DiffusionProblem();
 
-    /// Builds the mesh, the space and the models; applies the first stage.
+    /// Builds the mesh (refined next to open faces) and the models of the regions.
+    void build_mesh();
+    /// build_mesh(), then the space and the operators; applies the first stage.
     void setup();
     /// Applies the boundary conditions of stage @p stage (rebuilds constraints and operators).
     void set_stage(unsigned int stage);
@@ -141,6 +145,10 @@ namespace fickcast
     bool has_clock() const { return clock_region_ >= 0; }
     bool is_nonlinear() const { return nonlinear_; }
     bool has_dispersed_phase() const { return dispersed_; }
+    /// What the refinement next to open faces did ("" if none), and a warning if it stopped at
+    /// the size limit before reaching its target ("" if not).
+    const std::string &refinement_note() const { return refinement_note_; }
+    const std::string &refinement_warning() const { return refinement_warning_; }
 
     // --- state
     Vector make_vector() const;
@@ -197,6 +205,13 @@ namespace fickcast
 
     // Set-up (diffusion_problem.cc).
     void make_mesh();
+    /// Refines the cells in a band next to the faces where the species enters or leaves
+    /// (geometry.open_face_*; open_face_refinement.cc).
+    void refine_near_open_faces();
+    /// Sets the hanging-node values of @p v from their parents (a no-op on a conforming mesh).
+    void distribute(Vector &v) const;
+    /// Zeroes the rows of hanging nodes in @p v (residuals: those rows carry no equation).
+    void zero_hanging(Vector &v) const;
     void setup_dofs();
     void setup_fixed_unknowns();
     void reinit(MatrixPair &pair);
@@ -229,11 +244,15 @@ namespace fickcast
     dealii::MappingQ<dim> mapping_;
     dealii::DoFHandler<dim> dof_handler_;
     dealii::IndexSet owned_, relevant_;
-    dealii::AffineConstraints<double> constraints_;
+    dealii::AffineConstraints<double> hanging_;     ///< hanging-node constraints of a locally refined mesh
+    dealii::AffineConstraints<double> constraints_; ///< hanging nodes and fixed unknowns
+    bool has_hanging_ = false;                      ///< on any rank
+    std::string refinement_note_, refinement_warning_;
     unsigned int stage_ = 0;
 
     // Model by material id and boundary id.
     std::vector<Material> materials_;
+    int n_unit_ = 0;
     std::vector<int> unit_index_; ///< per region: index into unit_ (D uniform, time-dependent), or -1
     std::vector<bool> dynamic_;   ///< per region: assembled per time or iterate
     int clock_region_ = -1;

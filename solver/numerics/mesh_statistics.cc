@@ -1,6 +1,7 @@
 #include "numerics/mesh_statistics.h"
 
 #include "geometry/mesh_import.h"
+#include "numerics/diffusion_problem.h"
 #include "geometry/mesh_quality.h"
 
 #include <deal.II/base/mpi.h>
@@ -17,16 +18,16 @@ namespace fickcast
     template <int dim>
     MeshStatistics count(const CaseDescription &c, MPI_Comm communicator)
     {
-      std::unique_ptr<dealii::Triangulation<dim>> triangulation;
-      if constexpr (dim == 1)
-        triangulation = std::make_unique<dealii::Triangulation<dim>>();
-      else
-        triangulation = std::make_unique<dealii::parallel::distributed::Triangulation<dim>>(communicator);
-      make_mesh<dim>(*triangulation, c.geometry);
+      // The mesh as a run builds it (refined next to open faces), without the operators.
+      DiffusionProblem<dim> problem(c, communicator);
+      problem.build_mesh();
+      const dealii::Triangulation<dim> *triangulation = &problem.triangulation();
       const dealii::FE_Q<dim> fe(c.numerics.degree);
       dealii::DoFHandler<dim> dofs(*triangulation);
       dofs.distribute_dofs(fe);
       MeshStatistics statistics;
+      statistics.refinement_note = problem.refinement_note();
+      statistics.refinement_warning = problem.refinement_warning();
       statistics.cells = triangulation->n_global_active_cells();
       statistics.unknowns = dofs.n_dofs();
       double smallest = 1e300, largest = 0, worst = 2;
@@ -54,6 +55,7 @@ namespace fickcast
         statistics.worst_cell_centre[d] = centre[d];
       statistics.smallest_cell = dealii::Utilities::MPI::min(smallest, communicator);
       statistics.largest_cell = dealii::Utilities::MPI::max(largest, communicator);
+      dofs.clear();
       return statistics;
     }
   } // namespace

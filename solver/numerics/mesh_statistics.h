@@ -6,6 +6,7 @@
 #include <mpi.h>
 
 #include <array>
+#include <string>
 
 namespace fickcast
 {
@@ -18,8 +19,11 @@ namespace fickcast
     /// The most distorted cell: its Jacobian ratio (geometry/mesh_quality.h; 1 for a box) and centre.
     double worst_jacobian_ratio = 1;
     std::array<double, 3> worst_cell_centre{{0, 0, 0}};
+    std::string refinement_note;    ///< what the refinement next to open faces did ("" if none)
+    std::string refinement_warning; ///< it stopped at the size limit ("" if not)
   };
 
-  /// Builds the mesh and the finite-element space of @p description and counts (collective).
+  /// Builds the mesh (as a run would) and the finite-element space of @p description and counts
+  /// (collective).
   MeshStatistics count_mesh(const CaseDescription &description, MPI_Comm communicator);
 } // namespace fickcast

@@ -126,24 +126,24 @@ namespace fickcast
                           h * fe_face_values.shape_value(i, q) * fe_face_values.shape_value(j, q) * w;
                   }
               }
-            boundary_load_[b].add(dofs, face_load);
+            hanging_.distribute_local_to_global(face_load, dofs, boundary_load_[b]);
             if (kind == BoundaryKind::transfer)
-              transfer_rowsum_[b].add(dofs, face_load); // row sums of the boundary mass matrix
+              hanging_.distribute_local_to_global(face_load, dofs, transfer_rowsum_[b]); // boundary mass row sums
           }
 
-        mass_.full.add(dofs, local_mass);
+        hanging_.distribute_local_to_global(local_mass, dofs, mass_.full);
         constraints_.distribute_local_to_global(local_mass, dofs, mass_.constrained);
-        static_.full.add(dofs, local_static);
+        hanging_.distribute_local_to_global(local_static, dofs, static_.full);
         constraints_.distribute_local_to_global(local_static, dofs, static_.constrained);
         if (unit >= 0)
           {
-            unit_[static_cast<std::size_t>(unit)].full.add(dofs, local_unit);
+            hanging_.distribute_local_to_global(local_unit, dofs, unit_[static_cast<std::size_t>(unit)].full);
             constraints_.distribute_local_to_global(local_unit, dofs,
                                                     unit_[static_cast<std::size_t>(unit)].constrained);
           }
-        region_mass_[region].add(dofs, local_rowsum);
-        region_load_[region].add(dofs, local_load);
-        decay_weights_.add(dofs, local_decay);
+        hanging_.distribute_local_to_global(local_rowsum, dofs, region_mass_[region]);
+        hanging_.distribute_local_to_global(local_load, dofs, region_load_[region]);
+        hanging_.distribute_local_to_global(local_decay, dofs, decay_weights_);
       }
     for (MatrixPair *pair : {&mass_, &static_})
       {
@@ -217,7 +217,7 @@ namespace fickcast
                     (g * (grad_i * fe_values.shape_grad(j, q)) + dg * fe_values.shape_value(j, q) * grad_u_dot_i) * w;
               }
           }
-        dynamic_matrices_.full.add(dofs, local);
+        hanging_.distribute_local_to_global(local, dofs, dynamic_matrices_.full);
         constraints_.distribute_local_to_global(local, dofs, dynamic_matrices_.constrained);
       }
     dynamic_matrices_.full.compress(VectorOperation::add);
@@ -261,7 +261,7 @@ namespace fickcast
             for (unsigned int i = 0; i < n; ++i)
               local(i) += g * (u_gradients[q] * fe_values.shape_grad(i, q)) * w;
           }
-        contribution.add(dofs, local);
+        hanging_.distribute_local_to_global(local, dofs, contribution);
       }
     contribution.compress(VectorOperation::add);
     out += contribution;
@@ -341,7 +341,7 @@ namespace fickcast
                 for (unsigned int i = 0; i < n; ++i)
                   local(i) += factor * value * fe_face_values.shape_value(i, q) * w;
               }
-            load.add(dofs, local);
+            hanging_.distribute_local_to_global(local, dofs, load);
           }
       }
     load.compress(VectorOperation::add);
@@ -382,7 +382,7 @@ namespace fickcast
             for (unsigned int i = 0; i < n; ++i)
               local(i) += s * fe_values.shape_value(i, q) * w;
           }
-        f.add(dofs, local);
+        hanging_.distribute_local_to_global(local, dofs, f);
       }
     f.compress(VectorOperation::add);
   }

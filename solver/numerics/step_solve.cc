@@ -304,11 +304,14 @@ namespace fickcast
         residual.add(plan.w1, tmp);
         residual -= rhs;
         zero_fixed(residual);
+        zero_hanging(residual);
         residual *= -1.0;
         Vector increment = make_vector();
         solve_linear(nullptr, increment, residual, result);
         zero_fixed(increment);
+        zero_hanging(increment);
         u1 += increment;
+        distribute(u1);
         if (increment.linfty_norm() <= description_.numerics.nonlinear_tolerance * scale)
           {
             result.converged = true;
@@ -365,6 +368,7 @@ namespace fickcast
               }
             build_system(plan, false);
             solve_fixed(plan, rhs, u1, rhs_used, result);
+            distribute(u1);
             if (!nonlinear_)
               break;
             previous -= u1;

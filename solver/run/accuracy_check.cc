@@ -185,6 +185,7 @@ namespace fickcast
     CaseDescription c = description;
     const double halving = std::pow(2.0, static_cast<double>(level));
     c.geometry.refine += level;
+    c.geometry.open_face_scale /= halving;
     if (c.time.adaptive)
       c.time.tolerance /= std::pow(halving, 3.0);
     else
@@ -219,7 +220,18 @@ namespace fickcast
         if (k > 0)
           try
             {
-              check_run_size(c, estimate_run_size(c), installed_memory());
+              // The estimate counts global refinements only; the last solve's cells, 2^dim times,
+              // also count the refinement next to open faces.
+              RunSize size = estimate_run_size(c);
+              const double grown = static_cast<double>(accuracy.solves.back().cells) * std::pow(2.0, c.dimension);
+              if (size.cells > 0 && grown > size.cells)
+                {
+                  const double factor = grown / size.cells;
+                  size.cells *= factor;
+                  size.unknowns *= factor;
+                  size.memory *= factor;
+                }
+              check_run_size(c, size, installed_memory());
             }
           catch (const InputError &error)
             {

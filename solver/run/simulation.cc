@@ -298,6 +298,8 @@ namespace fickcast
 
     // Guards: a mesh too coarse where the species enters; values outside the range of the data.
     record.warnings = resolution_warnings(problem, c, first_output_time(c.time.end, outputs));
+    if (!problem.refinement_warning().empty())
+      record.warnings.insert(record.warnings.begin(), problem.refinement_warning());
     RangeGuard range(1e-6, !has_source);
     double range_upper = std::max(scale, u.linfty_norm());
     const bool dispersed = problem.has_dispersed_phase();

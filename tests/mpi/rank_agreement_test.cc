@@ -28,6 +28,10 @@ dimension = 2
 layers = cap 0.2 m, body 0.8 m
 width = 1.5 m
 cell_size = 0.05 m
+# Cells next to the top and right faces refined (hanging nodes where the bands end).
+open_face_refinement = on
+open_face_cell = 0.0125 m
+open_face_band = 0.15 m
 [region.cap]
 diffusivity = {2e-9*(1 + 0.5*x)} m2/s
 partition = 0.5
