@@ -1,8 +1,8 @@
 #include "numerics/mesh_statistics.h"
 
 #include "geometry/mesh_import.h"
-#include "numerics/diffusion_problem.h"
 #include "geometry/mesh_quality.h"
+#include "numerics/diffusion_problem.h"
 
 #include <deal.II/base/mpi.h>
 #include <deal.II/distributed/tria.h>

@@ -59,8 +59,10 @@ expect_code 0 "check with --set" "$fickcast" check "$case_file" --set "time.end=
 grep -Eq "time\.end +2 yr +63115200 s +--set" "$scratch/out.txt" || fail "check does not show the --set origin"
 # A distortion measure at check (issue 14 item 3): a valid but skinny quadrilateral is named with
 # its Jacobian ratio (0.05 by hand: the corner pulled to 0.05 m of its neighbour) and a warning.
+# The mesh as written: the refinement next to open faces would split that cell.
 here=$(cd "$(dirname "$0")" && pwd)
-expect_code 0 "check of a distorted mesh" "$fickcast" check "$here/meshes/distorted.ini"
+expect_code 0 "check of a distorted mesh" "$fickcast" check "$here/meshes/distorted.ini" \
+  --set geometry.open_face_refinement=off
 grep -q "mesh shape: worst cell Jacobian ratio 0.05 at (1.2625, 0.5) m: strongly distorted" "$scratch/out.txt" ||
   fail "check does not report the distorted cell: $(grep 'mesh shape' "$scratch/out.txt")"
 expect_code 0 "check of a box mesh" "$fickcast" check "$case_file"
