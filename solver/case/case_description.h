@@ -80,16 +80,16 @@ namespace fickcast
     double inner_radius = 0;       ///< m, a hollow centre (radial and axisymmetric)
     LayerSpec side_coating;        ///< axisymmetric: a band around the stack (thickness 0: none)
     Face grade_toward = Face::none;
-    double grading = 1;                    ///< ratio of neighbouring cell sizes (>= 1) growing away from grade_toward
-    std::string mesh_file;                 ///< Gmsh mesh; empty: the built-in layered geometry
-    unsigned int refine = 0;               ///< global refinements of the mesh
+    double grading = 1;      ///< ratio of neighbouring cell sizes (>= 1) growing away from grade_toward
+    std::string mesh_file;   ///< Gmsh mesh; empty: the built-in layered geometry
+    unsigned int refine = 0; ///< global refinements of the mesh
     /// Local refinement in a band next to the faces where the species enters or leaves
     /// (concentration, transfer and bath faces of any stage), after the global refinements.
     /// automatic: on when numerics.accuracy is on (the user's mesh is kept when it is off).
     OpenFaceRefinement open_face_refinement = OpenFaceRefinement::automatic;
-    double open_face_cell = 0;  ///< m, largest cell in the band; 0: degree x diffusion length of the run / 4
-    double open_face_band = 0;  ///< m, depth of the band; 0: 8 diffusion lengths of the run
-    double open_face_scale = 1; ///< factor on the cell target (the accuracy check halves it per solve)
+    double open_face_cell = 0;             ///< m, largest cell in the band; 0: degree x diffusion length of the run / 4
+    double open_face_band = 0;             ///< m, depth of the band; 0: 8 diffusion lengths of the run
+    double open_face_scale = 1;            ///< factor on the cell target (the accuracy check halves it per solve)
     std::vector<std::string> mesh_regions; ///< physical groups of the mesh's dimension, by id
     std::vector<int> mesh_region_tags;     ///< their physical tags
     std::vector<std::string> mesh_boundaries; ///< physical groups one dimension lower, by id
