@@ -28,7 +28,9 @@ namespace fickcast
   {
     const auto &names = problem.names().boundaries;
     const std::size_t n = names.size();
-    std::vector<double> spacing(n, 0.0), length_squared(n, std::numeric_limits<double>::max());
+    // Per boundary: the cell on it whose node spacing is the largest against its own region's
+    // diffusion length (regions on one face can differ by orders of magnitude).
+    std::vector<double> ratio(n, 0.0), spacing(n, 0.0), length(n, 0.0);
     std::vector<bool> open(n, false);
     for (const auto &stage : c.stages)
       for (std::size_t b = 0; b < n; ++b)
@@ -48,23 +50,28 @@ namespace fickcast
               continue;
             const double h = cell->diameter() / std::sqrt(static_cast<double>(dim)) / problem.degree();
             const double d = problem.effective_diffusivity(cell->material_id(), cell->center(), 0.5 * first_output);
-            spacing[b] = std::max(spacing[b], h);
-            if (d > 0)
-              length_squared[b] = std::min(length_squared[b], d * first_output);
+            const double l = std::sqrt(std::max(d, 0.0) * first_output);
+            if (l > 0 && h / l > ratio[b])
+              {
+                ratio[b] = h / l;
+                spacing[b] = h;
+                length[b] = l;
+              }
           }
       }
     const MPI_Comm communicator = problem.communicator();
     std::vector<std::string> warnings;
     for (std::size_t b = 0; b < n; ++b)
       {
-        const double h = Utilities::MPI::max(spacing[b], communicator);
-        const double l2 = Utilities::MPI::min(length_squared[b], communicator);
-        if (!open[b] || h == 0 || l2 >= std::numeric_limits<double>::max())
+        // The worst cell of all ranks (the rank with the largest ratio reports its h and L).
+        const double worst = Utilities::MPI::max(ratio[b], communicator);
+        const double h = Utilities::MPI::max(ratio[b] == worst ? spacing[b] : 0.0, communicator);
+        const double diffusion_length = Utilities::MPI::max(ratio[b] == worst ? length[b] : 0.0, communicator);
+        if (!open[b] || worst == 0)
           continue;
-        const double length = std::sqrt(l2);
-        if (h > length)
+        if (worst > 1)
           warnings.push_back("the nodes next to boundary '" + names[b] + "' are up to " + number(h, "m") +
-                             " apart, more than the diffusion length sqrt(D t) = " + number(length, "m") +
+                             " apart, more than the diffusion length sqrt(D t) = " + number(diffusion_length, "m") +
                              " of the first output interval (to " + number(first_output, "s") +
                              "): values near it are poor until the front has crossed several cells; refine the "
                              "mesh there (cell sizes, geometry.refine) or keep numerics.accuracy on to measure "
