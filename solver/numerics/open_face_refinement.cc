@@ -5,6 +5,7 @@
 // everywhere (common practice: boundary-layer grading).
 #include "numerics/diffusion_problem.h"
 
+#include "model/open_faces.h"
 #include "model/value_text.h"
 
 #include <cstdio>
@@ -47,12 +48,7 @@ namespace fickcast
     if (!on || !(description_.time.end > 0))
       return;
     const std::size_t n_boundaries = names_.boundaries.size();
-    std::vector<bool> open(n_boundaries, false);
-    for (const auto &stage : description_.stages)
-      for (std::size_t b = 0; b < n_boundaries; ++b)
-        if (const BoundarySpec *spec = stage.find_boundary(names_.boundaries[b]))
-          open[b] = open[b] || spec->kind == BoundaryKind::concentration || spec->kind == BoundaryKind::transfer ||
-                    spec->kind == BoundaryKind::bath;
+    const std::vector<bool> open = open_faces(description_, names_.boundaries);
 
     // Diffusion length of the run in each region: L^2 = int (G / C) dt over the run (the apparent
     // diffusivity, with sorption and partition), the largest over the region (sampled at up to

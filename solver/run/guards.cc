@@ -1,6 +1,7 @@
 #include "run/guards.h"
 
 #include "case/input_error.h"
+#include "model/open_faces.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -31,12 +32,7 @@ namespace fickcast
     // Per boundary: the cell on it whose node spacing is the largest against its own region's
     // diffusion length (regions on one face can differ by orders of magnitude).
     std::vector<double> ratio(n, 0.0), spacing(n, 0.0), length(n, 0.0);
-    std::vector<bool> open(n, false);
-    for (const auto &stage : c.stages)
-      for (std::size_t b = 0; b < n; ++b)
-        if (const BoundarySpec *spec = stage.find_boundary(names[b]))
-          open[b] = open[b] || spec->kind == BoundaryKind::concentration || spec->kind == BoundaryKind::transfer ||
-                    spec->kind == BoundaryKind::bath;
+    const std::vector<bool> open = open_faces(c, names);
     for (const auto &cell : problem.dof_handler().active_cell_iterators())
       {
         if (!cell->is_locally_owned())
