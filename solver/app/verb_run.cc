@@ -88,6 +88,10 @@ namespace fickcast
                 r.degree, r.linear_solver.c_str(), r.ranks, r.ranks > 1 ? "s" : "");
     std::printf("  %u steps (%u rejected) to t = %s in %.2f s\n", r.steps_accepted, r.steps_rejected,
                 units.time(r.end_time).c_str(), r.wall_time);
+    if (r.carried_time_error >= 0)
+      std::printf("  time error carried by the state: %.2g at the end, %.2g at most (time.tolerance %.2g; relative to "
+                  "the concentration scale)\n",
+                  r.carried_time_error, r.carried_time_error_largest, description.time.tolerance);
     if (std::isfinite(r.resumed_at))
       std::printf("  resumed from its checkpoint at t = %s (the time above is this part's)\n",
                   units.time(r.resumed_at).c_str());

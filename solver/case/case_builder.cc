@@ -21,6 +21,10 @@ namespace fickcast
         reader.fail(*step, "expected a step no longer than time.end (" + format_si(c.time.end, "s") + "), found '" +
                              step->written + "'");
       c.time.tolerance = reader.quantity("time", "tolerance", 1e-4);
+      const std::string control = reader.text("time", "error_control");
+      c.time.error_control = control == "global"  ? ErrorControl::global
+                             : control == "local" ? ErrorControl::local
+                                                  : ErrorControl::automatic;
       const std::string scheme = reader.text("time", "scheme");
       c.time.scheme = scheme == "implicit_euler"   ? TimeScheme::implicit_euler
                       : scheme == "crank_nicolson" ? TimeScheme::crank_nicolson

@@ -196,12 +196,21 @@ namespace fickcast
     bdf2
   };
 
+  /// What time.tolerance bounds in an adaptive run.
+  enum class ErrorControl
+  {
+    automatic, ///< local for now (global costs 1.5-5.5x the steps through a start's transient)
+    global,    ///< the carried (global) error of the state: each step's local error transported
+    local      ///< each step's local error (0.7.0; cheaper, final error 0.3-30 x the tolerance)
+  };
+
   struct TimeSpec
   {
     double end = 0;          ///< s
     bool adaptive = true;    ///< step = auto
     double step = 0;         ///< s, fixed step when not adaptive
-    double tolerance = 1e-4; ///< relative local error per step (adaptive)
+    double tolerance = 1e-4; ///< relative error of the state (adaptive; see error_control)
+    ErrorControl error_control = ErrorControl::automatic;
     TimeScheme scheme = TimeScheme::bdf2;
     unsigned int start_steps = 4; ///< implicit-Euler steps after every discontinuity (Crank-Nicolson)
     double initial_step = 0;      ///< s; 0: chosen from tolerance and end time

@@ -192,8 +192,14 @@ namespace fickcast
       s.push_back(with_auto(positive(
         make("time", "step", K::quantity, Dim::time, "", "fixed time step, or auto for error-controlled steps"))));
       s.push_back(bounded(make("time", "tolerance", K::quantity, Dim::dimensionless, "1e-4",
-                               "local error tolerance per step, relative to the concentration scale"),
+                               "time error allowed in the state of an adaptive run, relative to the concentration "
+                               "scale (see time.error_control)"),
                           0, true, 0.1, false));
+      s.push_back(choices(make("time", "error_control", K::choice, Dim::none, "auto",
+                               "what time.tolerance bounds: global (the error carried to every step: each step's "
+                               "local error transported by the later steps), local (each step's own error; cheaper, "
+                               "the final error may be many times the tolerance), or auto (local for now)"),
+                          {"auto", "global", "local"}));
       s.push_back(
         choices(make("time", "scheme", K::choice, Dim::none, "bdf2", "implicit_euler, crank_nicolson or bdf2"),
                 {"implicit_euler", "crank_nicolson", "bdf2"}));

@@ -173,6 +173,11 @@ namespace fickcast
     /// Takes one step from @p u0 (and @p u_prev for BDF2); @p u1 holds an initial guess.
     /// Updates bath values and reserves; keeps the previous ones for accept_step / reject_step.
     StepResult advance(const StepPlan &plan, const Vector &u0, const Vector *u_prev, Vector &u1);
+    /// Carries an error of the state through the step just taken by advance() (same plan, same
+    /// system matrix and preconditioner): solves the step's homogeneous equation for @p e1 from
+    /// @p e0 (and @p e_prev for BDF2). Fixed unknowns (concentration and bath faces, saturated
+    /// reserve) carry no error. @p e1 holds an initial guess. Returns the linear iterations.
+    unsigned int propagate_error(const StepPlan &plan, const Vector &e0, const Vector *e_prev, Vector &e1);
     /// Makes the last step's bath values and reserves the current ones.
     void accept_step();
     /// The stage, baths, reserve and preconditioner basis after the last accepted step.

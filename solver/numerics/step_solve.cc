@@ -395,6 +395,63 @@ namespace fickcast
     return result;
   }
 
+  template <int dim>
+  unsigned int DiffusionProblem<dim>::propagate_error(const StepPlan &plan, const Vector &e0, const Vector *e_prev,
+                                                      Vector &e1)
+  {
+    // Right-hand side of the homogeneous step: -M (a1 e0 + a2 e_prev) - w0 L e0.
+    Vector rhs = make_vector(), tmp = make_vector();
+    tmp.equ(plan.a1, e0);
+    if (plan.a2 != 0 && e_prev != nullptr)
+      tmp.add(plan.a2, *e_prev);
+    mass_.full.vmult(rhs, tmp);
+    rhs *= -1.0;
+    if (plan.w0 != 0)
+      {
+        apply_frozen(plan.t1, e0, tmp);
+        rhs.add(-plan.w0, tmp);
+      }
+    std::vector<types::global_dof_index> held;
+    for (const auto &[dof, b] : fixed_dofs_)
+      {
+        (void)b;
+        held.push_back(dof);
+      }
+    std::size_t active = 0;
+    if (dispersed_)
+      for (const auto dof : owned_)
+        if (dispersed_node_[owned_.index_within_set(dof)] && reserve_[dof] > 0)
+          {
+            held.push_back(dof);
+            ++active;
+          }
+    const bool modified = Utilities::MPI::sum(active, communicator_) > 0 && modified_.m() != 0;
+    for (const auto row : held)
+      {
+        rhs[row] = 0;
+        e1[row] = 0;
+      }
+    rhs.compress(VectorOperation::insert);
+    e1.compress(VectorOperation::insert);
+    StepResult result;
+    solve_linear(modified ? &modified_ : nullptr, e1, rhs, result);
+    for (const auto row : held)
+      e1[row] = 0;
+    e1.compress(VectorOperation::insert);
+    distribute(e1);
+    return result.linear_iterations;
+  }
+
+  template unsigned int DiffusionProblem<1>::propagate_error(const StepPlan &, const DiffusionProblem<1>::Vector &,
+                                                             const DiffusionProblem<1>::Vector *,
+                                                             DiffusionProblem<1>::Vector &);
+  template unsigned int DiffusionProblem<2>::propagate_error(const StepPlan &, const DiffusionProblem<2>::Vector &,
+                                                             const DiffusionProblem<2>::Vector *,
+                                                             DiffusionProblem<2>::Vector &);
+  template unsigned int DiffusionProblem<3>::propagate_error(const StepPlan &, const DiffusionProblem<3>::Vector &,
+                                                             const DiffusionProblem<3>::Vector *,
+                                                             DiffusionProblem<3>::Vector &);
+
   template void DiffusionProblem<1>::build_system(const StepPlan &, bool);
   template void DiffusionProblem<2>::build_system(const StepPlan &, bool);
   template void DiffusionProblem<3>::build_system(const StepPlan &, bool);

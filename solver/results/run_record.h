@@ -99,6 +99,9 @@ namespace fickcast
     double end_time = 0; ///< s, time reached
     unsigned int steps_accepted = 0;
     unsigned int steps_rejected = 0;
+    /// Time error carried by the state (time.error_control = global), relative like
+    /// time.tolerance: at the end and the largest over the run; -1 when not estimated.
+    double carried_time_error = -1, carried_time_error_largest = -1;
     unsigned long linear_iterations = 0;
     unsigned long nonlinear_iterations = 0;
     unsigned int matrix_setups = 0;

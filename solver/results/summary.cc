@@ -107,6 +107,16 @@ namespace fickcast
     time["adaptive"] = c.time.adaptive;
     time["steps_accepted"] = r.steps_accepted;
     time["steps_rejected"] = r.steps_rejected;
+    if (c.time.adaptive)
+      {
+        time["tolerance"] = c.time.tolerance;
+        time["error_control"] = r.carried_time_error >= 0 ? "global" : "local";
+        if (r.carried_time_error >= 0)
+          {
+            time["carried_error_final"] = r.carried_time_error;
+            time["carried_error_largest"] = r.carried_time_error_largest;
+          }
+      }
     Json::Value stages(Json::arrayValue);
     for (const auto &stage : r.stages)
       {

@@ -5,7 +5,9 @@
 //   mpirun -np 2 benchmark_solver --3d --large     (3-D at 1e4, 1e5 and 1e6 unknowns on 2 ranks)
 //   benchmark_solver --accuracy                     (time to a given accuracy against erfc: fickcast
 //                                                    versus a plain uniform-grid Crank-Nicolson
-//                                                    finite-difference solver written here)
+//                                                    finite-difference solver written here, then
+//                                                    the step controller against fixed steps)
+//   benchmark_solver --steps                        (only the step controller against fixed steps)
 #include "case/case_reader.h"
 #include "run/run_case.h"
 #include "run/simulation.h"
@@ -151,16 +153,19 @@ namespace
   {
     std::string what;
     double seconds = 0, error = 0;
+    unsigned int steps = 0;
   };
 
-  Cost fickcast_run(const double cell, const double tolerance, const double step, const unsigned int degree)
+  Cost fickcast_run(const double cell, const double tolerance, const double step, const unsigned int degree,
+                    const std::string &control = "local")
   {
     std::string text = "[case]\ntitle = accuracy\n[geometry]\nlayers = medium " + number(accuracy_depth) +
                        " m\ncell_size = " + number(cell) + " m\n[region.medium]\ndiffusivity = " + number(accuracy_d) +
                        " m2/s\n[boundary.top]\ntype = concentration\nvalue = 1 mol/m3\n"
                        "[time]\nend = " +
                        number(accuracy_end) + " s\n" +
-                       (step > 0 ? "step = " + number(step) + " s" : "tolerance = " + number(tolerance)) +
+                       (step > 0 ? "step = " + number(step) + " s"
+                                 : "tolerance = " + number(tolerance) + "\nerror_control = " + control) +
                        "\n[numerics]\ndegree = " + std::to_string(degree) + "\n[output]\nfields = false\n";
     for (int i = 0; i < accuracy_points; ++i)
       text += "point.p" + std::to_string(i) + " = " + number(point_depth(i)) + " m\n";
@@ -175,9 +180,9 @@ namespace
     if (step > 0)
       std::snprintf(what, sizeof(what), "Q%u, h = %.3g mm, fixed step, %u steps", degree, 1e3 * cell, r.steps_accepted);
     else
-      std::snprintf(what, sizeof(what), "Q%u, h = %.3g mm, tolerance %.0e, %u steps", degree, 1e3 * cell, tolerance,
-                    r.steps_accepted);
-    return {what, seconds, error};
+      std::snprintf(what, sizeof(what), "Q%u, h = %.3g mm, %s tolerance %.0e, %u steps", degree, 1e3 * cell,
+                    control.c_str(), tolerance, r.steps_accepted);
+    return {what, seconds, error, r.steps_accepted};
   }
 
   // The accuracy check (numerics.accuracy): solves until each point's estimated error is within
@@ -252,6 +257,56 @@ namespace
     return {what, seconds, error};
   }
 
+  // Step controller against fixed steps (issue: a controller that keeps its word). The mesh is fine
+  // enough (Q2, h = 1.25 mm: its error is under 1e-8) that the time error dominates at every
+  // tolerance asked. For each tolerance: the final error and its ratio to the tolerance, and the
+  // cost against the cheapest fixed-step run on the same mesh that is at least as accurate.
+  Cost fastest_of(const double cell, const double tolerance, const double step, const std::string &control = "local")
+  {
+    Cost best = fickcast_run(cell, tolerance, step, 2, control);
+    for (int repeat = 0; repeat < 2; ++repeat)
+      best.seconds = std::min(best.seconds, fickcast_run(cell, tolerance, step, 2, control).seconds);
+    return best;
+  }
+
+  void step_controller_versus_fixed(const bool root)
+  {
+    if (!root)
+      return;
+    constexpr double cell = 0.00125;
+    std::printf("\nStep controller against fixed steps: erfc as above, Q2, h = 1.25 mm, time error dominant\n");
+    std::vector<Cost> fixed;
+    for (const double steps : {10.0, 15.0, 20.0, 30.0, 40.0, 60.0, 80.0, 100.0, 150.0, 200.0, 300.0, 400.0, 600.0,
+                               800.0, 1000.0, 1500.0, 2000.0, 3000.0, 4000.0})
+      fixed.push_back(fastest_of(cell, 0, accuracy_end / steps));
+    std::printf("  fixed steps (steps: error, seconds):");
+    for (std::size_t i = 0; i < fixed.size(); ++i)
+      std::printf("%s %u: %.2e, %.4f s", i % 4 == 0 ? "\n   " : ";", fixed[i].steps, fixed[i].error, fixed[i].seconds);
+    std::printf("\n");
+    std::printf("  %-17s %10s %10s %7s %10s | %-34s %8s\n", "control", "error", "error/tol", "steps", "seconds",
+                "cheapest fixed run as accurate", "cost x");
+    for (const std::string control : {"local", "global"})
+      for (const double tolerance : {1e-3, 1e-4, 1e-5, 1e-6, 1e-7})
+        {
+          const Cost run = fastest_of(cell, tolerance, 0, control);
+          const Cost *best = nullptr;
+          for (const auto &f : fixed)
+            if (f.error <= run.error && (!best || f.seconds < best->seconds))
+              best = &f;
+          char right[64] = "none of up to 4000 steps";
+          if (best)
+            std::snprintf(right, sizeof(right), "%u steps, error %.2e, %.4f s", best->steps, best->error,
+                          best->seconds);
+          char label[32];
+          std::snprintf(label, sizeof(label), "%s %.0e", control.c_str(), tolerance);
+          std::printf("  %-17s %10.2e %10.2f %7u %10.4f | %-34s", label, run.error, run.error / tolerance, run.steps,
+                      run.seconds, right);
+          if (best)
+            std::printf(" %8.2f", run.seconds / best->seconds);
+          std::printf("\n");
+        }
+  }
+
   void accuracy_versus_cost(const bool root)
   {
     if (!root)
@@ -306,7 +361,7 @@ int main(int argc, char **argv)
   dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
   const MPI_Comm communicator = MPI_COMM_WORLD;
   const bool root = dealii::Utilities::MPI::this_mpi_process(communicator) == 0;
-  bool run_1d = false, run_3d = false, large = false, accuracy = false;
+  bool run_1d = false, run_3d = false, large = false, accuracy = false, steps = false;
   for (int i = 1; i < argc; ++i)
     {
       const std::string flag = argv[i];
@@ -314,11 +369,14 @@ int main(int argc, char **argv)
       run_3d = run_3d || flag == "--3d";
       large = large || flag == "--large";
       accuracy = accuracy || flag == "--accuracy";
+      steps = steps || flag == "--steps";
     }
-  if (!run_1d && !run_3d && !accuracy)
+  if (!run_1d && !run_3d && !accuracy && !steps)
     run_1d = run_3d = true;
   if (accuracy)
     accuracy_versus_cost(root);
+  if (accuracy || steps)
+    step_controller_versus_fixed(root);
   if (run_1d)
     one_dimensional(communicator, root);
   if (run_3d)
