@@ -89,9 +89,13 @@ namespace fickcast
     std::printf("  %u steps (%u rejected) to t = %s in %.2f s\n", r.steps_accepted, r.steps_rejected,
                 units.time(r.end_time).c_str(), r.wall_time);
     if (r.carried_time_error >= 0)
-      std::printf("  time error carried by the state: %.2g at the end, %.2g at most (time.tolerance %.2g; relative to "
-                  "the concentration scale)\n",
-                  r.carried_time_error, r.carried_time_error_largest, description.time.tolerance);
+      std::printf("  time error carried by the state (relative to the concentration scale): %.2g at the end, %.2g "
+                  "at most (t = %s), time.tolerance %.2g%s\n",
+                  r.carried_time_error, r.carried_time_error_largest,
+                  units.time(r.carried_time_error_largest_at).c_str(), description.time.tolerance,
+                  r.steps_at_floor > 0 ? " (more where steps were kept at a tenth of the time diffusion takes to cross "
+                                         "the smallest cell: finer steps would not help that mesh)"
+                                       : "");
     if (std::isfinite(r.resumed_at))
       std::printf("  resumed from its checkpoint at t = %s (the time above is this part's)\n",
                   units.time(r.resumed_at).c_str());

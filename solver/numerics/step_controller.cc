@@ -10,6 +10,7 @@ namespace fickcast
     , max_step_(spec.max_step > 0 ? spec.max_step : duration / 20.0)
     , min_step_(duration * 1e-14)
     , fixed_(spec.step)
+    , initial_given_(spec.initial_step > 0)
   {
     if (adaptive_)
       proposal_ = spec.initial_step > 0 ? spec.initial_step : std::min(max_step_, duration * 1e-8);
@@ -38,7 +39,12 @@ namespace fickcast
     factor = std::clamp(factor, 0.2, 2.0);
     if (error > 1.0)
       {
-        proposal_ = dt * std::min(factor, 0.9);
+        if (floor_ > 0 && dt <= floor_ * (1 + 1e-9))
+          {
+            proposal_ = std::min(floor_, max_step_); // at the floor: accepted, and stays there
+            return true;
+          }
+        proposal_ = std::max(dt * std::min(factor, 0.9), floor_);
         return false;
       }
     if (factor < 1.0)
@@ -49,8 +55,15 @@ namespace fickcast
       proposal_ = dt * factor;
     else
       proposal_ = dt;
-    proposal_ = std::min(proposal_, max_step_);
+    proposal_ = std::min(std::max(proposal_, floor_), max_step_);
     return true;
+  }
+
+  void StepController::set_floor(const double floor)
+  {
+    floor_ = std::min(floor, max_step_);
+    if (!initial_given_)
+      proposal_ = std::max(proposal_, floor_);
   }
 
   void StepController::accept_unjudged(const double dt, const bool shortened)

@@ -25,6 +25,8 @@ namespace fickcast
     /// Judges a step of size @p dt with scaled error @p error at order @p order (adaptive mode);
     /// returns whether it is accepted and updates the proposal. @p shortened: dt was cut to land.
     bool judge(double dt, double error, unsigned int order, bool shortened);
+    /// A step of @p dt failed to converge: retry with a fifth of it (below any floor).
+    void cut(double dt) { proposal_ = 0.2 * dt; }
     /// Accepts without an estimate (first step, fixed mode).
     void accept_unjudged(double dt, bool shortened);
     double proposal() const { return proposal_; }
@@ -32,6 +34,10 @@ namespace fickcast
     void restore_proposal(const double proposal) { proposal_ = proposal; }
     /// Smallest step allowed before the run is declared failed.
     double min_step() const { return min_step_; }
+    /// Steps are not cut below @p floor for accuracy: a step of at least that size whose error
+    /// estimate is too large is accepted all the same (its error is then reported, not hidden).
+    /// Starts there unless time.initial_step is given.
+    void set_floor(double floor);
 
   private:
     bool adaptive_;
@@ -39,5 +45,7 @@ namespace fickcast
     double max_step_;
     double min_step_;
     double fixed_;
+    double floor_ = 0;
+    bool initial_given_;
   };
 } // namespace fickcast

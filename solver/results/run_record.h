@@ -102,6 +102,8 @@ namespace fickcast
     /// Time error carried by the state (time.error_control = global), relative like
     /// time.tolerance: at the end and the largest over the run; -1 when not estimated.
     double carried_time_error = -1, carried_time_error_largest = -1;
+    double carried_time_error_largest_at = 0; ///< s
+    unsigned int steps_at_floor = 0;          ///< accepted above the tolerance at the smallest step allowed
     unsigned long linear_iterations = 0;
     unsigned long nonlinear_iterations = 0;
     unsigned int matrix_setups = 0;

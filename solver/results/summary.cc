@@ -115,6 +115,8 @@ namespace fickcast
           {
             time["carried_error_final"] = r.carried_time_error;
             time["carried_error_largest"] = r.carried_time_error_largest;
+            time["carried_error_largest_at"] = quantity(r.carried_time_error_largest_at, "s");
+            time["steps_at_floor"] = r.steps_at_floor;
           }
       }
     Json::Value stages(Json::arrayValue);

@@ -1,5 +1,12 @@
 #include "run/carried_error.h"
 
+#include "case/input_error.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <cmath>
+#include <limits>
+
 namespace fickcast
 {
   template <int dim>
@@ -33,12 +40,55 @@ namespace fickcast
   }
 
   template <int dim>
-  void CarriedError<dim>::restore(const std::vector<double> &sizes)
+  void CarriedError<dim>::save(StateArchive &archive) const
   {
-    final_ = sizes.size() > 0 ? sizes[0] : 0;
-    largest_ = sizes.size() > 1 ? sizes[1] : 0;
-    nonzero_ = current_.linfty_norm() > 0 || previous_.linfty_norm() > 0;
+    for (const Vector *v : {&current_, &previous_})
+      archive.put(active_ ? std::vector<double>(v->begin(), v->end()) : std::vector<double>());
+    archive.put(std::vector<double>{final_, largest_, largest_time_, static_cast<double>(at_floor_)});
   }
+
+  template <int dim>
+  void CarriedError<dim>::load(StateArchive &archive, const std::string &folder)
+  {
+    for (Vector *v : {&current_, &previous_})
+      {
+        const std::vector<double> values = archive.get_values();
+        if (active_ != !values.empty() || (active_ && values.size() != static_cast<std::size_t>(v->end() - v->begin())))
+          throw IoError("the checkpoint in " + folder + " does not fit this case (time error control)");
+        if (active_)
+          std::copy(values.begin(), values.end(), v->begin());
+      }
+    const std::vector<double> sizes = archive.get_values();
+    if (sizes.size() != 4)
+      throw IoError("the checkpoint in " + folder + " is damaged (time error control)");
+    final_ = sizes[0];
+    largest_ = sizes[1];
+    largest_time_ = sizes[2];
+    at_floor_ = static_cast<unsigned int>(sizes[3]);
+    nonzero_ = active_ && (current_.linfty_norm() > 0 || previous_.linfty_norm() > 0);
+  }
+
+  template <int dim>
+  double fastest_cell_time(const DiffusionProblem<dim> &problem, const double t)
+  {
+    double fastest = std::numeric_limits<double>::max();
+    for (const auto &cell : problem.dof_handler().active_cell_iterators())
+      {
+        if (!cell->is_locally_owned())
+          continue;
+        const double d = problem.effective_diffusivity(cell->material_id(), cell->center(), t);
+        if (!(d > 0) || !std::isfinite(d))
+          continue;
+        const double h = cell->diameter() / std::sqrt(static_cast<double>(dim)) / problem.degree();
+        fastest = std::min(fastest, h * h / d);
+      }
+    fastest = dealii::Utilities::MPI::min(fastest, problem.communicator());
+    return fastest < std::numeric_limits<double>::max() ? fastest : 0.0;
+  }
+
+  template double fastest_cell_time<1>(const DiffusionProblem<1> &, double);
+  template double fastest_cell_time<2>(const DiffusionProblem<2> &, double);
+  template double fastest_cell_time<3>(const DiffusionProblem<3> &, double);
 
   template class CarriedError<1>;
   template class CarriedError<2>;

@@ -3,6 +3,7 @@
 #pragma once
 
 #include "numerics/diffusion_problem.h"
+#include "run/checkpoint.h"
 
 #include <vector>
 
@@ -17,10 +18,24 @@ namespace fickcast
    *
    * Control: a step is accepted when its local error fits in what the carried error leaves of
    * the tolerance, tol - |carried|, but never less than tol x step / duration (errors that do not
-   * decay then add up to at most one more tolerance over the run). Where diffusion damps earlier
+   * decay then add up to at most one more tolerance over the run). While the carried error is
+   * above the tolerance (the first steps of a sudden surface value, kept at the controller's
+   * floor), a step may add half of what diffusion damped of it in that step. Where diffusion damps earlier
    * errors (a front's start), steps are large; where it does not, they are sized per unit step,
    * which makes the error proportional to the tolerance.
    */
+  /**
+   * The shortest time diffusion takes to cross a node spacing of the mesh: the smallest (cell
+   * size / degree)^2 / D over the cells, D the effective diffusivity of the cell's region at
+   * @p t (collective). Steps far shorter than this only resolve the fastest modes of the
+   * discretised equation, which the mesh represents poorly anyway (a sudden surface value), so
+   * the global controller takes no step below a tenth of it (Eriksson and Johnson's argument for
+   * balancing space and time errors, "Adaptive finite element methods for parabolic problems I",
+   * SIAM J. Numer. Anal. 28, 1991).
+   */
+  template <int dim>
+  double fastest_cell_time(const DiffusionProblem<dim> &problem, double t);
+
   template <int dim>
   class CarriedError
   {
@@ -40,12 +55,16 @@ namespace fickcast
     {
       local_ = local;
       carried_size_ = norm(carried_);
-      const double budget = std::max(tolerance_ - carried_size_, tolerance_ * step / duration_);
-      return norm(local) / budget;
+      // Above the tolerance (after steps kept at the floor): half of what diffusion damped in
+      // this step, so the carried error keeps falling until it is back within the tolerance.
+      const double budget =
+        std::max({tolerance_ - carried_size_, 0.5 * (final_ - carried_size_), tolerance_ * step / duration_});
+      scaled_ = norm(local) / budget;
+      return scaled_;
     }
     /// The step is accepted: the carried error (plus the judged local error) becomes current.
     template <typename Norm>
-    void accept(bool judged, const Norm &norm)
+    void accept(bool judged, const Norm &norm, const double t)
     {
       if (!active_)
         return;
@@ -54,19 +73,28 @@ namespace fickcast
       if (judged)
         current_ += local_;
       nonzero_ = nonzero_ || judged;
+      if (judged && scaled_ > 1)
+        ++at_floor_;
       final_ = norm(current_);
-      largest_ = std::max(largest_, final_);
+      if (final_ > largest_)
+        {
+          largest_ = final_;
+          largest_time_ = t;
+        }
     }
     /// A new stage: the history restarts; the error carried so far stays.
     void restart() { previous_ = current_; }
     /// Largest and last carried error over the run, relative as the tolerance (-1 if not active).
     double largest() const { return active_ ? largest_ : -1.0; }
     double last() const { return active_ ? final_ : -1.0; }
-    /// The carried state, for a checkpoint, and back.
-    std::vector<const Vector *> vectors() const { return {&current_, &previous_}; }
-    void restore(const std::vector<double> &sizes);
-    Vector &current() { return current_; }
-    Vector &previous() { return previous_; }
+    /// Steps accepted with their error above the budget (kept at the controller's floor).
+    unsigned int steps_at_floor() const { return at_floor_; }
+    /// When the largest carried error was seen (s).
+    double largest_time() const { return largest_time_; }
+    /// Writes the carried error to a checkpoint, and reads it back (IoError naming @p folder if
+    /// it does not fit this case).
+    void save(StateArchive &archive) const;
+    void load(StateArchive &archive, const std::string &folder);
 
   private:
     DiffusionProblem<dim> &problem_;
@@ -74,6 +102,7 @@ namespace fickcast
     double tolerance_, duration_;
     Vector current_, previous_, carried_, local_;
     bool nonzero_ = false;
-    double carried_size_ = 0, final_ = 0, largest_ = 0;
+    double carried_size_ = 0, final_ = 0, largest_ = 0, largest_time_ = 0, scaled_ = 0;
+    unsigned int at_floor_ = 0;
   };
 } // namespace fickcast

@@ -300,6 +300,8 @@ namespace fickcast
     // same tolerance through a start's stiff transient (benchmark_solver --steps).
     const bool carry_errors = controller.adaptive() && c.time.error_control == ErrorControl::global;
     CarriedError<dim> carried(problem, carry_errors, c.time.tolerance, clock_end);
+    if (carried.active())
+      controller.set_floor(0.1 * fastest_cell_time(problem, 0.0) * clock_end / c.time.end);
 
     // Guards: a mesh too coarse where the species enters; values outside the range of the data.
     record.warnings = resolution_warnings(problem, c, first_output_time(c.time.end, outputs));
@@ -348,9 +350,7 @@ namespace fickcast
           a.put(h.time);
           a.put(owned_values(h.state));
         }
-      for (const Vector *v : carried.vectors())
-        a.put(carried.active() ? owned_values(*v) : std::vector<double>());
-      a.put(std::vector<double>{carried.last(), carried.largest()});
+      carried.save(a);
       a.put_count(lag_history.size());
       for (const auto &lag : lag_history)
         {
@@ -430,15 +430,7 @@ namespace fickcast
             set_owned_values(h.state, a.get_values());
             history.push_back(std::move(h));
           }
-        for (Vector *v : {&carried.current(), &carried.previous()})
-          {
-            const std::vector<double> values = a.get_values();
-            if (carried.active() != !values.empty())
-              throw IoError("the checkpoint in " + folder + " does not fit this case (time error control)");
-            if (carried.active())
-              set_owned_values(*v, values);
-          }
-        carried.restore(a.get_values());
+        carried.load(a, folder);
         if (a.get_count() != lag_history.size())
           throw IoError("the checkpoint in " + folder + " does not fit this case's time lags");
         for (auto &lag : lag_history)
@@ -561,7 +553,7 @@ namespace fickcast
                   throw RunFailure("the nonlinear iteration did not converge within " +
                                    std::to_string(c.numerics.max_nonlinear_iterations) + " iterations at t = " +
                                    std::to_string(t1) + " s (a fixed step cannot be reduced; try step = auto)");
-                controller.judge(ds, 1e6, order, false);
+                controller.cut(ds);
                 if (controller.proposal() < controller.min_step())
                   throw RunFailure("the nonlinear iteration did not converge within " +
                                    std::to_string(c.numerics.max_nonlinear_iterations) +
@@ -581,30 +573,15 @@ namespace fickcast
                   controller.accept_unjudged(ds, shortened);
                 else
                   {
-                    const unsigned int q = points - 1;
-                    const double s1 = s + ds;
                     Vector predicted = problem.make_vector();
-                    double factor = 0;
-                    if (q == 1)
+                    std::vector<double> clocks;
+                    std::vector<const Vector *> states;
+                    for (unsigned int k = 0; k < points; ++k)
                       {
-                        const double h1 = history[0].clock - history[1].clock;
-                        predicted.equ(1 + ds / h1, history[0].state);
-                        predicted.add(-ds / h1, history[1].state);
-                        factor = ds / (ds + h1) * (order == 2 ? 0.5 : 1.0);
+                        clocks.push_back(history[k].clock);
+                        states.push_back(&history[k].state);
                       }
-                    else
-                      {
-                        const double ta = history[0].clock, tb = history[1].clock, tc = history[2].clock;
-                        const double la = (s1 - tb) * (s1 - tc) / ((ta - tb) * (ta - tc));
-                        const double lb = (s1 - ta) * (s1 - tc) / ((tb - ta) * (tb - tc));
-                        const double lc = (s1 - ta) * (s1 - tb) / ((tc - ta) * (tc - tb));
-                        predicted.equ(la, history[0].state);
-                        predicted.add(lb, history[1].state);
-                        predicted.add(lc, history[2].state);
-                        const double h1 = ta - tb, h2 = tb - tc;
-                        const double spread = (ds + h1) * (ds + h1 + h2);
-                        factor = bdf2 ? (4.0 / 3.0) * ds * ds / spread : 0.5 * ds * ds / spread;
-                      }
+                    const double factor = extrapolate(clocks, states, s + ds, bdf2, order, predicted);
                     predicted -= u_new;
                     problem.zero_fixed(predicted);
                     problem.zero_depleted(predicted);
@@ -625,7 +602,7 @@ namespace fickcast
                 ++record.steps_rejected;
                 continue;
               }
-            carried.accept(judged, step_norm);
+            carried.accept(judged, step_norm, t1);
 
             // Amounts moved in this step, consistent with the scheme (they close the balance).
             const TermRates rates_new = problem.rates(u_new, t1);
@@ -773,6 +750,8 @@ namespace fickcast
     record.balance_error = balance;
     record.carried_time_error = carried.last();
     record.carried_time_error_largest = carried.largest();
+    record.carried_time_error_largest_at = carried.largest_time();
+    record.steps_at_floor = carried.steps_at_floor();
     double moved = reference_amount;
     for (const double a : record.final_region_amounts)
       moved = std::max(moved, std::abs(a));

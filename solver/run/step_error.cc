@@ -25,6 +25,30 @@ namespace fickcast
     return dealii::Utilities::MPI::max(largest, communicator);
   }
 
+  double extrapolate(const std::vector<double> &clocks,
+                     const std::vector<const dealii::TrilinosWrappers::MPI::Vector *> &states, const double s1,
+                     const bool bdf2, const unsigned int order, dealii::TrilinosWrappers::MPI::Vector &predicted)
+  {
+    const double ds = s1 - clocks[0];
+    if (states.size() == 2)
+      {
+        const double h1 = clocks[0] - clocks[1];
+        predicted.equ(1 + ds / h1, *states[0]);
+        predicted.add(-ds / h1, *states[1]);
+        return ds / (ds + h1) * (order == 2 ? 0.5 : 1.0);
+      }
+    const double ta = clocks[0], tb = clocks[1], tc = clocks[2];
+    const double la = (s1 - tb) * (s1 - tc) / ((ta - tb) * (ta - tc));
+    const double lb = (s1 - ta) * (s1 - tc) / ((tb - ta) * (tb - tc));
+    const double lc = (s1 - ta) * (s1 - tb) / ((tc - ta) * (tc - tb));
+    predicted.equ(la, *states[0]);
+    predicted.add(lb, *states[1]);
+    predicted.add(lc, *states[2]);
+    const double h1 = ta - tb, h2 = tb - tc;
+    const double spread = (ds + h1) * (ds + h1 + h2);
+    return bdf2 ? (4.0 / 3.0) * ds * ds / spread : 0.5 * ds * ds / spread;
+  }
+
   double first_output_time(const double end, const std::vector<double> &outputs)
   {
     for (const double when : outputs)

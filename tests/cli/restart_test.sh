@@ -5,6 +5,7 @@
 # resumed run repeats the same arithmetic, so the differences seen are 0). SIGTERM gives exit 4,
 # "interrupted at t = ..." and no results, and --resume continues it. A resume that does not fit
 # (another case, other ranks, a damaged checkpoint, --overwrite beside it) is refused with one line.
+# A run with time.error_control = global resumes to the same numbers (its carried error restored).
 # Usage: restart_test.sh FICKCAST SOURCE_DIR SCRATCH_DIR MPIEXEC [MPI flags...]
 set -u
 fickcast=$1 source=$2 scratch=$3 mpiexec=$4
@@ -62,7 +63,7 @@ kill_at() {
 # second solve.
 restart_case() {
   local name=$1 ranks=$2 case_file=$3 checked=${4:-}
-  local settings=(--set "output.checkpoint_every=0 s")
+  local settings=(--set "output.checkpoint_every=0 s" "${extra[@]}")
   [ -z "$checked" ] && settings+=(--set "numerics.accuracy=off")
   on_ranks "$ranks" run "$case_file" "${settings[@]}" --output "$name.reference" --quiet ||
     { fail "$name: the uninterrupted run failed"; return; }
@@ -95,7 +96,12 @@ restart_case() {
   echo "$name: $(tail -n 1 "$name.compare")"
 }
 
+extra=() # more settings for restart_case
 restart_case one_d_staged 2 "$source/tests/cli/restart/staged_release.ini"
+# Global time error control: the carried error (two vectors) is part of the checkpoint.
+extra=(--set "time.error_control=global")
+restart_case one_d_global 2 "$source/tests/cli/restart/staged_release.ini"
+extra=()
 restart_case one_d_reserve 2 "$source/cases/drug_matrix_bath.ini"
 restart_case two_d 2 "$source/cases/wafer_trench.ini"
 restart_case three_d 2 "$source/cases/pipe_penetration.ini"
