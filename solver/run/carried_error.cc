@@ -5,6 +5,7 @@
 #include <deal.II/base/mpi.h>
 
 #include <cmath>
+#include <cstdio>
 #include <limits>
 
 namespace fickcast
@@ -37,6 +38,25 @@ namespace fickcast
       }
     carried_ = current_; // initial guess
     return problem_.propagate_error(plan, current_, bdf2 ? &previous_ : nullptr, carried_);
+  }
+
+  template <int dim>
+  void CarriedError<dim>::report(RunRecord &record) const
+  {
+    record.carried_time_error = last();
+    record.carried_time_error_largest = largest();
+    record.carried_time_error_largest_at = largest_time_;
+    record.steps_at_floor = at_floor_;
+    if (!active_ || !(final_ > tolerance_))
+      return;
+    char text[400];
+    std::snprintf(text, sizeof text,
+                  "the time error carried to the end, %.2g of the concentration scale, is above time.tolerance "
+                  "(%.2g): %u early steps were kept at a tenth of the time diffusion takes to cross the smallest "
+                  "cell, and the body damps their error slowly; refine the mesh where the species enters, or keep "
+                  "numerics.accuracy on",
+                  final_, tolerance_, at_floor_);
+    record.warnings.push_back(text);
   }
 
   template <int dim>

@@ -3,6 +3,7 @@
 #pragma once
 
 #include "numerics/diffusion_problem.h"
+#include "results/run_record.h"
 #include "run/checkpoint.h"
 
 #include <vector>
@@ -91,6 +92,9 @@ namespace fickcast
     unsigned int steps_at_floor() const { return at_floor_; }
     /// When the largest carried error was seen (s).
     double largest_time() const { return largest_time_; }
+    /// Puts the carried error into @p record, with a warning when it ends above the tolerance
+    /// (steps kept at the floor in a body that damps their error slowly).
+    void report(RunRecord &record) const;
     /// Writes the carried error to a checkpoint, and reads it back (IoError naming @p folder if
     /// it does not fit this case).
     void save(StateArchive &archive) const;

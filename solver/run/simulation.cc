@@ -748,10 +748,7 @@ namespace fickcast
     record.source_total = source_total;
     record.decayed_total = decayed_total;
     record.balance_error = balance;
-    record.carried_time_error = carried.last();
-    record.carried_time_error_largest = carried.largest();
-    record.carried_time_error_largest_at = carried.largest_time();
-    record.steps_at_floor = carried.steps_at_floor();
+    carried.report(record);
     double moved = reference_amount;
     for (const double a : record.final_region_amounts)
       moved = std::max(moved, std::abs(a));
