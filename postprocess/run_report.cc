@@ -7,6 +7,7 @@
 #include "time_units.h"
 
 #include <cmath>
+#include <cstdio>
 #include <filesystem>
 #include <map>
 
@@ -92,6 +93,19 @@ namespace fickcast::post
     }
 
     /// How the accuracy check went, and the warnings of the run.
+    /// The time error global control carried, for the "time" row (empty without it).
+    std::string carried_error_text(const RunSummary &s)
+    {
+      if (!std::isfinite(s.carried_error_final))
+        return "";
+      char text[200];
+      std::snprintf(text, sizeof text,
+                    "; global time error control: carried error %.2g at the end, %.2g at most, tolerance %.2g "
+                    "(relative to the concentration scale)",
+                    s.carried_error_final, s.carried_error_largest, s.time_tolerance);
+      return text;
+    }
+
     std::string accuracy_section(const RunSummary &s)
     {
       std::string html;
@@ -226,7 +240,7 @@ namespace fickcast::post
                  std::to_string(s.degree) + " elements"},
       {"time", "to " + format_time(s.end_time) + ", " + s.scheme + (s.adaptive ? ", error-controlled steps" : "") +
                  "; " + std::to_string(s.steps_accepted) + " steps accepted, " + std::to_string(s.steps_rejected) +
-                 " rejected"},
+                 " rejected" + carried_error_text(s)},
       {"units", "concentration " + c.symbol + " in plots (SI " + s.unit_concentration + " in files), amounts " +
                   s.unit_amount + ", flux " + s.unit_flux}};
     for (std::size_t r = 0; r < s.regions.size(); ++r)

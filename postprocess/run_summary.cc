@@ -118,6 +118,13 @@ namespace fickcast::post
     s.adaptive = read.at("time.adaptive", Json::booleanValue).asBool();
     s.steps_accepted = static_cast<long>(read.number("time.steps_accepted"));
     s.steps_rejected = static_cast<long>(read.number("time.steps_rejected"));
+    // Written only by a run with global time error control.
+    if (root["time"].isMember("carried_error_final"))
+      {
+        s.carried_error_final = read.number_or_nan("time.carried_error_final");
+        s.carried_error_largest = read.number_or_nan("time.carried_error_largest");
+        s.time_tolerance = read.number_or_nan("time.tolerance");
+      }
     if (root["time"].isMember("stages"))
       for (const auto &item : read.at("time.stages", Json::arrayValue))
         {

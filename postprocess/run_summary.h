@@ -3,6 +3,7 @@
 
 #include <json/json.h>
 
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -56,6 +57,11 @@ namespace fickcast::post
     bool adaptive = false;
     long steps_accepted = 0;
     long steps_rejected = 0;
+    /// time.error_control = global: the time error carried by the state at the end and at most
+    /// (relative to the concentration scale), the tolerance; NaN otherwise.
+    double carried_error_final = std::numeric_limits<double>::quiet_NaN();
+    double carried_error_largest = std::numeric_limits<double>::quiet_NaN();
+    double time_tolerance = std::numeric_limits<double>::quiet_NaN();
     std::vector<StageSpan> stages;
     std::string linear_solver;
     long ranks = 1;

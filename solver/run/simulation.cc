@@ -581,7 +581,7 @@ namespace fickcast
                         clocks.push_back(history[k].clock);
                         states.push_back(&history[k].state);
                       }
-                    const double factor = extrapolate(clocks, states, s + ds, bdf2, order, predicted);
+                    const double factor = extrapolate(clocks, states, s + ds, ds, bdf2, order, predicted);
                     predicted -= u_new;
                     problem.zero_fixed(predicted);
                     problem.zero_depleted(predicted);

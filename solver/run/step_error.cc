@@ -27,9 +27,9 @@ namespace fickcast
 
   double extrapolate(const std::vector<double> &clocks,
                      const std::vector<const dealii::TrilinosWrappers::MPI::Vector *> &states, const double s1,
-                     const bool bdf2, const unsigned int order, dealii::TrilinosWrappers::MPI::Vector &predicted)
+                     const double ds, const bool bdf2, const unsigned int order,
+                     dealii::TrilinosWrappers::MPI::Vector &predicted)
   {
-    const double ds = s1 - clocks[0];
     if (states.size() == 2)
       {
         const double h1 = clocks[0] - clocks[1];

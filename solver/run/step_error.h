@@ -23,15 +23,14 @@ namespace fickcast
                              bool root_mean_square, MPI_Comm communicator);
 
   /**
-   * The extrapolation to clock @p s1 of the last states (@p states at @p clocks, newest first; two
-   * or three) into @p predicted, and the factor that turns (extrapolation - new state) into the
-   * step's local error estimate: the leading error term of the scheme (BDF2 or, with @p order 1,
-   * implicit Euler; @p bdf2 tells BDF2 from the trapezoidal rule at order 2) against that of the
-   * extrapolation, for variable steps.
+   * The extrapolation to clock @p s1 (a step @p ds from the newest) of the last states (@p states at @p clocks, newest
+   * first; two or three) into @p predicted, and the factor that turns (extrapolation - new state) into the step's local
+   * error estimate: the leading error term of the scheme (BDF2 or, with @p order 1, implicit Euler; @p bdf2 tells BDF2
+   * from the trapezoidal rule at order 2) against that of the extrapolation, for variable steps.
    */
   double extrapolate(const std::vector<double> &clocks,
-                     const std::vector<const dealii::TrilinosWrappers::MPI::Vector *> &states, double s1, bool bdf2,
-                     unsigned int order, dealii::TrilinosWrappers::MPI::Vector &predicted);
+                     const std::vector<const dealii::TrilinosWrappers::MPI::Vector *> &states, double s1, double ds,
+                     bool bdf2, unsigned int order, dealii::TrilinosWrappers::MPI::Vector &predicted);
 
   /// The first output time after 0 in @p outputs, or @p end.
   double first_output_time(double end, const std::vector<double> &outputs);
