@@ -11,32 +11,32 @@
 namespace fickcast
 {
   /**
-   * Global error estimation by transporting the local errors (the error of the state obeys the
-   * step's homogeneous equation, driven by each step's local error; see Lang and Verwer, "On
-   * global error estimation and control for initial value problems", SIAM J. Sci. Comput. 29,
-   * 2007, section 2). Carrying costs one more solve with the step's matrix and preconditioner,
-   * and none while nothing is carried.
-   *
-   * Control: a step is accepted when its local error fits in what the carried error leaves of
-   * the tolerance, tol - |carried|, but never less than tol x step / duration (errors that do not
-   * decay then add up to at most one more tolerance over the run). While the carried error is
-   * above the tolerance (the first steps of a sudden surface value, kept at the controller's
-   * floor), a step may add half of what diffusion damped of it in that step. Where diffusion damps earlier
-   * errors (a front's start), steps are large; where it does not, they are sized per unit step,
-   * which makes the error proportional to the tolerance.
-   */
-  /**
    * The shortest time diffusion takes to cross a node spacing of the mesh: the smallest (cell
    * size / degree)^2 / D over the cells, D the effective diffusivity of the cell's region at
    * @p t (collective). Steps far shorter than this only resolve the fastest modes of the
    * discretised equation, which the mesh represents poorly anyway (a sudden surface value), so
    * the global controller takes no step below a tenth of it (Eriksson and Johnson's argument for
    * balancing space and time errors, "Adaptive finite element methods for parabolic problems I",
-   * SIAM J. Numer. Anal. 28, 1991).
+   * SIAM J. Numer. Anal. 28, 1991; reference from memory).
    */
   template <int dim>
   double fastest_cell_time(const DiffusionProblem<dim> &problem, double t);
 
+  /**
+   * Global error estimation by transporting the local errors (the error of the state obeys the
+   * step's homogeneous equation, driven by each step's local error; see Lang and Verwer, "On
+   * global error estimation and control for initial value problems", SIAM J. Sci. Comput. 29,
+   * 2007; reference from memory). Carrying costs one more solve with the step's matrix and
+   * preconditioner, and none while nothing is carried.
+   *
+   * Control: a step is accepted when its local error fits in what the carried error leaves of
+   * the tolerance, tol - |carried|, but never less than tol x step / duration (errors that do not
+   * decay then add up to at most one more tolerance over the run). While the carried error is
+   * above the tolerance (the first steps of a sudden surface value, kept at the controller's
+   * floor), a step may add half of what diffusion damped of it in that step. Where diffusion
+   * damps earlier errors (a front's start), steps are large; where it does not, they are sized
+   * per unit step, which makes the error proportional to the tolerance.
+   */
   template <int dim>
   class CarriedError
   {
