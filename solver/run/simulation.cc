@@ -316,7 +316,7 @@ namespace fickcast
     double previous_ds = 0;
     Vector u_new = problem.make_vector();
     const auto step_norm = [&](const Vector &v) {
-      return weighted_step_error(v, u_new, scale, c.time.error_floor, problem.has_dispersed_phase(), communicator);
+      return weighted_step_error(v, u_new, scale, c.time.error_floor, dispersed, communicator);
     };
 
     // Everything the loop carries from step to step, in one order for writing and reading.
