@@ -54,6 +54,21 @@ namespace fickcast
       return "";
     }
 
+    /// Whether process @p pid has ended but is not yet reaped (a zombie: state Z or X in Linux
+    /// /proc). The ranks of an MPI run that stopped on an error can stay so for a moment after
+    /// mpirun returns, and such a process writes nothing more.
+    bool process_ended(const long pid)
+    {
+      std::ifstream stat("/proc/" + std::to_string(pid) + "/stat");
+      std::string text;
+      std::getline(stat, text);
+      const auto close = text.rfind(')');
+      if (close == std::string::npos || close + 2 >= text.size())
+        return false;
+      const char state = text[close + 2];
+      return state == 'Z' || state == 'X';
+    }
+
     constexpr const char *owner_file = ".fickcast-owner";
 
     /// Records which process writes into @p folder (a process number alone is reused).
@@ -66,7 +81,7 @@ namespace fickcast
     /// Whether the process that made the partial folder @p folder (number @p pid) still runs.
     bool owner_alive(const std::string &folder, const long pid)
     {
-      if (pid <= 0 || (::kill(static_cast<pid_t>(pid), 0) != 0 && errno == ESRCH))
+      if (pid <= 0 || (::kill(static_cast<pid_t>(pid), 0) != 0 && errno == ESRCH) || process_ended(pid))
         return false;
       std::ifstream in(folder + "/" + owner_file);
       std::string recorded;

@@ -90,6 +90,27 @@ echo "some-other-boot 12345" >"out2.partial-$$/.fickcast-owner"
 expect_code 0 "a run next to a partial folder whose number was reused" "$fickcast" run case.ini --output out2 --overwrite "${quick[@]}"
 [ -d "out2.partial-$$" ] && fail "a partial folder whose process number was reused is taken for a live run"
 [ -e out2/.fickcast-owner ] && fail "the finished folder keeps the owner record"
+# A process that has ended but is not yet reaped (a zombie, as an MPI rank can be for a moment after
+# mpirun returns) runs no more: its partial folder is stale even though its owner record matches.
+sh -c 'sleep 0 & exec sleep 30' &
+reaper=$!
+zombie=""
+for _ in $(seq 1 500); do
+  zombie=$(pgrep -P "$reaper" 2>/dev/null | head -1)
+  [ -n "$zombie" ] && [ "$(awk '{print $3}' "/proc/$zombie/stat" 2>/dev/null)" = Z ] && break
+  sleep 0.01
+done
+if [ -n "$zombie" ] && [ "$(awk '{print $3}' "/proc/$zombie/stat" 2>/dev/null)" = Z ]; then
+  mkdir -p "out3.partial-$zombie" && touch "out3.partial-$zombie/.fickcast-results"
+  echo "$(cat /proc/sys/kernel/random/boot_id) $(awk '{print $22}' "/proc/$zombie/stat")" >"out3.partial-$zombie/.fickcast-owner"
+  expect_code 0 "a run next to the partial folder of a zombie process" "$fickcast" run case.ini --output out3 "${quick[@]}"
+  grep -q "out3.partial-$zombie is left by an interrupted run" "$scratch/err.txt" ||
+    fail "the partial folder of an ended (zombie) process is taken for a live run: $(cat "$scratch/err.txt")"
+else
+  fail "could not make a zombie process to test with"
+fi
+kill "$reaper" 2>/dev/null
+wait "$reaper" 2>/dev/null
 
 echo "$failures failures"
 [ "$failures" -eq 0 ]
