@@ -144,6 +144,19 @@ namespace fickcast
       }
 
     setup_dofs();
+    make_operators();
+
+    bath_value_.assign(names_.boundaries.size(), 0.0);
+    bath_value_prev_ = bath_value_;
+    bath_trial_ = bath_value_;
+    set_stage(0);
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::make_operators()
+  {
+    system_.clear();
+    modified_.clear();
     unit_.resize(static_cast<std::size_t>(n_unit_));
     reinit(mass_);
     reinit(static_);
@@ -167,18 +180,16 @@ namespace fickcast
           direct = serial && (dim == 1 || (dim == 2 && n_dofs() <= 5000) || (dim == 3 && n_dofs() <= 1000));
           break;
       }
+    if (solver_)
+      setups_before_ += solver_->n_setups();
     solver_ = std::make_unique<LinearSolver>(direct, description_.numerics.solver_tolerance, fe_.degree > 1);
-
-    bath_value_.assign(names_.boundaries.size(), 0.0);
-    bath_value_prev_ = bath_value_;
-    bath_trial_ = bath_value_;
-    set_stage(0);
   }
 
   template <int dim>
-  void DiffusionProblem<dim>::setup_dofs()
+  void DiffusionProblem<dim>::setup_dofs(const bool attach)
   {
-    dof_handler_.reinit(*triangulation_);
+    if (attach)
+      dof_handler_.reinit(*triangulation_);
     dof_handler_.distribute_dofs(fe_);
     owned_ = dof_handler_.locally_owned_dofs();
     DoFTools::extract_locally_relevant_dofs(dof_handler_, relevant_);

@@ -59,6 +59,23 @@ namespace fickcast
     double decay = 0;                    ///< first-order decay (a loss)
   };
 
+  /// Where a remeshing may refine and coarsen (DiffusionProblem::adapt).
+  struct AdaptLimits
+  {
+    double refine_above = 0;  ///< refine a cell whose error estimate (units of u) exceeds this
+    double coarsen_below = 0; ///< coarsen cells (with their siblings) whose estimates lie below this
+    double smallest = 0;      ///< no cell is refined below this diameter (m)
+    double largest = 0;       ///< no cell is coarsened above this diameter (m; 0: no bound)
+  };
+
+  /// What one remeshing did (collective numbers).
+  struct AdaptResult
+  {
+    unsigned long cells_before = 0, cells_after = 0;
+    unsigned long marked_refine = 0, marked_coarsen = 0;
+    bool changed = false;
+  };
+
   /// What a checkpoint keeps of the problem besides the state u (plain data, this rank's part).
   struct ProblemState
   {
@@ -188,6 +205,23 @@ namespace fickcast
     /// initial_state(). Throws IoError if the state does not fit this problem.
     void restore(const ProblemState &state);
 
+    // --- runtime mesh adaptivity (mesh_adaptation.cc)
+    /// An estimate of the interpolation error of @p u on each locally owned active cell, in the
+    /// units of u (indexed by active cell index; 0 on other cells): h times the jump of the normal
+    /// derivative across the cell's faces (Kelly, Gago, Zienkiewicz and Babuska, Int. J. Numer.
+    /// Meth. Eng. 19 (1983), from memory), scaled to the size of a nodal interpolation error.
+    /// Collective.
+    dealii::Vector<float> cell_error_estimates(const Vector &u) const;
+    /// Refines the cells whose estimate exceeds @p limits.refine_above and coarsens those below
+    /// @p limits.coarsen_below, within the smallest and largest cell size; carries each vector of
+    /// @p states to the new mesh by interpolation (exact where cells are refined: the coarse
+    /// function lies in the finer space; where cells are coarsened, what the coarser space cannot
+    /// hold is lost, which the caller measures as a change of amount); then rebuilds the space,
+    /// hanging-node constraints, fixed unknowns and operators of the current stage. The
+    /// preconditioner is rebuilt on the next step. Region interfaces stay on cell faces (cells
+    /// keep their region). Not with an undissolved reserve (throws). Collective.
+    AdaptResult adapt(const Vector &u, const AdaptLimits &limits, const std::vector<Vector *> &states);
+
     // --- observables (collective)
     /// Dissolved and sorbed amount in each region (index = material id), int C u.
     std::vector<double> region_amounts(const Vector &u) const;
@@ -217,7 +251,12 @@ namespace fickcast
     void distribute(Vector &v) const;
     /// Zeroes the rows of hanging nodes in @p v (residuals: those rows carry no equation).
     void zero_hanging(Vector &v) const;
-    void setup_dofs();
+    /// Numbers the unknowns (attached to the mesh first unless @p attach is false: after a
+    /// remeshing the handler stays attached) and makes the hanging-node constraints.
+    void setup_dofs(bool attach = true);
+    /// Sizes the operators for the current unknowns and makes the linear solver (direct or
+    /// iterative by numerics.linear_solver and the number of unknowns).
+    void make_operators();
     void setup_fixed_unknowns();
     void reinit(MatrixPair &pair);
 

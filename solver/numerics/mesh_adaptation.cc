@@ -1,0 +1,151 @@
+// DiffusionProblem: refinement and coarsening of the mesh during a run, driven by an estimate of
+// the interpolation error of the state, with the states carried to the new mesh.
+#include "numerics/diffusion_problem.h"
+
+#include <deal.II/base/mpi.h>
+#include <deal.II/base/quadrature_lib.h>
+#include <deal.II/distributed/solution_transfer.h>
+#include <deal.II/distributed/tria.h>
+#include <deal.II/grid/grid_tools.h>
+#include <deal.II/numerics/error_estimator.h>
+#include <deal.II/numerics/solution_transfer.h>
+
+#include <cmath>
+#include <map>
+
+namespace fickcast
+{
+  using namespace dealii;
+
+  template <int dim>
+  dealii::Vector<float> DiffusionProblem<dim>::cell_error_estimates(const Vector &u) const
+  {
+    dealii::Vector<float> estimate(triangulation_->n_active_cells());
+    const Vector ghosted = make_ghosted(u);
+    const std::map<types::boundary_id, const Function<dim, double> *> no_flux_data;
+    // eta_K^2 = sum over the faces of K of h_K / 24 int_F [du/dn]^2 (deal.II's default weight).
+    KellyErrorEstimator<dim>::estimate(mapping_, dof_handler_, QGauss<dim - 1>(fe_.degree + 1), no_flux_data, ghosted,
+                                       estimate);
+    // A jump J of the normal derivative on the 2 dim faces of a cell of size h gives
+    // eta^2 = dim h^dim J^2 / 12, and the nodal interpolation error it signals is about h J / 8
+    // (J = h u'' and h^2 u'' / 8 for linear elements; the same order for higher degrees, where
+    // J = O(h^p)): the estimate in units of u is h J / 8 with J = eta sqrt(12 / (dim |K|)).
+    for (const auto &cell : triangulation_->active_cell_iterators())
+      if (cell->is_locally_owned())
+        {
+          const double h = cell->diameter(), measure = cell->measure();
+          float &e = estimate[cell->active_cell_index()];
+          e = measure > 0 ? static_cast<float>(e * h * std::sqrt(12.0 / (dim * measure)) / 8.0) : 0.0f;
+        }
+    return estimate;
+  }
+
+  template <int dim>
+  AdaptResult DiffusionProblem<dim>::adapt(const Vector &u, const AdaptLimits &limits,
+                                           const std::vector<Vector *> &states)
+  {
+    AssertThrow(!dispersed_, ExcMessage("runtime mesh adaptivity does not carry an undissolved reserve"));
+    PhaseTimer::Scope scope(timer_, "remeshing");
+    AdaptResult result;
+    result.cells_before = n_cells();
+    const dealii::Vector<float> estimate = cell_error_estimates(u);
+    unsigned long refine = 0, coarsen = 0;
+    const auto vertex_cells = GridTools::vertex_to_cell_map(*triangulation_);
+    for (const auto &cell : triangulation_->active_cell_iterators())
+      {
+        if (!cell->is_locally_owned())
+          continue;
+        const double e = estimate[cell->active_cell_index()];
+        const double h = cell->diameter();
+        if (e > limits.refine_above && h >= 2 * limits.smallest)
+          {
+            cell->set_refine_flag();
+            ++refine;
+          }
+        else if (e < limits.coarsen_below && cell->level() > 0 && (!(limits.largest > 0) || 2 * h <= limits.largest))
+          {
+            // p4est keeps cells that share a vertex within one level of each other: a cell that
+            // touches a finer one cannot go up a level yet (flagging it would rebuild the space
+            // for nothing).
+            bool next_to_finer = false;
+            for (const unsigned int v : cell->vertex_indices())
+              for (const auto &neighbour : vertex_cells[cell->vertex_index(v)])
+                if (neighbour->level() > cell->level())
+                  next_to_finer = true;
+            if (next_to_finer)
+              continue;
+            cell->set_coarsen_flag();
+            ++coarsen;
+          }
+      }
+    result.marked_refine = Utilities::MPI::sum(refine, communicator_);
+    result.marked_coarsen = Utilities::MPI::sum(coarsen, communicator_);
+    triangulation_->prepare_coarsening_and_refinement();
+    // Coarsening needs every sibling flagged: what is left after preparation decides.
+    unsigned int flagged = 0;
+    for (const auto &cell : triangulation_->active_cell_iterators())
+      if (cell->is_locally_owned() && (cell->refine_flag_set() || cell->coarsen_flag_set()))
+        flagged = 1;
+    if (Utilities::MPI::max(flagged, communicator_) == 0)
+      {
+        result.cells_after = result.cells_before;
+        return result;
+      }
+
+    std::vector<Vector> carried;
+    for (const Vector *state : states)
+      carried.push_back(make_ghosted(*state));
+    std::vector<Vector> moved;
+    if constexpr (dim == 1)
+      {
+        // One rank (1-D runs are serial): the serial transfer, on vectors holding every entry.
+        SolutionTransfer<dim, Vector> transfer(dof_handler_);
+        transfer.prepare_for_coarsening_and_refinement(carried);
+        triangulation_->execute_coarsening_and_refinement();
+        setup_dofs(false);
+        moved.assign(carried.size(), make_vector());
+        transfer.interpolate(carried, moved);
+      }
+    else
+      {
+        parallel::distributed::SolutionTransfer<dim, Vector> transfer(dof_handler_);
+        std::vector<const Vector *> in;
+        for (const Vector &v : carried)
+          in.push_back(&v);
+        transfer.prepare_for_coarsening_and_refinement(in);
+        triangulation_->execute_coarsening_and_refinement();
+        setup_dofs(false);
+        moved.assign(carried.size(), make_vector());
+        std::vector<Vector *> out;
+        for (Vector &v : moved)
+          out.push_back(&v);
+        transfer.interpolate(out);
+      }
+    for (std::size_t k = 0; k < states.size(); ++k)
+      {
+        moved[k].compress(VectorOperation::insert);
+        *states[k] = moved[k];
+        distribute(*states[k]);
+      }
+
+    // The operators of the current stage on the new mesh; the next step builds its system and
+    // preconditioner anew.
+    make_operators();
+    setup_fixed_unknowns();
+    assemble_constant_parts();
+    system_key_.clear();
+    hierarchy_key_.clear();
+    dynamic_valid_ = false;
+    depleted_.clear();
+    result.cells_after = n_cells();
+    result.changed = true;
+    return result;
+  }
+
+  template dealii::Vector<float> DiffusionProblem<1>::cell_error_estimates(const Vector &) const;
+  template dealii::Vector<float> DiffusionProblem<2>::cell_error_estimates(const Vector &) const;
+  template dealii::Vector<float> DiffusionProblem<3>::cell_error_estimates(const Vector &) const;
+  template AdaptResult DiffusionProblem<1>::adapt(const Vector &, const AdaptLimits &, const std::vector<Vector *> &);
+  template AdaptResult DiffusionProblem<2>::adapt(const Vector &, const AdaptLimits &, const std::vector<Vector *> &);
+  template AdaptResult DiffusionProblem<3>::adapt(const Vector &, const AdaptLimits &, const std::vector<Vector *> &);
+} // namespace fickcast
