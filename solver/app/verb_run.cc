@@ -88,6 +88,11 @@ namespace fickcast
                 r.degree, r.linear_solver.c_str(), r.ranks, r.ranks > 1 ? "s" : "");
     std::printf("  %u steps (%u rejected) to t = %s in %.2f s\n", r.steps_accepted, r.steps_rejected,
                 units.time(r.end_time).c_str(), r.wall_time);
+    if (r.remeshings > 0)
+      std::printf("  remeshed %u times (cells above: the last mesh; at most %lu cells, %lu unknowns); amount added by "
+                  "remeshing %.3g %s\n",
+                  r.remeshings, r.cells_largest, r.unknowns_largest, r.remeshed_amount,
+                  description.units.amount.c_str());
     if (r.carried_time_error >= 0)
       std::printf("  time error carried by the state (relative to the concentration scale): %.2g at the end, %.2g "
                   "at most (t = %s), time.tolerance %.2g%s\n",

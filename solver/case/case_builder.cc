@@ -83,6 +83,16 @@ namespace fickcast
             }
         }
       c.numerics.accuracy_solves = static_cast<unsigned int>(reader.quantity("numerics", "accuracy_solves", 3));
+      c.numerics.remesh = reader.text("numerics", "remesh") == "on";
+      for (const RegionSpec &region : c.regions)
+        if (c.numerics.remesh && region.has_dispersed_phase())
+          reader.fail(*reader.get("numerics", "remesh"),
+                      "expected off: region " + region.name +
+                        " holds undissolved content (a solubility), which the remeshing does not carry yet; found on");
+      c.numerics.remesh_error = reader.quantity("numerics", "remesh_error", 1e-3);
+      c.numerics.remesh_every = static_cast<unsigned int>(reader.quantity("numerics", "remesh_every", 5));
+      c.numerics.smallest_cell = reader.quantity("numerics", "smallest_cell", 0);
+      c.numerics.largest_cell = reader.quantity("numerics", "largest_cell", 0);
     }
 
     /// Records @p section.@p key as given, or its default if it has one.

@@ -240,6 +240,13 @@ namespace fickcast
     /// a description built in code is off unless it says otherwise.
     double accuracy = 0;
     unsigned int accuracy_solves = 3; ///< most solves of the check
+    /// Runtime remeshing (numerics.remesh*): on or off, the largest interpolation error per cell
+    /// relative to the concentration scale, accepted steps between remeshings, and the smallest
+    /// and largest cell diameter (0: auto).
+    bool remesh = false;
+    double remesh_error = 1e-3;
+    unsigned int remesh_every = 5;
+    double smallest_cell = 0, largest_cell = 0;
   };
 
   struct NamedPointSpec

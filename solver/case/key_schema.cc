@@ -235,6 +235,23 @@ namespace fickcast
       s.push_back(bounded(make("numerics", "accuracy_solves", K::integer, Dim::none, "3",
                                "most solves an accuracy check may take (each one refinement finer)"),
                           2, false, 6, false));
+      s.push_back(choices(make("numerics", "remesh", K::choice, Dim::none, "off",
+                               "on: refine the mesh where the concentration needs it and coarsen it where it no "
+                               "longer does, during the run"),
+                          {"off", "on"}));
+      s.push_back(bounded(make("numerics", "remesh_error", K::quantity, Dim::dimensionless, "1e-3",
+                               "largest interpolation error of the concentration the remeshing allows in a cell, "
+                               "relative to the concentration scale"),
+                          0, true, 0.1, false));
+      s.push_back(
+        bounded(make("numerics", "remesh_every", K::integer, Dim::none, "5", "accepted steps between remeshings"), 1,
+                false, 1e6, false));
+      s.push_back(with_auto(positive(make("numerics", "smallest_cell", K::quantity, Dim::length, "",
+                                          "smallest cell the remeshing may make (diameter); auto: the largest "
+                                          "cell of the mesh as given / 1024"))));
+      s.push_back(with_auto(positive(make("numerics", "largest_cell", K::quantity, Dim::length, "",
+                                          "largest cell the remeshing may coarsen to (diameter); auto: no bound "
+                                          "below the cells of the mesh as given"))));
       // [sweep]
       s.push_back(make("sweep", "vary.*", K::text, Dim::none, "",
                        "what-if: values of a case key, comma separated with units, or whole strings separated by |"));

@@ -176,6 +176,9 @@ namespace fickcast
     /// A scale for u: the largest initial and boundary value magnitude, boundary values taken at
     /// @p t in the current stage (collective, > 0 if any).
     double concentration_scale(double t = 0) const;
+    /// Sets the fixed unknowns of @p v to their values at @p t (concentration boundaries; baths
+    /// at their current value): what the state holds after a step to t.
+    void set_fixed_values(Vector &v, double t) const;
     /// Zeroes the fixed unknowns of @p v (concentration boundaries and baths).
     void zero_fixed(Vector &v) const;
     /// Zeroes the nodes whose undissolved reserve ran out in the last step: their history has a

@@ -41,6 +41,21 @@ namespace fickcast
   }
 
   template <int dim>
+  void DiffusionProblem<dim>::set_fixed_values(Vector &v, const double t) const
+  {
+    for (std::size_t k = 0; k < fixed_dofs_.size(); ++k)
+      {
+        const auto [dof, b] = fixed_dofs_[k];
+        const Point<dim> &p = fixed_points_[k];
+        if (boundaries_[b].kind() == BoundaryKind::concentration)
+          v[dof] = boundaries_[b].fixed_value(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, t);
+        else
+          v[dof] = bath_value_[b];
+      }
+    v.compress(VectorOperation::insert);
+  }
+
+  template <int dim>
   AdaptResult DiffusionProblem<dim>::adapt(const Vector &u, const AdaptLimits &limits,
                                            const std::vector<Vector *> &states)
   {
@@ -78,6 +93,23 @@ namespace fickcast
             ++coarsen;
           }
       }
+    // One layer of cells around each refined one is refined too (unless finer already): a front
+    // moves into the cells ahead of it before the next remeshing, and those show no error yet.
+    std::vector<typename Triangulation<dim>::active_cell_iterator> ahead;
+    for (const auto &cell : triangulation_->active_cell_iterators())
+      if (cell->is_locally_owned() && cell->refine_flag_set())
+        for (const unsigned int v : cell->vertex_indices())
+          for (const auto &neighbour : vertex_cells[cell->vertex_index(v)])
+            if (neighbour->is_locally_owned() && !neighbour->refine_flag_set() && neighbour->level() <= cell->level() &&
+                neighbour->diameter() >= 2 * limits.smallest)
+              ahead.push_back(neighbour);
+    for (auto &cell : ahead)
+      if (!cell->refine_flag_set())
+        {
+          cell->clear_coarsen_flag();
+          cell->set_refine_flag();
+          ++refine;
+        }
     result.marked_refine = Utilities::MPI::sum(refine, communicator_);
     result.marked_coarsen = Utilities::MPI::sum(coarsen, communicator_);
     triangulation_->prepare_coarsening_and_refinement();
@@ -142,6 +174,9 @@ namespace fickcast
     return result;
   }
 
+  template void DiffusionProblem<1>::set_fixed_values(Vector &, double) const;
+  template void DiffusionProblem<2>::set_fixed_values(Vector &, double) const;
+  template void DiffusionProblem<3>::set_fixed_values(Vector &, double) const;
   template dealii::Vector<float> DiffusionProblem<1>::cell_error_estimates(const Vector &) const;
   template dealii::Vector<float> DiffusionProblem<2>::cell_error_estimates(const Vector &) const;
   template dealii::Vector<float> DiffusionProblem<3>::cell_error_estimates(const Vector &) const;

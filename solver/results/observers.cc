@@ -19,8 +19,8 @@ namespace fickcast
     , c_(description)
     , root_(Utilities::MPI::this_mpi_process(field.communicator) == 0)
   {
-    std::vector<Point<dim>> points;
-    std::vector<std::string> regions, names, origins;
+    std::vector<Point<dim>> &points = points_;
+    std::vector<std::string> &regions = point_regions_, &names = point_names_, &origins = origins_;
     for (const auto &named_point : c_.output.points)
       {
         names.push_back(named_point.name);
@@ -98,7 +98,18 @@ namespace fickcast
         line.distance.push_back(fraction * from.distance(to));
       }
     line.evaluator = std::make_unique<PointEvaluator<dim>>(field_, line.points, what);
+    line.what = what;
     return line;
+  }
+
+  template <int dim>
+  void Observers<dim>::relocate()
+  {
+    named_points_ =
+      std::make_unique<PointEvaluator<dim>>(field_, points_, "output.point", point_regions_, point_names_, origins_);
+    for (auto *list : {&lines_, &depth_lines_})
+      for (Line &line : *list)
+        line.evaluator = std::make_unique<PointEvaluator<dim>>(field_, line.points, line.what);
   }
 
   template <int dim>

@@ -60,6 +60,9 @@ namespace fickcast
     void step(double t0, double t1, const Vector &ghosted, double remaining);
     /// An output time: profiles, depths, moments.
     void output(double t, const Vector &ghosted);
+    /// Locates the points and lines anew after the mesh changed (runtime remeshing); what was
+    /// observed so far stays.
+    void relocate();
     /// Moves the event results into @p record and closes profiles.csv.
     void finish(RunRecord &record);
 
@@ -70,6 +73,7 @@ namespace fickcast
       std::vector<dealii::Point<dim>> points;
       std::vector<double> distance;
       std::unique_ptr<PointEvaluator<dim>> evaluator;
+      std::string what; ///< the key that placed it, for messages
     };
 
     Line make_line(const std::string &name, const dealii::Point<dim> &from, const dealii::Point<dim> &to,
@@ -80,6 +84,8 @@ namespace fickcast
     const CaseDescription &c_;
     bool root_;
     std::unique_ptr<PointEvaluator<dim>> named_points_;
+    std::vector<dealii::Point<dim>> points_;                         ///< the named points
+    std::vector<std::string> point_regions_, point_names_, origins_; ///< their regions, names and places
     std::vector<double> point_values_;
     std::vector<NamedPointRecord> point_records_;
     std::vector<Line> lines_;       ///< named sampling lines

@@ -93,6 +93,13 @@ namespace fickcast
     unsigned int dimension = 1;
     unsigned long cells = 0;
     unsigned long unknowns = 0;
+    /// Runtime remeshing (numerics.remesh): how many times the mesh changed, the most cells and
+    /// unknowns it had (cells and unknowns above are the last mesh's), and the amount the
+    /// remeshings added in total (coarsening loses what the coarser mesh cannot hold; a term of
+    /// the mass balance, not an error of it).
+    unsigned int remeshings = 0;
+    unsigned long cells_largest = 0, unknowns_largest = 0;
+    double remeshed_amount = 0;
     unsigned int degree = 1;
     unsigned int ranks = 1;
     std::string linear_solver;

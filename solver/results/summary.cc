@@ -92,6 +92,13 @@ namespace fickcast
     mesh["cells"] = r.cells;
     mesh["unknowns"] = r.unknowns;
     mesh["degree"] = r.degree;
+    if (r.remeshings > 0 || r.cells_largest > 0)
+      {
+        mesh["remeshings"] = r.remeshings;
+        mesh["cells_largest"] = static_cast<Json::UInt64>(r.cells_largest);
+        mesh["unknowns_largest"] = static_cast<Json::UInt64>(r.unknowns_largest);
+        mesh["remeshed_amount"] = r.remeshed_amount;
+      }
     Json::Value regions(Json::arrayValue), boundaries(Json::arrayValue);
     for (const auto &name : r.regions)
       regions.append(name);

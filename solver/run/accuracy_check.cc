@@ -190,6 +190,11 @@ namespace fickcast
       c.time.tolerance /= std::pow(halving, 3.0);
     else
       c.time.step /= halving;
+    // Remeshing: the cells where it refines halve too (an interpolation error of degree p falls
+    // as h^(p+1)).
+    c.numerics.remesh_error /= std::pow(halving, static_cast<double>(c.numerics.degree + 1));
+    if (c.numerics.smallest_cell > 0)
+      c.numerics.smallest_cell /= halving;
     if (c.time.initial_step > 0)
       c.time.initial_step /= halving;
     if (c.time.max_step > 0)

@@ -83,6 +83,19 @@ namespace fickcast
           largest_time_ = t;
         }
     }
+    /// The vectors a remeshing must carry to the new mesh (none when not active); after it,
+    /// remeshed() sizes the scratch vectors for the new mesh.
+    std::vector<Vector *> states()
+    {
+      return active_ ? std::vector<Vector *>{&current_, &previous_} : std::vector<Vector *>{};
+    }
+    void remeshed()
+    {
+      if (!active_)
+        return;
+      carried_ = problem_.make_vector();
+      local_ = problem_.make_vector();
+    }
     /// A new stage: the history restarts; the error carried so far stays.
     void restart() { previous_ = current_; }
     /// Largest and last carried error over the run, relative as the tolerance (-1 if not active).

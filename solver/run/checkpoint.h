@@ -1,8 +1,11 @@
 // Checkpoints: the whole state of a run at a step, from which an interrupted run continues.
 #pragma once
 
+#include "case/input_error.h"
+
 #include <mpi.h>
 
+#include <algorithm>
 #include <cstdint>
 #include <optional>
 #include <string>
@@ -99,4 +102,20 @@ namespace fickcast
 
   /// The step of the newest complete checkpoint in the results folder @p folder, or -1.
   long latest_checkpoint_step(const std::string &folder);
+
+  /// The entries of @p v this rank owns, for a checkpoint.
+  template <typename Vector>
+  std::vector<double> owned_values(const Vector &v)
+  {
+    return std::vector<double>(v.begin(), v.end());
+  }
+
+  /// Sets the entries of @p v this rank owns from a checkpoint (IoError if they do not fit).
+  template <typename Vector>
+  void set_owned_values(Vector &v, const std::vector<double> &values)
+  {
+    if (values.size() != static_cast<std::size_t>(v.end() - v.begin()))
+      throw IoError("the checkpoint's state does not fit this rank's part of the mesh (a damaged file)");
+    std::copy(values.begin(), values.end(), v.begin());
+  }
 } // namespace fickcast

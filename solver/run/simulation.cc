@@ -12,7 +12,9 @@
 #include "run/field_view_of.h"
 #include "run/guards.h"
 #include "run/landing_times.h"
+#include "run/run_remeshing.h"
 #include "run/step_error.h"
+#include "run/time_lags.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -37,22 +39,6 @@ namespace fickcast
       char buffer[32];
       std::snprintf(buffer, sizeof(buffer), "%.6g", t);
       return buffer;
-    }
-
-    /// The entries of @p v this rank owns, for a checkpoint.
-    template <typename Vector>
-    std::vector<double> owned_values(const Vector &v)
-    {
-      return std::vector<double>(v.begin(), v.end());
-    }
-
-    /// Sets the entries of @p v this rank owns from a checkpoint.
-    template <typename Vector>
-    void set_owned_values(Vector &v, const std::vector<double> &values)
-    {
-      if (values.size() != static_cast<std::size_t>(v.end() - v.begin()))
-        throw IoError("the checkpoint's state does not fit this rank's part of the mesh (a damaged file)");
-      std::copy(values.begin(), values.end(), v.begin());
     }
 
     /// One remembered state: clock reading, time and u.
@@ -190,6 +176,9 @@ namespace fickcast
     // Initial state.
     Vector u = problem.make_vector();
     problem.initial_state(u);
+    RunRemeshing<dim> remeshing(problem, c, std::max({problem.concentration_scale(), u.linfty_norm(), 1e-300}));
+    if (!resumed)
+      remeshing.fit_initial(u);
     std::deque<Snapshot<Vector>> history; // newest first
     history.push_front({0.0, 0.0, u});
     record.initial_region_amounts = problem.region_amounts(u);
@@ -207,7 +196,7 @@ namespace fickcast
     };
     if (!resumed)
       observers.start(problem.make_ghosted(u), remaining(u));
-    std::vector<std::pair<unsigned int, std::vector<std::pair<double, double>>>> lag_history;
+    std::vector<FluxHistory> lag_history;
     for (const auto &[name, boundary] : c.output.time_lags)
       {
         (void)name;
@@ -312,6 +301,7 @@ namespace fickcast
     const bool dispersed = problem.has_dispersed_phase();
     double t = 0, s = 0;
     unsigned int step = 0, steps_since_restart = 0;
+    bool remeshed_last = false;
     std::size_t next_hard = 0, next_output = 0;
     double previous_ds = 0;
     Vector u_new = problem.make_vector();
@@ -508,7 +498,10 @@ namespace fickcast
             unsigned int order = 1;
             bool bdf2 = false;
             const TimeScheme scheme = c.time.scheme;
-            if (scheme == TimeScheme::bdf2 && !dispersed && steps_since_restart >= 1 && history.size() >= 2)
+            // After a remeshing, one implicit-Euler step: BDF2's balance books the previous step's
+            // amounts, which a coarsening of the older state no longer matches.
+            if (scheme == TimeScheme::bdf2 && !dispersed && steps_since_restart >= 1 && history.size() >= 2 &&
+                !remeshed_last)
               {
                 const double omega = ds / (history[0].clock - history[1].clock);
                 plan.a0 = (1 + 2 * omega) / (1 + omega);
@@ -664,6 +657,7 @@ namespace fickcast
             if (history.size() > 3)
               history.pop_back();
             u = u_new;
+            remeshed_last = false;
             previous_ds = ds;
             t = t1;
             s += ds;
@@ -700,18 +694,35 @@ namespace fickcast
                     rates_old = problem.rates(u, t);
                   }
               }
+            // Runtime remeshing: every state the next steps use goes to the new mesh.
+            if (remeshing.due(step) && next_hard < hard.size())
+              {
+                std::vector<Vector *> others = carried.states();
+                for (auto &h : history)
+                  others.push_back(&h.state);
+                if (remeshing.remesh(u, others))
+                  {
+                    remeshed_last = true;
+                    u_new = problem.make_vector();
+                    carried.remeshed();
+                    observers.relocate();
+                    rates_old = problem.rates(u, t);
+                    if (carried.active())
+                      controller.set_floor(0.1 * fastest_cell_time(problem, t) * clock_end / c.time.end);
+                  }
+              }
             if (progress)
               progress(t, c.time.end, step);
 
             // A stop request (on any rank) and a checkpoint that is due are decided together.
             int flags[2] = {stop_requested() ? 1 : 0, 0};
-            if (checkpoints.write && next_hard < hard.size())
+            if (checkpoints.write && !remeshing.active() && next_hard < hard.size())
               flags[1] = std::chrono::duration<double>(std::chrono::steady_clock::now() - last_checkpoint).count() >=
                              checkpoints.every
                            ? 1
                            : 0;
             MPI_Allreduce(MPI_IN_PLACE, flags, 2, MPI_INT, MPI_MAX, communicator);
-            if (checkpoints.write && (flags[0] || flags[1]))
+            if (checkpoints.write && !remeshing.active() && (flags[0] || flags[1]))
               {
                 save_checkpoint();
                 last_checkpoint = std::chrono::steady_clock::now();
@@ -745,6 +756,13 @@ namespace fickcast
     for (unsigned int b = 0; b < n_boundaries; ++b)
       if (bath_boundary[b])
         record.bath_final[b] = problem.bath_concentration(b);
+    remeshing.report(record);
+    if (remeshing.active())
+      {
+        record.cells = problem.n_cells();
+        record.unknowns = problem.n_dofs();
+        record.linear_solver = problem.uses_direct_solver() ? "direct (KLU)" : "CG with algebraic multigrid";
+      }
     record.source_total = source_total;
     record.decayed_total = decayed_total;
     record.balance_error = balance;
@@ -757,28 +775,8 @@ namespace fickcast
     moved = std::max({moved, std::abs(source_total), std::abs(decayed_total)});
     record.balance_error_relative = moved > 0 ? std::abs(balance) / moved : 0.0;
     observers.finish(record);
-    // Time lags: the intercept of the asymptote Q = J (t - t_lag) of the amount through a boundary.
-    for (std::size_t k = 0; k < c.output.time_lags.size(); ++k)
-      {
-        TimeLagRecord lag;
-        lag.name = c.output.time_lags[k].first;
-        lag.boundary = c.output.time_lags[k].second;
-        const auto &history_of = lag_history[k].second;
-        const unsigned int b = lag_history[k].first;
-        if (!history_of.empty() && history_of.back().second != 0)
-          {
-            const double flux = history_of.back().second;
-            lag.final_flux = flux;
-            lag.time_lag = t - record.boundary_entered[b] / flux;
-            // Steady: the flux changed by less than 0.1 % over the last fifth of the run.
-            const double early = 0.8 * t;
-            const auto it =
-              std::lower_bound(history_of.begin(), history_of.end(), early,
-                               [](const std::pair<double, double> &p, double when) { return p.first < when; });
-            lag.steady = it != history_of.end() && std::abs(flux - it->second) <= 1e-3 * std::abs(flux);
-          }
-        record.time_lags.push_back(lag);
-      }
+    for (auto &lag : time_lag_records(c.output.time_lags, lag_history, record.boundary_entered, t))
+      record.time_lags.push_back(lag);
     for (const auto &warning : range.warnings())
       record.warnings.push_back(warning);
     record.matrix_setups = problem.n_matrix_setups();

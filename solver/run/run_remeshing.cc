@@ -1,0 +1,105 @@
+#include "run/run_remeshing.h"
+
+#include "case/input_error.h"
+
+#include <deal.II/base/mpi.h>
+
+#include <algorithm>
+#include <cmath>
+#include <numeric>
+
+namespace fickcast
+{
+  using namespace dealii;
+
+  namespace
+  {
+    /// Refinement levels below the mesh as given that smallest_cell = auto allows: deep in 1-D,
+    /// where cells are cheap, shallower in 2-D and 3-D, where each level multiplies the cells
+    /// along a front by 2 and 4.
+    constexpr unsigned int auto_levels[] = {0, 10, 6, 4};
+  } // namespace
+
+  template <int dim>
+  RunRemeshing<dim>::RunRemeshing(DiffusionProblem<dim> &problem, const CaseDescription &c, const double scale)
+    : problem_(problem)
+    , active_(c.numerics.remesh)
+    , every_(std::max(1u, c.numerics.remesh_every))
+  {
+    if (!active_)
+      return;
+    if (problem.has_dispersed_phase())
+      throw InputError(c.file, "numerics.remesh",
+                       "expected off for a case with undissolved content (a region with a solubility): the "
+                       "remeshing does not carry the undissolved reserve yet, found on");
+    double largest = 0;
+    for (const auto &cell : problem.triangulation().active_cell_iterators())
+      if (cell->is_locally_owned())
+        largest = std::max(largest, cell->diameter());
+    largest = Utilities::MPI::max(largest, problem.communicator());
+    limits_.refine_above = c.numerics.remesh_error * scale;
+    limits_.coarsen_below = limits_.refine_above / 64;
+    limits_.smallest = c.numerics.smallest_cell > 0 ? c.numerics.smallest_cell
+                                                    : largest / std::pow(2.0, static_cast<double>(auto_levels[dim]));
+    limits_.largest = c.numerics.largest_cell;
+    levels_ = static_cast<unsigned int>(std::ceil(std::log2(std::max(largest / limits_.smallest, 1.0)))) + 1;
+    note_size();
+  }
+
+  template <int dim>
+  void RunRemeshing<dim>::note_size()
+  {
+    cells_largest_ = std::max(cells_largest_, problem_.n_cells());
+    unknowns_largest_ = std::max<unsigned long>(unknowns_largest_, problem_.n_dofs());
+  }
+
+  template <int dim>
+  void RunRemeshing<dim>::fit_initial(Vector &u)
+  {
+    if (!active_)
+      return;
+    // The mesh must also hold the jump from the initial values to the boundary values that
+    // start at t = 0: it is judged on the initial state with the fixed values imposed.
+    for (unsigned int round = 0; round < levels_; ++round)
+      {
+        Vector probe = u;
+        problem_.set_fixed_values(probe, 0.0);
+        if (!problem_.adapt(probe, limits_, {&u}).changed)
+          break;
+        ++count_;
+        note_size();
+        problem_.initial_state(u); // the initial values themselves on the new mesh, not a transfer
+      }
+  }
+
+  template <int dim>
+  bool RunRemeshing<dim>::remesh(Vector &u, const std::vector<Vector *> &others)
+  {
+    const auto amounts_before = problem_.region_amounts(u);
+    std::vector<Vector *> states{&u};
+    states.insert(states.end(), others.begin(), others.end());
+    if (!problem_.adapt(u, limits_, states).changed)
+      return false;
+    const auto amounts_after = problem_.region_amounts(u);
+    amount_added_ += std::accumulate(amounts_after.begin(), amounts_after.end(), 0.0) -
+                     std::accumulate(amounts_before.begin(), amounts_before.end(), 0.0);
+    ++count_;
+    note_size();
+    return true;
+  }
+
+  template <int dim>
+  void RunRemeshing<dim>::report(RunRecord &record) const
+  {
+    if (!active_)
+      return;
+    record.remeshings = count_;
+    record.cells_largest = cells_largest_;
+    record.unknowns_largest = unknowns_largest_;
+    record.remeshed_amount = amount_added_;
+  }
+
+  template class RunRemeshing<1>;
+  template class RunRemeshing<2>;
+  template class RunRemeshing<3>;
+} // namespace fickcast
