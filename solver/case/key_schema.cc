@@ -247,8 +247,8 @@ namespace fickcast
         bounded(make("numerics", "remesh_every", K::integer, Dim::none, "5", "accepted steps between remeshings"), 1,
                 false, 1e6, false));
       s.push_back(with_auto(positive(make("numerics", "smallest_cell", K::quantity, Dim::length, "",
-                                          "smallest cell the remeshing may make (diameter); auto: the largest "
-                                          "cell of the mesh as given / 1024"))));
+                                          "smallest cell the remeshing may make (diameter); auto: the largest cell of "
+                                          "the mesh as given / 1024 in 1-D, / 64 in 2-D, / 16 in 3-D"))));
       s.push_back(with_auto(positive(make("numerics", "largest_cell", K::quantity, Dim::length, "",
                                           "largest cell the remeshing may coarsen to (diameter); auto: no bound "
                                           "below the cells of the mesh as given"))));
