@@ -82,6 +82,22 @@ point.a = 0.75 m, 0.3 m
       observed.record = simulate<2>(description, communicator, description.output.folder, {}, observer);
       return observed;
     }
+
+    /// The 2-D case @p text on both ranks and then on rank 0 alone (the second record is empty
+    /// on rank 1): {one rank, two ranks}.
+    std::pair<RunRecord, RunRecord> on_one_and_two_ranks(const char *text, const std::string &name)
+    {
+      auto run_with = [&](MPI_Comm communicator, const std::string &folder) {
+        CaseDescription description = describe(text, folder, communicator);
+        std::filesystem::create_directories(description.output.folder + "/fields");
+        return simulate<2>(description, communicator, description.output.folder, {});
+      };
+      const RunRecord many = run_with(MPI_COMM_WORLD, name + "_two");
+      RunRecord one;
+      if (dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) == 0)
+        one = run_with(MPI_COMM_SELF, name + "_one");
+      return {one, many};
+    }
   } // namespace
 
   TEST(RankAgreement, TwoRanksMatchOneRankToSolverTolerance)
@@ -159,17 +175,8 @@ depth.down = 0.3 mol/m3
 release.some = 5 %
 time_lag.out = bottom
 )";
-    const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD);
-    auto run_with = [&](MPI_Comm communicator, const std::string &name) {
-      CaseDescription description = describe(text, name, communicator);
-      std::filesystem::create_directories(description.output.folder + "/fields");
-      return simulate<2>(description, communicator, description.output.folder, {});
-    };
-    const RunRecord many = run_with(MPI_COMM_WORLD, "events_two");
-    RunRecord one;
-    if (rank == 0)
-      one = run_with(MPI_COMM_SELF, "events_one");
-    if (rank != 0)
+    const auto [one, many] = on_one_and_two_ranks(text, "events");
+    if (dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) != 0)
       return;
     auto same = [](double a, double b, const std::string &what) {
       EXPECT_TRUE(std::isfinite(a) && std::isfinite(b)) << what << ": " << a << ", " << b;
@@ -221,24 +228,15 @@ remesh_every = 2
 [output]
 fields = false
 )";
-    const unsigned int rank = dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD);
-    auto run_with = [&](MPI_Comm communicator, const std::string &name) {
-      CaseDescription description = describe(text, name, communicator);
-      std::filesystem::create_directories(description.output.folder + "/fields");
-      return simulate<2>(description, communicator, description.output.folder, {});
-    };
-    const RunRecord many = run_with(MPI_COMM_WORLD, "remesh_two");
-    RunRecord one;
-    if (rank == 0)
-      one = run_with(MPI_COMM_SELF, "remesh_one");
-    if (rank != 0)
+    const auto [one, many] = on_one_and_two_ranks(text, "remesh");
+    if (dealii::Utilities::MPI::this_mpi_process(MPI_COMM_WORLD) != 0)
       return;
     EXPECT_GT(one.remeshings, 2u);
     EXPECT_EQ(one.remeshings, many.remeshings);
     EXPECT_EQ(one.cells_largest, many.cells_largest);
     EXPECT_EQ(one.cells, many.cells);
     const auto total = [](const std::vector<double> &v) { return std::accumulate(v.begin(), v.end(), 0.0); };
-    for (const RunRecord *r : {static_cast<const RunRecord *>(&one), &many})
+    for (const RunRecord *r : {&one, &many})
       {
         const double initial = total(r->initial_region_amounts), final = total(r->final_region_amounts);
         std::printf("%u rank(s): %u remeshings, final %.15g, remeshing term %.6e\n", r->ranks, r->remeshings, final,

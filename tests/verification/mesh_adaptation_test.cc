@@ -186,6 +186,9 @@ namespace fickcast::testing
     }
   } // namespace
 
+  // Source: the face-jump estimate of Kelly, Gago, Zienkiewicz and Babuska, Int. J. Numer. Meth.
+  // Eng. 19 (1983) (from memory), against the interpolation error bound O(h^(p+1)|u^(p+1)|) of
+  // Ciarlet, The Finite Element Method for Elliptic Problems (1978), th. 3.1.6 (from memory).
   TEST(MeshAdaptation, EstimateMeansInterpolationError1d)
   {
     check_estimate_means_interpolation_error<1>(1e-4, 0.01);
@@ -194,6 +197,9 @@ namespace fickcast::testing
   {
     check_estimate_means_interpolation_error<2>(1e-3, 0.02);
   }
+  // Source: conservation of a sealed body with a uniform source, content(t) = content(0) + s V t
+  // (common practice), and the nesting of Lagrange spaces under refinement (Ciarlet 1978, from
+  // memory), which keeps the amount of a refined state exactly.
   TEST(MeshAdaptation, RefinementKeepsTheAmountAndStepsConserve1d)
   {
     check_refinement_keeps_amount_and_step_conserves<1>();
