@@ -248,7 +248,9 @@ namespace fickcast
                 false, 1e6, false));
       s.push_back(with_auto(positive(make("numerics", "smallest_cell", K::quantity, Dim::length, "",
                                           "smallest cell the remeshing may make (diameter); auto: the largest cell of "
-                                          "the mesh as given / 1024 in 1-D, / 64 in 2-D, / 16 in 3-D"))));
+                                          "the mesh as given / 1024 in 1-D, / 64 in 2-D, / 16 in 3-D, but no "
+                                          "smaller than a node spacing of 1/8 of the shortest diffusion length "
+                                          "sqrt(D t) of the first output interval"))));
       s.push_back(with_auto(positive(make("numerics", "largest_cell", K::quantity, Dim::length, "",
                                           "largest cell the remeshing may coarsen to (diameter); auto: no bound "
                                           "below the cells of the mesh as given"))));

@@ -66,6 +66,10 @@ namespace fickcast
     double coarsen_below = 0; ///< coarsen cells (with their siblings) whose estimates lie below this
     double smallest = 0;      ///< no cell is refined below this diameter (m)
     double largest = 0;       ///< no cell is coarsened above this diameter (m; 0: no bound)
+    /// 0: the two error limits are in units of u. Otherwise they are relative to the largest |u|
+    /// in each cell, but to no less than this floor (units of u): values far below the scale are
+    /// then resolved as well as those near it, down to the floor.
+    double floor = 0;
   };
 
   /// What one remeshing did (collective numbers).

@@ -63,7 +63,18 @@ namespace fickcast
     PhaseTimer::Scope scope(timer_, "remeshing");
     AdaptResult result;
     result.cells_before = n_cells();
-    const dealii::Vector<float> estimate = cell_error_estimates(u);
+    dealii::Vector<float> estimate = cell_error_estimates(u);
+    if (limits.floor > 0)
+      {
+        const Vector ghosted = make_ghosted(u);
+        dealii::Vector<double> values(fe_.n_dofs_per_cell());
+        for (const auto &cell : dof_handler_.active_cell_iterators())
+          if (cell->is_locally_owned())
+            {
+              cell->get_dof_values(ghosted, values);
+              estimate[cell->active_cell_index()] /= static_cast<float>(std::max(values.linfty_norm(), limits.floor));
+            }
+      }
     unsigned long refine = 0, coarsen = 0;
     const auto vertex_cells = GridTools::vertex_to_cell_map(*triangulation_);
     for (const auto &cell : triangulation_->active_cell_iterators())

@@ -26,7 +26,8 @@ namespace fickcast
     using Vector = typename DiffusionProblem<dim>::Vector;
 
     /// Inactive unless @p c asks for remeshing. Throws InputError for what it cannot carry.
-    RunRemeshing(DiffusionProblem<dim> &problem, const CaseDescription &c, double scale);
+    /// @p first_output (s) bounds the automatic smallest cell: see numerics.smallest_cell.
+    RunRemeshing(DiffusionProblem<dim> &problem, const CaseDescription &c, double scale, double first_output);
     bool active() const { return active_; }
 
     /// The initial state on a mesh fitted to it: remeshes and evaluates the initial state anew
@@ -37,6 +38,8 @@ namespace fickcast
     bool due(unsigned int steps) const { return active_ && steps % every_ == 0; }
     /// Remeshes by @p u and carries @p u and @p others; returns whether the mesh changed.
     bool remesh(Vector &u, const std::vector<Vector *> &others);
+    /// Adds @p amount to the remeshing term of the balance (what a step booked from a remeshing).
+    void book(const double amount) { amount_added_ += amount; }
     /// Puts the counts, the largest mesh and the amount added into @p record.
     void report(RunRecord &record) const;
 

@@ -13,6 +13,7 @@
 #include "run/guards.h"
 #include "run/landing_times.h"
 #include "run/run_remeshing.h"
+#include "run/series_layout.h"
 #include "run/step_error.h"
 #include "run/time_lags.h"
 
@@ -103,61 +104,14 @@ namespace fickcast
     for (const auto &stage : c.stages)
       record.stages.push_back({stage.name, stage.start, stage.end()});
 
-    // Which boundaries are ever active, and which are ever baths.
-    std::vector<bool> active_boundary(n_boundaries, false), bath_boundary(n_boundaries, false);
-    for (const auto &stage : c.stages)
-      for (unsigned int b = 0; b < n_boundaries; ++b)
-        {
-          const BoundarySpec *spec = stage.find_boundary(record.boundaries[b]);
-          if (spec && spec->kind != BoundaryKind::sealed)
-            active_boundary[b] = true;
-          if (spec && spec->kind == BoundaryKind::bath)
-            bath_boundary[b] = true;
-        }
     record.bath_final.assign(n_boundaries, not_a_number);
-
-    // Series columns.
-    const std::string amount_unit = c.units.amount;
-    const std::string rate_unit = c.units.amount + "/s";
-    std::vector<Column> columns{{"time", "s"}, {"step", ""}, {"dt", "s"}};
-    if (c.stages.size() > 1)
-      columns.push_back({"stage", ""});
-    if (!c.temperature.empty())
-      columns.push_back({"temperature", "K"});
-    columns.push_back({"amount.total", amount_unit});
-    for (const auto &r : record.regions)
-      columns.push_back({"amount." + r, amount_unit});
-    if (problem.has_dispersed_phase())
-      columns.push_back({"undissolved.total", amount_unit});
-    for (unsigned int b = 0; b < n_boundaries; ++b)
-      if (active_boundary[b])
-        {
-          columns.push_back({"flux_in." + record.boundaries[b], rate_unit});
-          columns.push_back({"amount_in." + record.boundaries[b], amount_unit});
-        }
-    for (unsigned int b = 0; b < n_boundaries; ++b)
-      if (bath_boundary[b])
-        columns.push_back({"bath." + record.boundaries[b], c.units.concentration});
-    bool has_source = false, has_decay = false;
-    for (const auto &r : c.regions)
-      {
-        has_source = has_source || !(r.source.is_constant() && r.source.value == 0);
-        has_decay = has_decay || r.decay_rate > 0;
-      }
-    if (has_source)
-      columns.push_back({"source.total", amount_unit});
-    if (has_decay)
-      columns.push_back({"decayed.total", amount_unit});
-    columns.push_back({"balance_error", amount_unit});
-    columns.push_back({"released_fraction", ""});
-    for (const auto &named_point : c.output.points)
-      columns.push_back({"point." + named_point.name, c.units.concentration});
-    columns.push_back({"linear_iterations", ""});
-    if (problem.is_nonlinear())
-      columns.push_back({"nonlinear_iterations", ""});
+    const SeriesLayout layout =
+      series_layout(c, record.regions, record.boundaries, problem.has_dispersed_phase(), problem.is_nonlinear());
+    const std::vector<bool> &active_boundary = layout.active_boundary, &bath_boundary = layout.bath_boundary;
+    const bool has_source = layout.has_source, has_decay = layout.has_decay;
     CsvWriter series;
     if (root && !resumed)
-      series.open(folder + "/series.csv", columns);
+      series.open(folder + "/series.csv", layout.columns);
 
     std::unique_ptr<FieldWriter<dim>> fields;
     if (c.output.write_fields)
@@ -176,7 +130,9 @@ namespace fickcast
     // Initial state.
     Vector u = problem.make_vector();
     problem.initial_state(u);
-    RunRemeshing<dim> remeshing(problem, c, std::max({problem.concentration_scale(), u.linfty_norm(), 1e-300}));
+    const std::vector<double> outputs = output_schedule(c);
+    RunRemeshing<dim> remeshing(problem, c, std::max({problem.concentration_scale(), u.linfty_norm(), 1e-300}),
+                                first_output_time(c.time.end, outputs));
     if (!resumed)
       remeshing.fit_initial(u);
     std::deque<Snapshot<Vector>> history; // newest first
@@ -272,7 +228,6 @@ namespace fickcast
     };
     bool have_good_state = false; // whether u may be written
 
-    const std::vector<double> outputs = output_schedule(c);
     const std::vector<double> hard = hard_times(c, outputs);
     const double clock_end = clock.tau(c.time.end);
     TimeSpec steps = c.time;
@@ -301,7 +256,7 @@ namespace fickcast
     const bool dispersed = problem.has_dispersed_phase();
     double t = 0, s = 0;
     unsigned int step = 0, steps_since_restart = 0;
-    bool remeshed_last = false;
+    double unbooked = 0; // change between the last two states that no term booked (remeshing)
     std::size_t next_hard = 0, next_output = 0;
     double previous_ds = 0;
     Vector u_new = problem.make_vector();
@@ -371,7 +326,7 @@ namespace fickcast
         StateArchive &a = *resumed;
         const std::uint64_t series_size = a.get_count();
         if (root)
-          series.reopen(folder + "/series.csv", columns.size(), series_size);
+          series.reopen(folder + "/series.csv", layout.columns.size(), series_size);
         ObserverState seen;
         get(a, seen);
         observers.restore(seen);
@@ -498,10 +453,7 @@ namespace fickcast
             unsigned int order = 1;
             bool bdf2 = false;
             const TimeScheme scheme = c.time.scheme;
-            // After a remeshing, one implicit-Euler step: BDF2's balance books the previous step's
-            // amounts, which a coarsening of the older state no longer matches.
-            if (scheme == TimeScheme::bdf2 && !dispersed && steps_since_restart >= 1 && history.size() >= 2 &&
-                !remeshed_last)
+            if (scheme == TimeScheme::bdf2 && !dispersed && steps_since_restart >= 1 && history.size() >= 2)
               {
                 const double omega = ds / (history[0].clock - history[1].clock);
                 plan.a0 = (1 + 2 * omega) / (1 + omega);
@@ -634,6 +586,13 @@ namespace fickcast
             for (std::size_t r = 0; r < before.size(); ++r)
               storage_change += after[r] - before[r];
             double net = amounts[n_boundaries] - amounts[n_boundaries + 1];
+            // BDF2 books the previous step's amounts for the change between the two older states;
+            // a remeshing changed that by unbooked (coarsening is not conservative): a part of the
+            // remeshing term, carried on into the following steps as BDF2 carries it.
+            const double remeshing_part = bdf2 ? plan.a2 * unbooked / plan.a0 : 0.0;
+            net += remeshing_part;
+            remeshing.book(remeshing_part);
+            unbooked = remeshing_part;
             for (unsigned int b = 0; b < n_boundaries; ++b)
               {
                 net += amounts[b];
@@ -657,7 +616,6 @@ namespace fickcast
             if (history.size() > 3)
               history.pop_back();
             u = u_new;
-            remeshed_last = false;
             previous_ds = ds;
             t = t1;
             s += ds;
@@ -700,9 +658,12 @@ namespace fickcast
                 std::vector<Vector *> others = carried.states();
                 for (auto &h : history)
                   others.push_back(&h.state);
+                const double older_before = history.size() >= 2 ? remaining(history[1].state) : 0.0;
+                const double current_before = remaining(u);
                 if (remeshing.remesh(u, others))
                   {
-                    remeshed_last = true;
+                    if (history.size() >= 2)
+                      unbooked += (remaining(u) - current_before) - (remaining(history[1].state) - older_before);
                     u_new = problem.make_vector();
                     carried.remeshed();
                     observers.relocate();

@@ -225,6 +225,7 @@ linear_solver = iterative
 solver_tolerance = 1e-14
 remesh = on
 remesh_every = 2
+smallest_cell = 3 mm
 [output]
 fields = false
 )";

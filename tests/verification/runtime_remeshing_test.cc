@@ -11,6 +11,7 @@
 
 #include <cmath>
 #include <cstdio>
+#include <limits>
 #include <numeric>
 
 namespace fickcast::testing
@@ -44,10 +45,10 @@ namespace fickcast::testing
 
   // Crank, The Mathematics of Diffusion, 2nd ed. (1975), eq. 2.45 (number from memory):
   // C/C0 = erfc(x / (2 sqrt(D t))). The run starts from 10 cells of 1.2 m (the profile at t = 1 s
-  // is 4 m deep; the first steps need cells of millimetres at the surface) and must find the mesh
+  // is 4 m deep) and must find the mesh
   // itself: final error <= 1e-4 of C0 with remesh_error 1e-4 and time.tolerance 1e-5 (measured
-  // 2.9e-5: the time error dominates). A uniform mesh at the smallest cell the remeshing made
-  // would need 5 000 cells; the remeshed one has at most a few hundred.
+  // 6.0e-5: the time error dominates), and for fewer unknowns x steps than the cheapest uniform
+  // mesh that is as accurate (measured 1.08e4 against 1.29e4 for 0.4 m cells).
   TEST(RuntimeRemeshing, ErfcFromATenCellStart)
   {
     const CaseDescription description =
@@ -69,17 +70,23 @@ namespace fickcast::testing
     // Refinement keeps amounts; coarsening behind the front loses almost nothing of a smooth tail.
     EXPECT_LT(std::abs(record.remeshed_amount), 1e-5 * record.boundary_entered.front());
 
-    // For the note: uniform meshes at the same step tolerance (the cheapest that reaches the same
-    // error is the measure of item "erfc from a 10-cell start").
-    for (const double cell : {1.2, 0.6, 0.2})
+    // Uniform meshes at the same step tolerance: the cheapest one that is at least as accurate
+    // must cost more unknowns x steps than the remeshed run (issue 23, "erfc from a 10-cell
+    // start"; the remeshed run is counted at its largest mesh for every step).
+    double cheapest = std::numeric_limits<double>::infinity();
+    for (const double cell : {1.2, 0.6, 0.5, 0.4, 0.3, 0.24, 0.2})
       {
         const CaseDescription uniform = describe(erfc_case(cell, ""), "remesh_erfc_uniform");
         const RunRecord u = run(uniform);
         ASSERT_EQ(u.status, "completed");
-        std::printf("uniform %.1f m cells: %lu unknowns, %u steps, largest error %.2e; unknowns x steps %.3g\n", cell,
-                    u.unknowns, u.steps_accepted, largest_error_at_end(uniform.output.folder, exact),
-                    static_cast<double>(u.unknowns) * u.steps_accepted);
+        const double uniform_error = largest_error_at_end(uniform.output.folder, exact);
+        const double uniform_work = static_cast<double>(u.unknowns) * u.steps_accepted;
+        std::printf("uniform %.2f m cells: %lu unknowns, %u steps, largest error %.2e; unknowns x steps %.3g\n", cell,
+                    u.unknowns, u.steps_accepted, uniform_error, uniform_work);
+        if (uniform_error <= error)
+          cheapest = std::min(cheapest, uniform_work);
       }
+    EXPECT_LT(work, cheapest);
   }
 
   // A sealed square with a uniform source s and a peaked start, remeshed every other step: the
@@ -91,7 +98,7 @@ namespace fickcast::testing
                              "cell_size = 0.125 m\n[region.body]\ndiffusivity = 1e-3 m2/s\nsource = 2 mol/(m3 s)\n"
                              "[initial]\nvalue = {100*exp(-((x-0.5)^2+(y-0.5)^2)/0.005)} mol/m3\n"
                              "[time]\nend = 20 s\n[numerics]\naccuracy = off\nremesh = on\nremesh_every = 2\n"
-                             "remesh_error = 1e-3\n";
+                             "remesh_error = 1e-3\nsmallest_cell = 3 mm\n";
     const CaseDescription description = describe(text, "remesh_sealed");
     const RunRecord record = run(description);
     ASSERT_EQ(record.status, "completed");
@@ -112,8 +119,10 @@ namespace fickcast::testing
   // a)) / (4 pi D a) at age a (Carslaw & Jaeger, Conduction of Heat in Solids, 1959, sec. 10.3,
   // from memory). Released at age 0.01 s (D = 1, a peak 0.2 m wide in a 6 m box) and followed to
   // age 0.11 s from a start of 0.75 m cells. Issue 23 asks for 3 times fewer unknowns than the
-  // uniform mesh of the same error; measured 2.6 times (the remeshed run's largest mesh against
-  // the coarsest uniform mesh at least as accurate), so this test guards 2 times.
+  // uniform mesh of the same error; measured 2.7 times (2 465 against 6 561 unknowns: the
+  // remeshed run's largest mesh against the coarsest uniform mesh at least as accurate; at the
+  // end the peak covers half the box, where a uniform mesh is nearly right), so this test guards
+  // 2.5 times.
   TEST(RuntimeRemeshing, PointSourceNeedsFewerUnknownsThanUniform)
   {
     const double age0 = 0.01, end = 0.1, side = 6;
@@ -136,10 +145,10 @@ namespace fickcast::testing
     const double error = largest_error_at_end(adaptive.output.folder, gaussian);
     std::printf("remeshed: %lu unknowns at most, %u remeshings, %u steps, largest error %.3e (peak %.3g)\n",
                 a.unknowns_largest, a.remeshings, a.steps_accepted, error, gaussian({side / 2, side / 2, 0}, end));
-    EXPECT_LT(error, 1e-3 * gaussian({side / 2, side / 2, 0}, end)); // measured 2.1e-4 of a peak of 0.72
-    // The coarsest uniform mesh that is at least as accurate (0.09375 m, 16 641 unknowns, 1.1e-4).
+    EXPECT_LT(error, 1e-3 * gaussian({side / 2, side / 2, 0}, end)); // measured 2.2e-4 of a peak of 0.72
+    // The coarsest uniform mesh that is at least as accurate (0.15 m, 6 561 unknowns, 2.18e-4).
     unsigned long uniform_unknowns = 0;
-    for (const double cell : {0.1875, 0.09375})
+    for (const double cell : {0.1875, 0.15, 0.125, 0.1, 0.09375})
       {
         const CaseDescription uniform = describe(text(cell, ""), "remesh_point_source_uniform");
         const RunRecord u = run(uniform);
@@ -154,6 +163,6 @@ namespace fickcast::testing
           }
       }
     ASSERT_GT(uniform_unknowns, 0u) << "no uniform mesh tried was as accurate";
-    EXPECT_GE(static_cast<double>(uniform_unknowns), 2.0 * static_cast<double>(a.unknowns_largest));
+    EXPECT_GE(static_cast<double>(uniform_unknowns), 2.5 * static_cast<double>(a.unknowns_largest));
   }
 } // namespace fickcast::testing
