@@ -50,6 +50,12 @@ namespace fickcast
 
     /// Point values at the last observed state (SI concentrations).
     const std::vector<double> &point_values() const { return point_values_; }
+    /// The named points' values of any ghosted field @p ghosted (a state or a difference of
+    /// states; collective), without observing it.
+    std::vector<double> point_values_of(const Vector &ghosted) const
+    {
+      return named_points_ ? named_points_->concentrations(ghosted) : std::vector<double>{};
+    }
     /// Released fraction for a remaining content @p remaining (NaN without a reference amount).
     double released_fraction(double remaining) const;
     bool has_release() const { return reference_ > 0; }

@@ -264,6 +264,21 @@ namespace fickcast
       return weighted_step_error(v, u_new, scale, c.time.error_floor, dispersed, communicator);
     };
 
+    // The named points' step error, each relative to its own value but to no less than
+    // time.error_floor (the accuracy check sets it from the points' values; 0: not judged). The
+    // field's measure keeps a floor of 1e-3 of the scale (a deeper one everywhere costs many
+    // steps in 3-D); a point five decades under the scale needs its own.
+    const auto point_step_error = [&](const Vector &difference) {
+      if (!(c.time.error_floor > 0) || c.output.points.empty())
+        return 0.0;
+      const auto errors = observers.point_values_of(problem.make_ghosted(difference));
+      const auto values = observers.point_values_of(problem.make_ghosted(u_new));
+      double worst = 0;
+      for (std::size_t k = 0; k < errors.size(); ++k)
+        worst = std::max(worst, std::abs(errors[k]) / std::max(std::abs(values[k]), c.time.error_floor));
+      return worst;
+    };
+
     // Everything the loop carries from step to step, in one order for writing and reading.
     auto save_checkpoint = [&]() {
       PhaseTimer::Scope scope(problem.timer(), "checkpoint");
@@ -537,7 +552,7 @@ namespace fickcast
                         error = carried.judge(predicted, ds, step_norm);
                       }
                     else
-                      error = factor * step_norm(predicted) / c.time.tolerance;
+                      error = factor * std::max(step_norm(predicted), point_step_error(predicted)) / c.time.tolerance;
                     judged = true;
                     accepted = controller.judge(ds, error, order, shortened);
                   }
