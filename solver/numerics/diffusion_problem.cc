@@ -9,6 +9,7 @@
 #include <deal.II/base/quadrature_lib.h>
 #include <deal.II/base/utilities.h>
 #include <deal.II/distributed/tria.h>
+#include <deal.II/dofs/dof_renumbering.h>
 #include <deal.II/dofs/dof_tools.h>
 #include <deal.II/fe/fe_values.h>
 #include <deal.II/lac/dynamic_sparsity_pattern.h>
@@ -191,6 +192,11 @@ namespace fickcast
     if (attach)
       dof_handler_.reinit(*triangulation_);
     dof_handler_.distribute_dofs(fe_);
+    // A run that remeshes numbers the unknowns by the cell tree (coarse cells, then children in
+    // order), which does not depend on the order the cells were made in: a checkpoint's vectors
+    // fit the same mesh made again by rebuild().
+    if (description_.numerics.remesh)
+      DoFRenumbering::hierarchical(dof_handler_);
     owned_ = dof_handler_.locally_owned_dofs();
     DoFTools::extract_locally_relevant_dofs(dof_handler_, relevant_);
     hanging_.clear();

@@ -228,6 +228,14 @@ namespace fickcast
     /// preconditioner is rebuilt on the next step. Region interfaces stay on cell faces (cells
     /// keep their region). Not with an undissolved reserve (throws). Collective.
     AdaptResult adapt(const Vector &u, const AdaptLimits &limits, const std::vector<Vector *> &states);
+    /// Every active cell of the mesh, of all ranks (deal.II CellId text, sorted): with the mesh
+    /// as set up, what rebuild() needs to make this mesh again (a checkpoint). Collective.
+    std::vector<std::string> active_cells() const;
+    /// Refines and coarsens the mesh until its active cells are @p cells (from active_cells() of
+    /// a mesh grown from the same mesh as set up), then rebuilds the space and operators as
+    /// adapt() does. States are not carried: the caller sets them. Throws IoError if the cells
+    /// cannot be reached (another mesh). Collective.
+    void rebuild(const std::vector<std::string> &cells);
 
     // --- observables (collective)
     /// Dissolved and sorbed amount in each region (index = material id), int C u.
@@ -264,6 +272,9 @@ namespace fickcast
     /// Sizes the operators for the current unknowns and makes the linear solver (direct or
     /// iterative by numerics.linear_solver and the number of unknowns).
     void make_operators();
+    /// After the mesh changed and the space was set up: the operators, fixed unknowns and
+    /// constant parts of the current stage; the next step builds its system anew.
+    void remake_operators();
     void setup_fixed_unknowns();
     void reinit(MatrixPair &pair);
 

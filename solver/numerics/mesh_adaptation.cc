@@ -10,8 +10,12 @@
 #include <deal.II/numerics/error_estimator.h>
 #include <deal.II/numerics/solution_transfer.h>
 
+#include "case/input_error.h"
+
+#include <algorithm>
 #include <cmath>
 #include <map>
+#include <set>
 
 namespace fickcast
 {
@@ -171,6 +175,15 @@ namespace fickcast
         distribute(*states[k]);
       }
 
+    remake_operators();
+    result.cells_after = n_cells();
+    result.changed = true;
+    return result;
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::remake_operators()
+  {
     // The operators of the current stage on the new mesh; the next step builds its system and
     // preconditioner anew.
     make_operators();
@@ -180,9 +193,79 @@ namespace fickcast
     hierarchy_key_.clear();
     dynamic_valid_ = false;
     depleted_.clear();
-    result.cells_after = n_cells();
-    result.changed = true;
-    return result;
+  }
+
+  template <int dim>
+  std::vector<std::string> DiffusionProblem<dim>::active_cells() const
+  {
+    std::vector<std::string> mine;
+    for (const auto &cell : triangulation_->active_cell_iterators())
+      if (cell->is_locally_owned())
+        mine.push_back(cell->id().to_string());
+    std::vector<std::string> all;
+    for (auto &part : Utilities::MPI::all_gather(communicator_, mine))
+      all.insert(all.end(), part.begin(), part.end());
+    std::sort(all.begin(), all.end());
+    return all;
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::rebuild(const std::vector<std::string> &cells)
+  {
+    std::set<CellId> leaves, ancestors;
+    try
+      {
+        for (const std::string &text : cells)
+          {
+            const CellId id(text);
+            leaves.insert(id);
+            std::vector<std::uint8_t> path(id.get_child_indices().begin(), id.get_child_indices().end());
+            while (!path.empty())
+              {
+                path.pop_back();
+                ancestors.insert(CellId(id.get_coarse_cell_id(), path));
+              }
+          }
+      }
+    catch (const std::exception &)
+      {
+        throw IoError("the checkpoint's mesh is damaged (a cell that is not one)");
+      }
+    // Each round refines the cells above a leaf and coarsens those below one; p4est's balance
+    // may add cells on the way, which later rounds take back. A mesh grown from this one by
+    // refinement and coarsening is reached in as many rounds as it has levels, about.
+    for (unsigned int round = 0; round < 64; ++round)
+      {
+        unsigned int flagged = 0, foreign = 0;
+        for (const auto &cell : triangulation_->active_cell_iterators())
+          {
+            if (!cell->is_locally_owned())
+              continue;
+            const CellId id = cell->id();
+            if (leaves.count(id))
+              continue;
+            if (ancestors.count(id))
+              cell->set_refine_flag();
+            else if (cell->level() > 0)
+              cell->set_coarsen_flag();
+            else
+              foreign = 1;
+            flagged = 1;
+          }
+        if (Utilities::MPI::max(foreign, communicator_) != 0)
+          throw IoError("the checkpoint's mesh was not grown from this case's mesh");
+        if (Utilities::MPI::max(flagged, communicator_) == 0)
+          {
+            if (triangulation_->n_global_active_cells() != cells.size())
+              throw IoError("the checkpoint's mesh does not fit this case's mesh");
+            setup_dofs(false);
+            remake_operators();
+            return;
+          }
+        triangulation_->prepare_coarsening_and_refinement();
+        triangulation_->execute_coarsening_and_refinement();
+      }
+    throw IoError("the checkpoint's mesh could not be made again from this case's mesh");
   }
 
   template void DiffusionProblem<1>::set_fixed_values(Vector &, double) const;
@@ -194,4 +277,13 @@ namespace fickcast
   template AdaptResult DiffusionProblem<1>::adapt(const Vector &, const AdaptLimits &, const std::vector<Vector *> &);
   template AdaptResult DiffusionProblem<2>::adapt(const Vector &, const AdaptLimits &, const std::vector<Vector *> &);
   template AdaptResult DiffusionProblem<3>::adapt(const Vector &, const AdaptLimits &, const std::vector<Vector *> &);
+  template std::vector<std::string> DiffusionProblem<1>::active_cells() const;
+  template std::vector<std::string> DiffusionProblem<2>::active_cells() const;
+  template std::vector<std::string> DiffusionProblem<3>::active_cells() const;
+  template void DiffusionProblem<1>::rebuild(const std::vector<std::string> &);
+  template void DiffusionProblem<2>::rebuild(const std::vector<std::string> &);
+  template void DiffusionProblem<3>::rebuild(const std::vector<std::string> &);
+  template void DiffusionProblem<1>::remake_operators();
+  template void DiffusionProblem<2>::remake_operators();
+  template void DiffusionProblem<3>::remake_operators();
 } // namespace fickcast

@@ -117,6 +117,35 @@ namespace fickcast
   }
 
   template <int dim>
+  void RunRemeshing<dim>::save(StateArchive &archive) const
+  {
+    const std::vector<std::string> cells = problem_.active_cells();
+    archive.put_count(cells.size());
+    for (const std::string &cell : cells)
+      archive.put(cell);
+    for (const std::uint64_t n :
+         {std::uint64_t(count_), std::uint64_t(cells_largest_), std::uint64_t(unknowns_largest_)})
+      archive.put_count(n);
+    archive.put(amount_added_);
+  }
+
+  template <int dim>
+  void RunRemeshing<dim>::resume(StateArchive &archive)
+  {
+    const std::uint64_t n = archive.get_count();
+    if (n == 0)
+      throw IoError("the checkpoint's mesh is damaged (no cells)");
+    std::vector<std::string> cells;
+    for (std::uint64_t k = 0; k < n; ++k) // a damaged count ends at the end of the file (IoError)
+      cells.push_back(archive.get_text());
+    problem_.rebuild(cells);
+    count_ = static_cast<unsigned int>(archive.get_count());
+    cells_largest_ = archive.get_count();
+    unknowns_largest_ = archive.get_count();
+    amount_added_ = archive.get();
+  }
+
+  template <int dim>
   void RunRemeshing<dim>::report(RunRecord &record) const
   {
     if (!active_)

@@ -4,6 +4,7 @@
 #include "case/case_description.h"
 #include "numerics/diffusion_problem.h"
 #include "results/run_record.h"
+#include "run/checkpoint.h"
 
 #include <vector>
 
@@ -38,6 +39,11 @@ namespace fickcast
     bool due(unsigned int steps) const { return active_ && steps % every_ == 0; }
     /// Remeshes by @p u and carries @p u and @p others; returns whether the mesh changed.
     bool remesh(Vector &u, const std::vector<Vector *> &others);
+    /// Writes the mesh (its active cells) and the counts to @p archive (collective).
+    void save(StateArchive &archive) const;
+    /// Reads what save() wrote and makes that mesh again from the mesh as set up (collective).
+    /// Throws IoError if the archive does not hold a mesh of this case.
+    void resume(StateArchive &archive);
     /// Adds @p amount to the remeshing term of the balance (what a step booked from a remeshing).
     void book(const double amount) { amount_added_ += amount; }
     /// Puts the counts, the largest mesh and the amount added into @p record.

@@ -81,11 +81,12 @@ namespace fickcast
     identity.fingerprint = c.fingerprint;
     identity.dimension = dim;
     identity.ranks = Utilities::MPI::n_mpi_processes(communicator);
-    identity.unknowns = problem.n_dofs();
-    {
-      const Vector probe = problem.make_vector();
-      identity.local_unknowns = static_cast<std::uint64_t>(probe.end() - probe.begin());
-    }
+    if (!c.numerics.remesh) // a remeshed run's checkpoint holds its mesh; its vectors are checked on it
+      {
+        identity.unknowns = problem.n_dofs();
+        const Vector probe = problem.make_vector();
+        identity.local_unknowns = static_cast<std::uint64_t>(probe.end() - probe.begin());
+      }
     std::optional<StateArchive> resumed;
     if (checkpoints.resume)
       resumed = store.read_latest(identity);
@@ -133,11 +134,22 @@ namespace fickcast
     const std::vector<double> outputs = output_schedule(c);
     RunRemeshing<dim> remeshing(problem, c, std::max({problem.concentration_scale(), u.linfty_norm(), 1e-300}),
                                 first_output_time(c.time.end, outputs));
+    // A remeshed run's checkpoint starts with its mesh, its initial amounts (of the initial state
+    // on the fitted mesh) and the change no term booked yet.
+    double resumed_unbooked = 0;
+    std::vector<double> resumed_initial;
     if (!resumed)
       remeshing.fit_initial(u);
+    else if (remeshing.active())
+      {
+        remeshing.resume(*resumed);
+        u = problem.make_vector();
+        resumed_initial = resumed->get_values();
+        resumed_unbooked = resumed->get();
+      }
     std::deque<Snapshot<Vector>> history; // newest first
     history.push_front({0.0, 0.0, u});
-    record.initial_region_amounts = problem.region_amounts(u);
+    record.initial_region_amounts = resumed_initial.empty() ? problem.region_amounts(u) : resumed_initial;
     record.initial_undissolved = problem.undissolved_amount();
     double reference_amount = std::abs(record.initial_undissolved);
     for (const double a : record.initial_region_amounts)
@@ -256,7 +268,7 @@ namespace fickcast
     const bool dispersed = problem.has_dispersed_phase();
     double t = 0, s = 0;
     unsigned int step = 0, steps_since_restart = 0;
-    double unbooked = 0; // change between the last two states that no term booked (remeshing)
+    double unbooked = resumed_unbooked; // change between the last two states no term booked (remeshing)
     std::size_t next_hard = 0, next_output = 0;
     double previous_ds = 0;
     Vector u_new = problem.make_vector();
@@ -283,6 +295,12 @@ namespace fickcast
     auto save_checkpoint = [&]() {
       PhaseTimer::Scope scope(problem.timer(), "checkpoint");
       StateArchive a;
+      if (remeshing.active())
+        {
+          remeshing.save(a);
+          a.put(record.initial_region_amounts);
+          a.put(unbooked);
+        }
       a.put_count(root ? series.flush() : 0);
       put(a, observers.saved_state());
       for (const std::uint64_t n :
@@ -692,13 +710,13 @@ namespace fickcast
 
             // A stop request (on any rank) and a checkpoint that is due are decided together.
             int flags[2] = {stop_requested() ? 1 : 0, 0};
-            if (checkpoints.write && !remeshing.active() && next_hard < hard.size())
+            if (checkpoints.write && next_hard < hard.size())
               flags[1] = std::chrono::duration<double>(std::chrono::steady_clock::now() - last_checkpoint).count() >=
                              checkpoints.every
                            ? 1
                            : 0;
             MPI_Allreduce(MPI_IN_PLACE, flags, 2, MPI_INT, MPI_MAX, communicator);
-            if (checkpoints.write && !remeshing.active() && (flags[0] || flags[1]))
+            if (checkpoints.write && (flags[0] || flags[1]))
               {
                 save_checkpoint();
                 last_checkpoint = std::chrono::steady_clock::now();

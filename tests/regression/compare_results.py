@@ -1,11 +1,13 @@
 #!/usr/bin/env python3
 """Compares two trees of results folders value by value (a refactoring must not move a number).
 
-  compare_results.py BEFORE AFTER [--relative TOL]
+  compare_results.py BEFORE AFTER [--relative TOL] [--balance-absolute ABS]
 
 Walks every summary.json, sweep_summary.json, size_summary.json and *.csv under BEFORE, reads the
 file at the same place under AFTER and compares every leaf: texts and booleans exactly, numbers
-within TOL relative (default 0: identical as written). Ignored: the run facts that change from
+within TOL relative (default 0: identical as written); mass-balance errors (the mass_balance object
+of summary.json, balance_error columns), which are round-off themselves, also when within ABS of
+each other (default 0). Ignored: the run facts that change from
 run to run (`run` in summary.json: date, host, wall times), the program version, absolute paths,
 and CSV columns named wall_time*. Prints the largest relative difference per file kind and every
 mismatch; exits 1 on any mismatch or a file missing under AFTER. Standard library only.
@@ -20,9 +22,16 @@ IGNORED_KEYS = {"run", "version", "date", "host", "wall_time", "wall_time_s", "w
                 "origin", "folder", "path"}
 
 
+BALANCE_ABSOLUTE = 0.0  # --balance-absolute
+
+
+def is_balance(where):
+    return "mass_balance" in where or "balance_error" in where
+
+
 def differ(a, b, tolerance):
-    """Relative difference of two numbers (0 when equal, inf for NaN against a number)."""
-    if a == b:
+    """Relative difference of two numbers (0 when equal or within tolerance, inf for NaN against a number)."""
+    if a == b or abs(a - b) <= tolerance:
         return 0.0
     if isinstance(a, float) and isinstance(b, float) and math.isnan(a) and math.isnan(b):
         return 0.0
@@ -59,7 +68,8 @@ def walk(a, b, where, out):
         if a != b:
             out.append((where, f"{a!r} against {b!r}", math.inf))
     else:
-        out.append((where, f"{a!r} against {b!r}", differ(float(a), float(b), 0)))
+        absolute = BALANCE_ABSOLUTE if is_balance(where) else 0
+        out.append((where, f"{a!r} against {b!r}", differ(float(a), float(b), absolute)))
 
 
 def compare_csv(path_a, path_b, out):
@@ -83,7 +93,8 @@ def compare_csv(path_a, path_b, out):
                 if x != y:
                     out.append((f"row {r} {name}", f"{x!r} against {y!r}", math.inf))
             else:
-                out.append((f"row {r} {name}", f"{x} against {y}", differ(nx, ny, 0)))
+                absolute = BALANCE_ABSOLUTE if is_balance(name) else 0
+                out.append((f"row {r} {name}", f"{x} against {y}", differ(nx, ny, absolute)))
 
 
 def main():
@@ -92,6 +103,9 @@ def main():
         return 2
     before, after = sys.argv[1], sys.argv[2]
     tolerance = float(sys.argv[sys.argv.index("--relative") + 1]) if "--relative" in sys.argv else 0.0
+    global BALANCE_ABSOLUTE
+    if "--balance-absolute" in sys.argv:
+        BALANCE_ABSOLUTE = float(sys.argv[sys.argv.index("--balance-absolute") + 1])
     largest = {}
     failures = []
     n_files = 0
