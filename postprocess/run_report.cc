@@ -92,7 +92,6 @@ namespace fickcast::post
       return rows;
     }
 
-    /// How the accuracy check went, and the warnings of the run.
     /// The time error global control carried, for the "time" row (empty without it).
     std::string carried_error_text(const RunSummary &s)
     {
@@ -106,6 +105,18 @@ namespace fickcast::post
       return text;
     }
 
+    /// What the remeshing did, for the "mesh" row (empty for a run that did not remesh).
+    std::string remeshing_text(const RunSummary &s)
+    {
+      if (s.remeshings < 0)
+        return "";
+      return " at the end; remeshed " + std::to_string(s.remeshings) + " times during the run (numerics.remesh), " +
+             "at most " + std::to_string(s.cells_largest) + " cells and " + std::to_string(s.unknowns_largest) +
+             " unknowns; amount the remeshings added " + format_number(s.remeshed_amount, 3) + " " + s.unit_amount +
+             " (a term of the mass balance)";
+    }
+
+    /// How the accuracy check went, and the warnings of the run.
     std::string accuracy_section(const RunSummary &s)
     {
       std::string html;
@@ -237,7 +248,7 @@ namespace fickcast::post
       {"regions (material id: name)", ""},
       {"boundaries", ""},
       {"mesh", std::to_string(s.cells) + " cells, " + std::to_string(s.unknowns) + " unknowns, degree " +
-                 std::to_string(s.degree) + " elements"},
+                 std::to_string(s.degree) + " elements" + remeshing_text(s)},
       {"time", "to " + format_time(s.end_time) + ", " + s.scheme + (s.adaptive ? ", error-controlled steps" : "") +
                  "; " + std::to_string(s.steps_accepted) + " steps accepted, " + std::to_string(s.steps_rejected) +
                  " rejected" + carried_error_text(s)},
@@ -265,6 +276,10 @@ namespace fickcast::post
             (closed ? "Closed" : "Not closed to 1e-6") + ": storage change minus net inflow is " +
             html_escape(quantity(s.balance_error, s.unit_amount)) + ", " +
             html_escape(format_number(s.balance_relative, 3)) + " of the amounts involved (criterion: 1e-6).</p>\n";
+    if (s.remeshings > 0)
+      body += "<p>The balance above leaves out what the " + std::to_string(s.remeshings) +
+              " remeshings added, a term of its own: " + html_escape(quantity(s.remeshed_amount, s.unit_amount)) +
+              " (merging cells loses what the coarser mesh cannot hold; splitting keeps every amount).</p>\n";
     body += verification;
 
     body += "<h2>Plots</h2>\n";

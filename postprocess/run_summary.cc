@@ -108,6 +108,14 @@ namespace fickcast::post
     s.cells = static_cast<long>(read.number("mesh.cells"));
     s.unknowns = static_cast<long>(read.number("mesh.unknowns"));
     s.degree = static_cast<unsigned int>(read.number("mesh.degree"));
+    // Written only by a run that remeshes.
+    if (root["mesh"].isMember("remeshings"))
+      {
+        s.remeshings = static_cast<long>(read.number("mesh.remeshings"));
+        s.cells_largest = static_cast<long>(read.number("mesh.cells_largest"));
+        s.unknowns_largest = static_cast<long>(read.number("mesh.unknowns_largest"));
+        s.remeshed_amount = read.number("mesh.remeshed_amount");
+      }
     for (const auto &name : read.at("mesh.regions", Json::arrayValue))
       s.regions.push_back(name.asString());
     for (const auto &name : read.at("mesh.boundaries", Json::arrayValue))

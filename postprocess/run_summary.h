@@ -49,6 +49,12 @@ namespace fickcast::post
     long cells = 0;
     long unknowns = 0;
     unsigned int degree = 1;
+    /// numerics.remesh: how often the mesh changed, its largest size and the amount the
+    /// remeshings added (a term of the mass balance); remeshings = -1 for a run that did not remesh.
+    long remeshings = -1;
+    long cells_largest = 0;
+    long unknowns_largest = 0;
+    double remeshed_amount = 0;
     std::vector<std::string> regions; ///< names by material id
     std::vector<std::string> boundaries;
     double end_time = 0;

@@ -44,6 +44,15 @@ done
 grep -q 'data:image/png;base64,' "$out/report/index.html" || fail "report has no embedded image"
 grep -q 'http' "$out/report/index.html" && fail "report refers to a web address"
 ls "$out"/report/*.partial-* >/dev/null 2>&1 && fail "partial files left behind"
+# A remeshed run's report says how often the mesh changed and what that added to the balance.
+"$post" report "$fixture/remeshed" --output "$out/report-remeshed" --no-svg >/dev/null || fail "report of a remeshed run"
+remeshings=$(grep -o '"remeshings": [0-9]*' "$fixture/remeshed/summary.json" | grep -o '[0-9]*$')
+[ "${remeshings:-0}" -gt 0 ] || fail "the remeshed fixture did not remesh"
+grep -q "remeshed $remeshings times during the run" "$out/report-remeshed/index.html" ||
+  fail "the report of a remeshed run does not say it remeshed $remeshings times"
+grep -q "what the $remeshings remeshings added, a term of its own" "$out/report-remeshed/index.html" ||
+  fail "the report's mass balance does not show the remeshing term"
+grep -q "remeshed [0-9]* times" "$out/report/index.html" && fail "a run without remeshing reported remeshings"
 
 [ $failures -eq 0 ] && echo "all fickcast-post command checks passed"
 exit $((failures > 0))

@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
-# Fixture for the fickcast-post command-line tests: a small two-layer run (invented numbers)
-# and the same run with one diffusivity changed by 5 %, in SCRATCH/base and SCRATCH/changed.
+# Fixture for the fickcast-post command-line tests: a small two-layer run (invented numbers),
+# the same run with one diffusivity changed by 5 %, and the same run with remeshing, in
+# SCRATCH/base, SCRATCH/changed and SCRATCH/remeshed.
 # Usage: fixture_runs.sh FICKCAST SCRATCH
 set -eu
 fickcast=$1 scratch=$2
@@ -31,4 +32,6 @@ CASE
 "$fickcast" run "$scratch/case.ini" --output "$scratch/base" --overwrite --quiet
 "$fickcast" run "$scratch/case.ini" --output "$scratch/changed" --overwrite --quiet \
   --set "region.lower.diffusivity=1.05e-2 m2/s"
-echo "fixture runs written to $scratch/base and $scratch/changed"
+"$fickcast" run "$scratch/case.ini" --output "$scratch/remeshed" --overwrite --quiet \
+  --set numerics.remesh=on --set "numerics.smallest_cell=1 mm" --set geometry.refine=1
+echo "fixture runs written to $scratch/base, $scratch/changed and $scratch/remeshed"
