@@ -7,7 +7,7 @@ from one flat face held at c_s: c = c_s erfc(x / (2 sqrt(D t))) (Crank, The Math
 Diffusion, 2nd ed. 1975, eq. 2.45; equation number from memory). The corner and the oxide change
 it by less than erfc(0.5 um / 2 sqrt(D t)) / erfc(0.3 um / ...) ~ 1e-4 of itself. D is the
 Arrhenius law of the case file: D0 = 3.85 cm2/s, E = 3.66 eV at 1000 degC (the case's data), t =
-30 min. Asserts: each point within 3 % of that value (measured 0.8 % and 2.2 %) and each error
+30 min. Asserts: each point within 3 % of that value (measured 0.7 % and 2.1 %) and each error
 estimate the demo prints at least the true error (an error bar that brackets the truth).
 Usage: wafer_reference.py DEMO_FOLDER (the demo's results folder)."""
 import json
