@@ -83,16 +83,20 @@ namespace fickcast
 
   // --- StateArchive
 
+  // An empty vector's data() may be a null pointer, which memcpy must not get even for 0 bytes
+  // (found by the sanitize preset in cli.restart).
   void StateArchive::raw(const void *data, const std::size_t size)
   {
-    bytes_.append(static_cast<const char *>(data), size);
+    if (size > 0)
+      bytes_.append(static_cast<const char *>(data), size);
   }
 
   void StateArchive::read_raw(void *data, const std::size_t size)
   {
     if (bytes_.size() - position_ < size)
       throw IoError("the checkpoint ends early (a damaged file)");
-    std::memcpy(data, bytes_.data() + position_, size);
+    if (size > 0)
+      std::memcpy(data, bytes_.data() + position_, size);
     position_ += size;
   }
 
