@@ -77,6 +77,29 @@ namespace fickcast::post
             rows.push_back({name, quantity(value, "s"),
                             "through " + r["boundary"].asString() +
                               (r["steady"].asBool() ? "" : "; the flux was not yet steady at the end")});
+          else if (r.isObject() && r.isMember("direction") && r.isMember("boundary"))
+            {
+              // A result through a face: its direction and face, and the time or limit it refers to.
+              std::string meaning = r["direction"].asString() + " through " + r["boundary"].asString();
+              if (r.isMember("at"))
+                meaning += " at " + quantity(r["at"]["value"].asDouble(), "s");
+              if (r.isMember("by"))
+                meaning += " by " + quantity(r["by"]["value"].asDouble(), "s");
+              if (r.isMember("limit"))
+                meaning = "first time the " + std::string(name.rfind("flux_limit.", 0) == 0 ? "rate " : "amount ") +
+                          meaning + " reaches " +
+                          quantity(r["limit"]["value"].asDouble(), r["limit"]["unit"].asString());
+              if (name.size() > 5 && name.compare(name.size() - 5, 5, ".time") == 0)
+                meaning = "when the largest rate " + meaning + " came";
+              else if (name.rfind("peak_flux.", 0) == 0)
+                meaning = "largest rate " + meaning;
+              else if (name.rfind("steady_flux.", 0) == 0)
+                meaning = "rate " + meaning + " at the end" + (r["steady"].asBool() ? ", steady" : "");
+              if (r.isMember("note"))
+                meaning += "; " + r["note"].asString();
+              const bool missing = r.isMember("reached") && !r["reached"].asBool();
+              rows.push_back({name, missing ? "not reached by the end" : quantity(value, unit), meaning});
+            }
           else if (name == "released_fraction.final")
             rows.push_back({name, format_number(100 * value, 5) + " %", "of the reference content"});
           else if (name == "amount.final_total")

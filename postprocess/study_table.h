@@ -37,7 +37,8 @@ namespace fickcast::post
   /// Reads FOLDER/sweep.csv; PostInputError naming the file (and line) if it is not one.
   StudyTable read_study(const std::string &folder);
 
-  /// True for results that are times of events (threshold.NAME, release.NAME): empty when the
+  /// True for results that are times of events (threshold.NAME, release.NAME, flux_limit.NAME,
+  /// crossed_limit.NAME): empty when the
   /// event did not happen within the run.
   bool is_event_result(const std::string &name);
 

@@ -79,6 +79,33 @@ namespace fickcast
     length_factor_ = factor(layer_unit(c), "m", length_unit_);
     concentration_factor_ = factor(c.units.as_written == c.units.concentration ? "" : c.units.as_written,
                                    c.units.concentration, concentration_unit_);
+
+    // Amounts: the numerator of the concentration as written, per the measure the case's amount
+    // is taken over (area in 1-D, length in 2-D, none in 3-D), in the length of its volume unit
+    // if it has one (1/cm3: 1/cm2), else in m.
+    std::string written_amount;
+    const std::string &as_written = c.units.as_written;
+    const auto slash = as_written.find('/');
+    const std::string &si_amount = c.units.amount;
+    const unsigned int measure = si_amount.size() > 3 && si_amount.compare(si_amount.size() - 3, 3, "/m2") == 0  ? 2
+                                 : si_amount.size() > 2 && si_amount.compare(si_amount.size() - 2, 2, "/m") == 0 ? 1
+                                                                                                                 : 0;
+    if (slash != std::string::npos && slash > 0 && c.units.as_written != c.units.concentration)
+      {
+        std::string numerator = as_written.substr(0, slash), volume = as_written.substr(slash + 1);
+        std::string length = "m";
+        if (volume.size() > 1 && volume.back() == '3' && units.convertible(volume.substr(0, volume.size() - 1), "m"))
+          length = volume.substr(0, volume.size() - 1);
+        written_amount = numerator == "1" ? "1" : numerator;
+        if (measure == 2)
+          written_amount += "/" + length + "2";
+        else if (measure == 1)
+          written_amount += "/" + length;
+      }
+    amount_factor_ = factor(written_amount, si_amount, amount_unit_);
+    const std::string per = amount_unit_ == si_amount ? si_amount : written_amount;
+    rate_factor_ =
+      factor(time_unit_ == "s" && per == si_amount ? "" : per + "/" + time_unit_, si_amount + "/s", rate_unit_);
   }
 
   std::string DisplayUnits::format(const double value, const std::string &unit) const
@@ -123,5 +150,15 @@ namespace fickcast
   std::string DisplayUnits::concentration(const double si) const
   {
     return format(si / concentration_factor_, concentration_unit_);
+  }
+
+  std::string DisplayUnits::amount(const double si) const
+  {
+    return format(si / amount_factor_, amount_unit_);
+  }
+
+  std::string DisplayUnits::rate(const double si) const
+  {
+    return format(si / rate_factor_, rate_unit_);
   }
 } // namespace fickcast

@@ -18,6 +18,12 @@ namespace fickcast
     std::string time(double seconds) const;
     std::string length(double metres) const;
     std::string concentration(double si) const;
+    /// An amount (the case's amount unit: per area in 1-D, per length in 2-D) in the numerator of
+    /// the concentration unit as written, per the area or length of its volume where it has one
+    /// (1/cm3 gives 1/cm2, mg/L gives mg/m2), else SI.
+    std::string amount(double si) const;
+    /// An amount per time: amount() per the time unit of time.end.
+    std::string rate(double si) const;
 
     /**
      * A named result given in SI with its SI unit (as summary.json and sweep.csv carry it):
@@ -29,7 +35,7 @@ namespace fickcast
   private:
     std::string format(double value, const std::string &unit) const;
     int digits_;
-    std::string time_unit_, length_unit_, concentration_unit_;
-    double time_factor_ = 1, length_factor_ = 1, concentration_factor_ = 1;
+    std::string time_unit_, length_unit_, concentration_unit_, amount_unit_, rate_unit_;
+    double time_factor_ = 1, length_factor_ = 1, concentration_factor_ = 1, amount_factor_ = 1, rate_factor_ = 1;
   };
 } // namespace fickcast

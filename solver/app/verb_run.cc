@@ -149,6 +149,34 @@ namespace fickcast
       std::printf("  time_lag.%s: %s%s through %s%s\n", lag.name.c_str(), units.time(lag.time_lag).c_str(),
                   estimate("time_lag." + lag.name, time).c_str(), lag.boundary.c_str(),
                   lag.steady ? "" : " (flux not yet steady: the run may be too short)");
+    const auto rate = [&](double v) { return brief.rate(v); };
+    const auto amount = [&](double v) { return brief.amount(v); };
+    for (const auto &face : r.face_results)
+      {
+        const std::string name = face.full_name();
+        const std::string way = std::string(face.outward ? "out through " : "in through ") + face.boundary;
+        std::string shown, context = way;
+        if (face.prefix == "flux" || face.prefix == "steady_flux")
+          shown = units.rate(face.value) + estimate(name, rate);
+        else if (face.prefix == "crossed")
+          shown = units.amount(face.value) + estimate(name, amount);
+        else if (face.prefix == "peak_flux")
+          shown = units.rate(face.value) + estimate(name, rate) + " at " + units.time(face.when) +
+                  estimate(name + ".time", time);
+        else
+          shown = units.time(face.value) + estimate(name, time);
+        if (face.prefix == "flux")
+          context += " at " + units.time(face.asked_time);
+        else if (face.prefix == "crossed")
+          context += " by " + units.time(face.asked_time);
+        else if (face.prefix == "flux_limit")
+          context += " reaches " + units.rate(face.limit);
+        else if (face.prefix == "crossed_limit")
+          context += " reaches " + units.amount(face.limit);
+        if (!face.note.empty())
+          context += "; " + face.note;
+        std::printf("  %s: %s (%s)\n", name.c_str(), shown.c_str(), context.c_str());
+      }
     if (accuracy.requested <= 0)
       std::printf("  accuracy: off; these numbers are unchecked (one solve, no error estimate)\n");
     else

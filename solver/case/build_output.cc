@@ -1,6 +1,7 @@
 // The case builder's [output]: times, named points and lines (with `start of LAYER`), and what refers to them.
 #include "case/section_builders.h"
 
+#include "case/face_result_text.h"
 #include "case/quantity_text.h"
 
 #include <algorithm>
@@ -187,6 +188,9 @@ namespace fickcast
             }
           c.output.time_lags.emplace_back(name, value.text);
         }
+      else if (is_face_result_prefix(prefix))
+        c.output.face_results.push_back(parse_face_result(prefix, name, value.text, reader.faces, c.units.amount,
+                                                          c.time.end, value.origin, value.full_key()));
     });
     for (const auto &value : reader.settings.all())
       if (value.section == "output" && value.key.rfind("samples.", 0) == 0)

@@ -4,6 +4,26 @@
 
 namespace fickcast
 {
+  std::string FaceResultSpec::prefix() const
+  {
+    switch (kind)
+      {
+        case Kind::flux:
+          return "flux";
+        case Kind::crossed:
+          return "crossed";
+        case Kind::peak_flux:
+          return "peak_flux";
+        case Kind::flux_limit:
+          return "flux_limit";
+        case Kind::crossed_limit:
+          return "crossed_limit";
+        case Kind::steady_flux:
+          return "steady_flux";
+      }
+    return "flux";
+  }
+
   const RegionSpec *CaseDescription::find_region(const std::string &name) const
   {
     for (const auto &region : regions)

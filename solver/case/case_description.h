@@ -273,6 +273,31 @@ namespace fickcast
     double level = 0; ///< concentration, SI
   };
 
+  /// A named result through a face (output.flux.NAME, crossed.*, peak_flux.*, flux_limit.*,
+  /// crossed_limit.*, steady_flux.*): the rate or the amount through one boundary, counted in the
+  /// direction the case names.
+  struct FaceResultSpec
+  {
+    enum class Kind
+    {
+      flux,          ///< the rate at a time (the end if none)
+      crossed,       ///< the amount crossed by a time (the end if none)
+      peak_flux,     ///< the largest rate and when
+      flux_limit,    ///< the first time the rate reaches a limit
+      crossed_limit, ///< the first time the amount crossed reaches a limit
+      steady_flux    ///< the rate at the end, with whether it has become steady
+    };
+    Kind kind = Kind::flux;
+    std::string name;
+    std::string boundary;
+    bool outward = true;        ///< counted out of the body (else into it)
+    double time = -1;           ///< s, for flux and crossed; < 0: the end
+    double limit = 0;           ///< amount per time (flux_limit) or amount (crossed_limit), SI
+    std::string origin;         ///< file:line or --set
+    std::string prefix() const; ///< `flux`, `crossed`, ...
+    std::string full_name() const { return prefix() + "." + name; }
+  };
+
   struct OutputSpec
   {
     std::string folder;            ///< results folder, relative to the working directory
@@ -287,6 +312,7 @@ namespace fickcast
     std::vector<LevelSpec> releases; ///< levels of the released fraction (0, 1]
     double loading = 0;              ///< reference amount of the released fraction; 0: the initial amount
     std::vector<std::pair<std::string, std::string>> time_lags; ///< name, boundary
+    std::vector<FaceResultSpec> face_results;
     bool moments = false;
   };
 

@@ -329,6 +329,22 @@ namespace fickcast
                                 "amount the released fraction refers to (default: the initial amount)")));
       s.push_back(make("output", "time_lag.*", K::text, Dim::none, "",
                        "a boundary name: time lag of the amount through it, from its linear asymptote"));
+      s.push_back(make("output", "flux.*", K::text, Dim::none, "",
+                       "'in|out through FACE [at TIME]': the rate through a boundary at a time (the end if none), "
+                       "in the case's amount per time"));
+      s.push_back(make("output", "crossed.*", K::text, Dim::none, "",
+                       "'in|out through FACE [by TIME]': the amount that crossed a boundary by a time (the end if "
+                       "none)"));
+      s.push_back(make("output", "peak_flux.*", K::text, Dim::none, "",
+                       "'in|out through FACE': the largest rate through a boundary, and when (peak_flux.NAME.time)"));
+      s.push_back(make("output", "flux_limit.*", K::text, Dim::none, "",
+                       "'in|out through FACE reaches RATE': the first time the rate through a boundary reaches a "
+                       "limit"));
+      s.push_back(make("output", "crossed_limit.*", K::text, Dim::none, "",
+                       "'in|out through FACE reaches AMOUNT': the first time the amount crossed reaches a limit"));
+      s.push_back(make("output", "steady_flux.*", K::text, Dim::none, "",
+                       "'in|out through FACE': the rate at the end, and whether it has become steady (changed by "
+                       "less than 0.1 % over the last fifth of the run)"));
       s.push_back(make("output", "moments", K::flag, Dim::none, "false",
                        "mean position and variance of the content at output times"));
       return s;

@@ -25,6 +25,12 @@ namespace fickcast
       values.emplace_back("release." + release.name, release.time);
     for (const auto &lag : r.time_lags)
       values.emplace_back("time_lag." + lag.name, lag.time_lag);
+    for (const auto &face : r.face_results)
+      {
+        values.emplace_back(face.full_name(), face.value);
+        if (face.prefix == "peak_flux")
+          values.emplace_back(face.full_name() + ".time", face.when);
+      }
     for (const auto &depth : r.depths)
       values.emplace_back("depth." + depth.name, depth.depths.empty() ? not_a_number : depth.depths.back());
     return values;

@@ -45,6 +45,21 @@ namespace fickcast
     bool steady = false;              ///< the flux changed by less than 0.1 % over the last fifth of the run
   };
 
+  /// A named result through a face (output.flux.*, crossed.*, peak_flux.*, flux_limit.*,
+  /// crossed_limit.*, steady_flux.*), counted in its direction (out of or into the body).
+  struct FaceResultRecord
+  {
+    std::string prefix, name, boundary; ///< prefix: flux, crossed, ...
+    bool outward = true;
+    double asked_time = not_a_number; ///< s: flux and crossed (the end if none was asked)
+    double limit = not_a_number;      ///< flux_limit (amount per time), crossed_limit (amount)
+    double value = not_a_number;      ///< rate (amount per time) or amount; for limits the time, s
+    double when = not_a_number;       ///< peak_flux: when it came, s
+    bool steady = false;              ///< steady_flux: changed by less than 0.1 % over the last fifth
+    std::string note;                 ///< a caveat a person must read beside the value, or empty
+    std::string full_name() const { return prefix + "." + name; }
+  };
+
   /// Mean position and variance of the content at one output time.
   struct MomentsRecord
   {
@@ -131,6 +146,7 @@ namespace fickcast
     double released_reference = 0;        ///< amount the released fraction refers to
     double released_final = not_a_number; ///< released fraction at the end
     std::vector<TimeLagRecord> time_lags;
+    std::vector<FaceResultRecord> face_results;
     std::vector<MomentsRecord> moments;
     std::vector<std::string> lines;
     std::vector<double> output_times;

@@ -221,6 +221,35 @@ namespace fickcast
         event["steady"] = lag.steady;
         results["time_lag." + lag.name] = event;
       }
+    const std::string rate_unit = c.units.amount + "/s";
+    for (const auto &face : r.face_results)
+      {
+        const bool limit = face.prefix == "flux_limit" || face.prefix == "crossed_limit";
+        Json::Value item = quantity(face.value, limit                      ? std::string("s")
+                                                : face.prefix == "crossed" ? c.units.amount
+                                                                           : rate_unit);
+        item["boundary"] = face.boundary;
+        item["direction"] = face.outward ? "out" : "in";
+        if (std::isfinite(face.asked_time))
+          item[face.prefix == "crossed" ? "by" : "at"] = quantity(face.asked_time, "s");
+        if (limit)
+          {
+            item["limit"] = quantity(face.limit, face.prefix == "flux_limit" ? rate_unit : c.units.amount);
+            item["reached"] = std::isfinite(face.value);
+          }
+        if (face.prefix == "steady_flux")
+          item["steady"] = face.steady;
+        if (!face.note.empty())
+          item["note"] = face.note;
+        results[face.full_name()] = item;
+        if (face.prefix == "peak_flux")
+          {
+            Json::Value when = quantity(face.when, "s");
+            when["boundary"] = face.boundary;
+            when["direction"] = face.outward ? "out" : "in";
+            results[face.full_name() + ".time"] = when;
+          }
+      }
     if (!r.moments.empty())
       {
         Json::Value moments(Json::objectValue);

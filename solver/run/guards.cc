@@ -70,8 +70,11 @@ namespace fickcast
                              " apart, more than the diffusion length sqrt(D t) = " + number(diffusion_length, "m") +
                              " of the first output interval (to " + number(first_output, "s") +
                              "): values near it are poor until the front has crossed several cells; refine the "
-                             "mesh there (cell sizes, geometry.refine) or keep numerics.accuracy on to measure "
-                             "the error");
+                             "mesh there (cell sizes, geometry.refine)" +
+                             (c.numerics.accuracy > 0 ? std::string(" to avoid it; the accuracy check's estimates of "
+                                                                    "the named results include its effect on them")
+                                                      : std::string(" or turn numerics.accuracy on to measure the "
+                                                                    "error")));
       }
     return warnings;
   }
@@ -113,9 +116,15 @@ namespace fickcast
       return last == 0 || std::abs(last) <= tolerance_ ? std::string("back in range by the end")
                                                        : "still " + number(std::abs(last), "") + "at the end";
     };
-    const std::string remedy = ": the mesh or the steps are too coarse for a front there, and values near it are poor "
-                               "while it lasts; refine the mesh (cell sizes, geometry.refine) or keep "
-                               "numerics.accuracy on";
+    // With the accuracy check on, its estimates of the named results include the excursion's
+    // effect on them; what stays poor is the field near the front while it lasts.
+    const std::string remedy =
+      checked_ ? ": the mesh or the steps are too coarse for a front there; the named results' error estimates "
+                 "include its effect on them, but field values near the front are poor while it lasts (refine the "
+                 "mesh there to avoid it: cell sizes, geometry.refine)"
+               : ": the mesh or the steps are too coarse for a front there, and values near it are poor while it "
+                 "lasts; refine the mesh (cell sizes, geometry.refine) or turn numerics.accuracy on to measure the "
+                 "error";
     if (worst_below_ < -tolerance_)
       warnings.push_back("the concentration went below zero by " + number(-worst_below_, "") +
                          "of the largest initial or boundary value (worst at t = " + number(below_time_, "s") + "; " +

@@ -31,10 +31,12 @@ namespace fickcast
   class RangeGuard
   {
   public:
-    /// @p check_upper: false when sources can raise the state above every boundary value.
-    RangeGuard(double relative_tolerance, bool check_upper)
+    /// @p check_upper: false when sources can raise the state above every boundary value;
+    /// @p checked: the accuracy check is on (the remedy then does not ask for it).
+    RangeGuard(double relative_tolerance, bool check_upper, bool checked)
       : tolerance_(relative_tolerance)
       , check_upper_(check_upper)
+      , checked_(checked)
     {
     }
 
@@ -51,6 +53,7 @@ namespace fickcast
   private:
     double tolerance_;
     bool check_upper_;
+    bool checked_;
     double worst_below_ = 0, below_time_ = 0; ///< most negative value / upper
     double worst_above_ = 0, above_time_ = 0; ///< largest (value - upper) / upper
     double last_below_ = 0, last_above_ = 0;  ///< the same at the last look

@@ -30,12 +30,16 @@ namespace fickcast
     return sorted_unique(std::move(times), c.time.end);
   }
 
-  /// Times a step must land on: output times and stage ends.
+  /// Times a step must land on: output times, stage ends and the times of results through faces.
   std::vector<double> hard_times(const CaseDescription &c, const std::vector<double> &outputs)
   {
     std::vector<double> times = outputs;
     for (const auto &stage : c.stages)
       times.push_back(stage.end());
+    // A rate or an amount through a face asked at a time is read there, not interpolated.
+    for (const auto &face : c.output.face_results)
+      if (face.time > 0)
+        times.push_back(face.time);
     return sorted_unique(std::move(times), c.time.end);
   }
 } // namespace fickcast

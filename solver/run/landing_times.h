@@ -10,6 +10,7 @@ namespace fickcast
   /// Output times: listed times, multiples of fields_every, and the end, sorted and unique.
   std::vector<double> output_schedule(const CaseDescription &c);
 
-  /// Times a step must land on: @p outputs and the stage ends, sorted and unique.
+  /// Times a step must land on: @p outputs, the stage ends and the times asked of results through
+  /// faces (output.flux.*, crossed.*), sorted and unique.
   std::vector<double> hard_times(const CaseDescription &c, const std::vector<double> &outputs);
 } // namespace fickcast

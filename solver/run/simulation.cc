@@ -9,13 +9,13 @@
 #include "results/observers.h"
 #include "run/carried_error.h"
 #include "run/checkpoint.h"
+#include "run/face_histories.h"
 #include "run/field_view_of.h"
 #include "run/guards.h"
 #include "run/landing_times.h"
 #include "run/run_remeshing.h"
 #include "run/series_layout.h"
 #include "run/step_error.h"
-#include "run/time_lags.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -164,14 +164,7 @@ namespace fickcast
     };
     if (!resumed)
       observers.start(problem.make_ghosted(u), remaining(u));
-    std::vector<FluxHistory> lag_history;
-    for (const auto &[name, boundary] : c.output.time_lags)
-      {
-        (void)name;
-        const auto &names = problem.names().boundaries;
-        lag_history.push_back(
-          {static_cast<unsigned int>(std::find(names.begin(), names.end(), boundary) - names.begin()), {}});
-      }
+    FaceHistories faces(c, problem.names().boundaries);
 
     TermRates rates_old = problem.rates(u, 0.0);
     std::vector<double> reaction_rate_old(n_boundaries, not_a_number);
@@ -263,7 +256,7 @@ namespace fickcast
     record.warnings = resolution_warnings(problem, c, first_output_time(c.time.end, outputs));
     if (!problem.refinement_warning().empty())
       record.warnings.insert(record.warnings.begin(), problem.refinement_warning());
-    RangeGuard range(1e-6, !has_source);
+    RangeGuard range(1e-6, !has_source, c.numerics.accuracy > 0);
     double range_upper = std::max(scale, u.linfty_norm());
     const bool dispersed = problem.has_dispersed_phase();
     double t = 0, s = 0;
@@ -276,13 +269,12 @@ namespace fickcast
       return weighted_step_error(v, u_new, scale, c.time.error_floor, dispersed, communicator);
     };
 
-    // The named points' step error, each relative to its own value but to no less than
-    // time.error_floor (the accuracy check sets it from the points' values; 0: not judged). The
-    // field's measure keeps a floor of 1e-3 of the scale (a deeper one everywhere costs many
-    // steps in 3-D); a point five decades under the scale needs its own.
-    // Without a floor from an earlier solve, the check's first solve judges them against a
-    // millionth of the scale (the 1-D tail of the wafer demo, 7.8e-6 of its scale, came out 15 %
-    // high when only the field was judged: the late steps grew to 57 s).
+    // The named points' step error, each relative to its own value but to no less than a floor:
+    // time.error_floor (the accuracy check sets it from the points' values of the solve before),
+    // else, in the check's first solve, a millionth of the scale (the 1-D tail of the wafer demo,
+    // 7.8e-6 of its scale, came out 15 % high when only the field was judged: the late steps grew
+    // to 57 s); without the check they are not judged. The field's measure keeps a floor of 1e-3
+    // of the scale (a deeper one everywhere costs many steps in 3-D).
     const double point_floor =
       c.time.error_floor > 0 ? c.time.error_floor : (c.numerics.accuracy > 0 ? 1e-6 * scale : 0.0);
     const auto point_step_error = [&](const Vector &difference) {
@@ -334,18 +326,7 @@ namespace fickcast
           a.put(owned_values(h.state));
         }
       carried.save(a);
-      a.put_count(lag_history.size());
-      for (const auto &lag : lag_history)
-        {
-          std::vector<double> times, rates;
-          for (const auto &[when, rate] : lag.second)
-            {
-              times.push_back(when);
-              rates.push_back(rate);
-            }
-          a.put(times);
-          a.put(rates);
-        }
+      faces.save(a);
       put(a, problem.saved_state());
       const std::vector<std::pair<double, std::string>> none;
       const auto &written = fields ? fields->records() : none;
@@ -414,17 +395,7 @@ namespace fickcast
             history.push_back(std::move(h));
           }
         carried.load(a, folder);
-        if (a.get_count() != lag_history.size())
-          throw IoError("the checkpoint in " + folder + " does not fit this case's time lags");
-        for (auto &lag : lag_history)
-          {
-            const std::vector<double> times = a.get_values(), rates = a.get_values();
-            if (times.size() != rates.size())
-              throw IoError("the checkpoint in " + folder + " is damaged (time lags)");
-            lag.second.clear();
-            for (std::size_t k = 0; k < times.size(); ++k)
-              lag.second.emplace_back(times[k], rates[k]);
-          }
+        faces.load(a, folder);
         ProblemState state;
         get(a, state);
         problem.restore(state);
@@ -664,8 +635,7 @@ namespace fickcast
             range_upper = std::max(range_upper, problem.concentration_scale(t));
             range.observe(u.min(), u.max(), range_upper, t);
             observers.step(plan.t0, t1, problem.make_ghosted(u), remaining(u));
-            for (auto &lag : lag_history)
-              lag.second.emplace_back(t, boundary_rates[lag.first]);
+            faces.record(t, boundary_rates, record.boundary_entered);
             write_row(t, step, t1 - plan.t0, u, boundary_rates);
             if (landing)
               {
@@ -774,8 +744,8 @@ namespace fickcast
     moved = std::max({moved, std::abs(source_total), std::abs(decayed_total)});
     record.balance_error_relative = moved > 0 ? std::abs(balance) / moved : 0.0;
     observers.finish(record);
-    for (auto &lag : time_lag_records(c.output.time_lags, lag_history, record.boundary_entered, t))
-      record.time_lags.push_back(lag);
+    record.time_lags = faces.time_lags(c, record.boundary_entered, t);
+    record.face_results = faces.results(c, t);
     for (const auto &warning : range.warnings())
       record.warnings.push_back(warning);
     record.matrix_setups = problem.n_matrix_setups();

@@ -21,6 +21,15 @@ namespace fickcast
       names.push_back({"release." + release.name, "s"});
     for (const auto &[name, boundary] : c.output.time_lags)
       names.push_back({"time_lag." + name, "s"});
+    for (const auto &face : c.output.face_results)
+      {
+        const bool is_time =
+          face.kind == FaceResultSpec::Kind::flux_limit || face.kind == FaceResultSpec::Kind::crossed_limit;
+        const bool is_amount = face.kind == FaceResultSpec::Kind::crossed;
+        names.push_back({face.full_name(), is_time ? "s" : is_amount ? c.units.amount : c.units.amount + "/s"});
+        if (face.kind == FaceResultSpec::Kind::peak_flux)
+          names.push_back({face.full_name() + ".time", "s"});
+      }
     for (const auto &depth : c.output.depths)
       names.push_back({"depth." + depth.name, "m"});
     return names;
@@ -41,6 +50,12 @@ namespace fickcast
       names.push_back("release." + release.name);
     for (const auto &[name, boundary] : c.output.time_lags)
       names.push_back("time_lag." + name);
+    for (const auto &face : c.output.face_results)
+      {
+        names.push_back(face.full_name());
+        if (face.kind == FaceResultSpec::Kind::peak_flux)
+          names.push_back(face.full_name() + ".time");
+      }
     for (const auto &depth : c.output.depths)
       names.push_back("depth." + depth.name);
     return names;
@@ -84,6 +99,7 @@ namespace fickcast
   }
   bool is_event_result(const std::string &name)
   {
-    return name.rfind("threshold.", 0) == 0 || name.rfind("release.", 0) == 0;
+    return name.rfind("threshold.", 0) == 0 || name.rfind("release.", 0) == 0 || name.rfind("flux_limit.", 0) == 0 ||
+           name.rfind("crossed_limit.", 0) == 0;
   }
 } // namespace fickcast

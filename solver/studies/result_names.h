@@ -15,7 +15,8 @@ namespace fickcast
     std::string unit; ///< e.g. s, m, kg/m3, 1
   };
 
-  /// True for results that are times of events (threshold.NAME, release.NAME): absent when
+  /// True for results that are times of events (threshold.NAME, release.NAME, flux_limit.NAME,
+  /// crossed_limit.NAME): absent when
   /// the event did not happen within the run, and then later than any time.
   bool is_event_result(const std::string &name);
 
