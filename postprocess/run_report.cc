@@ -39,7 +39,7 @@ namespace fickcast::post
       if (!r.isMember("error_estimate") || !r["error_estimate"].isNumeric())
         return "";
       const double e = r["error_estimate"].asDouble();
-      if (name.rfind("point.", 0) == 0)
+      if (name.rfind("point.", 0) == 0 || name.rfind("bath.", 0) == 0)
         return "+- " + format_number(e / c.si_per_unit, 2) + " " + c.symbol;
       if (name.rfind("depth.", 0) == 0)
         return "+- " + format_number(e, 2) + " m";
@@ -77,6 +77,9 @@ namespace fickcast::post
             rows.push_back({name, quantity(value, "s"),
                             "through " + r["boundary"].asString() +
                               (r["steady"].asBool() ? "" : "; the flux was not yet steady at the end")});
+          else if (name.rfind("bath.", 0) == 0)
+            rows.push_back(
+              {name, in_display(value), "in the bath liquid on " + r["boundary"].asString() + " at the end"});
           else if (r.isObject() && r.isMember("direction") && r.isMember("boundary"))
             {
               // A result through a face: its direction and face, and the time or limit it refers to.

@@ -44,7 +44,7 @@ namespace fickcast
     options.overwrite = invocation.overwrite;
     options.checkpoints = true;
     options.resume = invocation.resume;
-    options.progress = [&progress](double t, double end, unsigned int step) { progress.update(t, end, step); };
+    options.progress = [&progress](const ProgressReport &report) { progress.update(report); };
     const RunOutcome outcome = run_case(description, options, communicator);
     progress.clear();
     const RunRecord &r = outcome.record;
@@ -138,7 +138,13 @@ namespace fickcast
     for (const auto &release : r.releases)
       std::printf("  release.%s: %s%s (%.0f %% released)\n", release.name.c_str(), units.time(release.time).c_str(),
                   estimate("release." + release.name, time).c_str(), 100 * release.level);
-    if (std::isfinite(r.released_final) && (!r.releases.empty() || description.output.loading > 0))
+    for (std::size_t b = 0; b < r.boundaries.size() && b < r.bath_final.size(); ++b)
+      if (std::isfinite(r.bath_final[b]))
+        std::printf("  bath.%s.final: %s%s (the bath liquid on %s at the end)\n", r.boundaries[b].c_str(),
+                    units.concentration(r.bath_final[b]).c_str(),
+                    estimate("bath." + r.boundaries[b] + ".final", concentration).c_str(), r.boundaries[b].c_str());
+    // The released fraction wherever the body releases (not when it takes the species up).
+    if (std::isfinite(r.released_final) && r.released_final >= 0)
       std::printf("  released at the end: %.4g %%%s\n", 100 * r.released_final,
                   estimate("released_fraction.final", [](double v) {
                     char text[32];

@@ -1,5 +1,7 @@
 #include "results/headline_values.h"
 
+#include <cmath>
+
 namespace fickcast
 {
   double final_total_amount(const RunRecord &r)
@@ -25,6 +27,9 @@ namespace fickcast
       values.emplace_back("release." + release.name, release.time);
     for (const auto &lag : r.time_lags)
       values.emplace_back("time_lag." + lag.name, lag.time_lag);
+    for (std::size_t b = 0; b < r.bath_final.size() && b < r.boundaries.size(); ++b)
+      if (std::isfinite(r.bath_final[b]))
+        values.emplace_back("bath." + r.boundaries[b] + ".final", r.bath_final[b]);
     for (const auto &face : r.face_results)
       {
         values.emplace_back(face.full_name(), face.value);

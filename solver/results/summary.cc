@@ -221,6 +221,14 @@ namespace fickcast
         event["steady"] = lag.steady;
         results["time_lag." + lag.name] = event;
       }
+    for (std::size_t b = 0; b < r.boundaries.size() && b < r.bath_final.size(); ++b)
+      if (std::isfinite(r.bath_final[b]))
+        {
+          Json::Value bath = quantity(r.bath_final[b], c.units.concentration);
+          bath["boundary"] = r.boundaries[b];
+          bath["phase"] = "bath liquid";
+          results["bath." + r.boundaries[b] + ".final"] = bath;
+        }
     const std::string rate_unit = c.units.amount + "/s";
     for (const auto &face : r.face_results)
       {

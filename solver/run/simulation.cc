@@ -98,6 +98,8 @@ namespace fickcast
     record.degree = problem.degree();
     record.ranks = Utilities::MPI::n_mpi_processes(communicator);
     record.linear_solver = problem.uses_direct_solver() ? "direct (KLU)" : "CG with algebraic multigrid";
+    if (progress)
+      progress({0, c.time.end, 0, record.cells, record.unknowns, true});
     record.regions = problem.names().regions;
     record.boundaries = problem.names().boundaries;
     const unsigned int n_boundaries = record.boundaries.size();
@@ -681,7 +683,7 @@ namespace fickcast
                   }
               }
             if (progress)
-              progress(t, c.time.end, step);
+              progress({t, c.time.end, step, 0, 0, false});
 
             // A stop request (on any rank) and a checkpoint that is due are decided together.
             int flags[2] = {stop_requested() ? 1 : 0, 0};

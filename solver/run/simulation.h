@@ -19,8 +19,16 @@ namespace fickcast
   template <int dim>
   class DiffusionProblem;
 
-  /// Called after every accepted step with (time reached, end time, step count).
-  using ProgressCallback = std::function<void(double, double, unsigned int)>;
+  /// What a run tells its progress display: once before the first step (starting, with the
+  /// mesh), then after every accepted step (time reached, end time, step count).
+  struct ProgressReport
+  {
+    double t = 0, end = 0;
+    unsigned int step = 0;
+    unsigned long cells = 0, unknowns = 0; ///< set when starting
+    bool starting = false;
+  };
+  using ProgressCallback = std::function<void(const ProgressReport &)>;
 
   /// Called at t = 0 and at every output time with the problem and the ghosted state u
   /// (verification tests compare it with exact solutions in-process).

@@ -8,6 +8,20 @@
 
 namespace fickcast
 {
+  namespace
+  {
+    /// Faces that are a bath in some stage: their bath concentration is a named result.
+    std::vector<std::string> bath_faces(const CaseDescription &c)
+    {
+      std::vector<std::string> faces;
+      for (const auto &stage : c.stages)
+        for (const auto &b : stage.boundaries)
+          if (b.kind == BoundaryKind::bath && std::find(faces.begin(), faces.end(), b.name) == faces.end())
+            faces.push_back(b.name);
+      return faces;
+    }
+  } // namespace
+
   std::vector<ResultName> expected_results(const CaseDescription &c)
   {
     std::vector<ResultName> names;
@@ -21,6 +35,8 @@ namespace fickcast
       names.push_back({"release." + release.name, "s"});
     for (const auto &[name, boundary] : c.output.time_lags)
       names.push_back({"time_lag." + name, "s"});
+    for (const auto &face : bath_faces(c))
+      names.push_back({"bath." + face + ".final", c.units.concentration});
     for (const auto &face : c.output.face_results)
       {
         const bool is_time =
@@ -50,6 +66,8 @@ namespace fickcast
       names.push_back("release." + release.name);
     for (const auto &[name, boundary] : c.output.time_lags)
       names.push_back("time_lag." + name);
+    for (const auto &face : bath_faces(c))
+      names.push_back("bath." + face + ".final");
     for (const auto &face : c.output.face_results)
       {
         names.push_back(face.full_name());
