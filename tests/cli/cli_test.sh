@@ -137,5 +137,18 @@ grep -q "geometry.cell_size: the mesh would have about .* GiB of memory" "$scrat
   fail "a mesh beyond memory is not refused with the numbers: $(cat "$scratch/err.txt")"
 [ -e "$scratch/huge" ] && fail "a refused run left a results folder"
 
+# Progress into a log (stderr not a terminal): the mesh of each solve before it starts, then plain
+# lines at the interval (shortened here from a minute); none with --quiet.
+FICKCAST_PROGRESS_SECONDS=0.001 expect_code 0 "run with progress into a log" "$fickcast" run "$case_file" \
+  --output "$scratch/progress" --set "time.end=2 yr"
+grep -Eq '^fickcast: solve 1: [0-9]+ cells, [0-9]+ unknowns, to t = 2 yr$' "$scratch/err.txt" ||
+  fail "no line with the first solve's mesh before it starts: $(head -c 300 "$scratch/err.txt")"
+grep -Eq '^fickcast: solve 2: t = .* step [0-9]+, .* s so far, about .* s left$' "$scratch/err.txt" ||
+  fail "no plain progress line for the second solve: $(head -c 300 "$scratch/err.txt")"
+grep -q $'\r' "$scratch/err.txt" && fail "progress into a log holds carriage returns"
+FICKCAST_PROGRESS_SECONDS=0.001 expect_code 0 "run --quiet with progress" "$fickcast" run "$case_file" \
+  --output "$scratch/progress" --set "time.end=2 yr" --overwrite --quiet
+grep -q "fickcast: solve" "$scratch/err.txt" && fail "--quiet still shows progress"
+
 if [ "$failures" -ne 0 ]; then echo "$failures failure(s)"; exit 1; fi
 echo "all command-line checks passed"

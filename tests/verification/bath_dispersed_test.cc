@@ -2,6 +2,7 @@
 // releasing into a perfect sink (square-root-of-time law).
 #include "case_runner.h"
 #include "csv_table.h"
+#include "results/headline_values.h"
 
 #include <boost/math/constants/constants.hpp>
 #include <boost/math/special_functions/erf.hpp>
@@ -76,6 +77,13 @@ namespace fickcast::testing
         EXPECT_NEAR(fraction, bath_fraction(alpha, T), 5e-5); // measured 1.4e-5
       }
     EXPECT_LT(std::abs(series.column("balance_error").back()), 1e-10);
+    // The named result bath.top.final is the bath at the end (T = 1), against the same series.
+    double named = std::nan("");
+    for (const auto &[name, value] : headline_values(record))
+      if (name == "bath.top.final")
+        named = value;
+    ASSERT_TRUE(std::isfinite(named)) << "no named result bath.top.final";
+    EXPECT_NEAR(alpha * named / final_amount, bath_fraction(alpha, 1.0), 5e-5);
   }
 
   INSTANTIATE_TEST_SUITE_P(VolumeRatios, FiniteBath, ::testing::Values(1.0, 4.0),
