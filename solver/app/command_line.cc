@@ -26,24 +26,28 @@ namespace fickcast
 
   namespace
   {
-    po::options_description common_options()
-    {
-      po::options_description options("Options");
-      options.add_options() //
-        ("set", po::value<std::vector<std::string>>()->composing(),
-         "override a case key: --set section.key=value (repeatable), e.g. "
-         "--set region.clay.diffusivity=\"2e-10 m2/s\"")                                               //
-        ("output", po::value<std::string>(), "results folder (instead of the case's output.folder)")   //
-        ("overwrite", "replace an existing results folder")                                            //
-        ("allow-large", "run a case even if its estimated memory, steps or outputs exceed the limits") //
-        ("quiet", "print errors only")                                                                 //
-        ("help", "show this help");
-      return options;
-    }
-
+    /// The options of @p verb, and only those (help shows what applies).
     po::options_description verb_options(const std::string &verb)
     {
-      po::options_description options = common_options();
+      const bool reads_case = verb != "verify";
+      const bool writes = verb != "check";
+      po::options_description options("Options");
+      if (reads_case)
+        options.add_options()("set", po::value<std::vector<std::string>>()->composing(),
+                              "override a case key: --set section.key=value (repeatable), e.g. "
+                              "--set region.clay.diffusivity=\"2e-10 m2/s\"");
+      if (writes)
+        options.add_options() //
+          ("output", po::value<std::string>(),
+           verb == "verify" ? "folder for the verification report (default: verification-DATE-TIME)"
+                            : "results folder (instead of the case's output.folder)") //
+          ("overwrite", "replace an existing results folder");
+      if (reads_case)
+        options.add_options()("allow-large",
+                              "run a case even if its estimated memory, steps or outputs exceed the limits");
+      options.add_options()            //
+        ("quiet", "print errors only") //
+        ("help", "show this help");
       if (verb == "check")
         options.add_options()("keys", "list every case key with its default and meaning");
       if (verb == "run")
@@ -176,8 +180,8 @@ namespace fickcast
                "Verbs:\n";
         for (const auto &[name, text] : verbs())
           out << "  " << name << std::string(10 - name.size(), ' ') << text << '\n';
-        out << "\nOptions for every verb:\n"
-            << common_options() << "\n"
+        out << "\nOptions of most verbs (fickcast VERB --help lists each verb's own):\n"
+            << verb_options("run") << "\n"
             << "  --version             print the version\n\n"
                "Exit codes: 0 success, 1 run failed (numerical), 2 bad input (case, mesh, flag), 3 I/O,\n"
                "4 interrupted (a signal; `run --resume` or the same sweep continues it).\n"

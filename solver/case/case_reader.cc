@@ -517,7 +517,8 @@ namespace fickcast
             layer.thickness = to_si_or_throw(entry, q.number, q.unit, "m", Dim::length);
             if (!(layer.thickness > 0))
               throw InputError(entry.origin(), entry.full_key(),
-                               "expected a layer thickness > 0, found '" + joined + "' (a zero-thickness layer)");
+                               "expected a layer thickness > 0, found '" + joined + "' (" +
+                                 (layer.thickness < 0 ? "a negative thickness" : "a zero-thickness layer") + ")");
             layers.push_back(layer);
           }
         if (layers.empty())
