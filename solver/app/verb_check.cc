@@ -110,6 +110,8 @@ namespace fickcast
       std::cout << "mesh near open faces: " << mesh.refinement_note << "\n";
     if (!mesh.refinement_warning.empty())
       std::cout << "warning: " << mesh.refinement_warning << "\n";
+    for (const auto &warning : description.input_warnings)
+      std::cout << "warning: " << warning << "\n";
     // A distortion measure (the smallest over the largest Jacobian determinant in a cell): 1 for
     // boxes and parallelograms; near 0 the cell is close to collapse and the solution there is poor.
     std::string centre;

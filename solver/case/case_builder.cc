@@ -165,6 +165,7 @@ namespace fickcast
     c.file = settings.file;
     c.dimension = dimension;
     c.units = settings.units;
+    c.input_warnings = settings.warnings;
     c.title = reader.text("case", "title");
     build_geometry(reader, c);
     build_regions(reader, c);

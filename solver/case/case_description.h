@@ -383,7 +383,8 @@ namespace fickcast
   struct CaseDescription
   {
     std::string title;
-    std::string file; ///< the case file it came from
+    std::string file;                        ///< the case file it came from
+    std::vector<std::string> input_warnings; ///< readings to confirm (a time or temperature without its unit)
     /// Of the case's entries after --set values, except where results go and checkpoint timing:
     /// a resumed run continues only the same case.
     std::uint64_t fingerprint = 0;

@@ -14,6 +14,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <regex>
@@ -232,10 +233,45 @@ namespace fickcast
     /// Avogadro constant, exact (SI Brochure, 9th ed., 2019).
     constexpr double avogadro = 6.02214076e23;
 
+    /// Whether a temperature schedule holds a number without its unit (a number followed by
+    /// nothing, a comma, `to` or `in`).
+    bool has_bare_number(const std::string &text)
+    {
+      std::string spaced;
+      for (const char ch : text)
+        spaced += ch == ',' ? std::string(" , ") : std::string(1, ch);
+      std::istringstream words(spaced);
+      std::vector<std::string> tokens;
+      for (std::string word; words >> word;)
+        tokens.push_back(word);
+      for (std::size_t k = 0; k < tokens.size(); ++k)
+        {
+          char *end = nullptr;
+          std::strtod(tokens[k].c_str(), &end);
+          const bool number = end != tokens[k].c_str() && *end == '\0';
+          if (number &&
+              (k + 1 == tokens.size() || tokens[k + 1] == "," || tokens[k + 1] == "to" || tokens[k + 1] == "in"))
+            return true;
+        }
+      return false;
+    }
+
     struct Parser
     {
       Settings &settings;
       unsigned int dimension = 1;
+
+      /// A time or a temperature written without its unit is read in SI, which is rarely meant
+      /// (20 for 20 s, 1000 for 1000 K): one warning naming the reading.
+      void warn_bare(const IniEntry &entry, const Dim dim, const std::string &text)
+      {
+        if (dim != Dim::time && dim != Dim::temperature)
+          return;
+        settings.warnings.push_back(
+          entry.origin() + ": " + entry.full_key() + ": '" + printable(text, 80) + "' has no unit and is read as " +
+          (dim == Dim::time ? "seconds" : "kelvin") + "; write the unit (for example " +
+          (dim == Dim::time ? "'20 min', '3 d' or '10 yr'" : "'1000 degC' or '1273 K'") + ") to say what you mean");
+      }
 
       /// A path in the case file, relative to the case file's folder.
       std::string resolve_path(const std::string &path) const
@@ -322,6 +358,8 @@ namespace fickcast
                 case ValueKind::quantity:
                   {
                     const QuantityText q = split_quantity(text, false);
+                    if (q.unit.empty() && q.number != 0)
+                      warn_bare(entry, dim, text);
                     if (dim == Dim::activation_energy && !q.unit.empty() &&
                         UnitSystem::instance().convertible(q.unit, "J/mol"))
                       value.si = UnitSystem::instance().to_si(q.number, q.unit, "J/mol") / avogadro;
@@ -332,6 +370,11 @@ namespace fickcast
                   }
                 case ValueKind::schedule:
                   value.schedule = parse_temperature_schedule(text);
+                  if (has_bare_number(text))
+                    settings.warnings.push_back(entry.origin() + ": " + entry.full_key() + ": '" + printable(text, 80) +
+                                                "' holds a number without its unit, read in SI (kelvin, seconds, "
+                                                "K/s); write each unit (for example '1000 degC, hold 2 h') to say "
+                                                "what you mean");
                   break;
                 case ValueKind::field:
                   {
@@ -379,6 +422,8 @@ namespace fickcast
                   for (const auto &item : split_list(text))
                     {
                       const QuantityText q = split_quantity(item, false);
+                      if (q.unit.empty() && q.number != 0)
+                        warn_bare(entry, dim, item);
                       value.list.push_back(
                         to_si_or_throw(entry, q.number, q.unit, value.si_unit, dim, &settings.units));
                       check_bounds(spec, value.list.back(), entry, value.si_unit);

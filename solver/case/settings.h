@@ -47,6 +47,7 @@ namespace fickcast
     std::string file;
     std::map<std::string, std::string> section_origins; ///< section -> file:line of its header
     ConcentrationUnits units;
+    std::vector<std::string> warnings; ///< readings a person should confirm (a time without its unit)
 
   private:
     std::vector<SettingValue> values_;

@@ -258,6 +258,7 @@ namespace fickcast
     record.warnings = resolution_warnings(problem, c, first_output_time(c.time.end, outputs));
     if (!problem.refinement_warning().empty())
       record.warnings.insert(record.warnings.begin(), problem.refinement_warning());
+    record.warnings.insert(record.warnings.begin(), c.input_warnings.begin(), c.input_warnings.end());
     RangeGuard range(1e-6, !has_source, c.numerics.accuracy > 0);
     double range_upper = std::max(scale, u.linfty_norm());
     const bool dispersed = problem.has_dispersed_phase();

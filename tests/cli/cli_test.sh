@@ -137,6 +137,19 @@ grep -q "geometry.cell_size: the mesh would have about .* GiB of memory" "$scrat
   fail "a mesh beyond memory is not refused with the numbers: $(cat "$scratch/err.txt")"
 [ -e "$scratch/huge" ] && fail "a refused run left a results folder"
 
+# A time or a temperature without its unit is read in SI, with a warning that names the reading.
+expect_code 0 "check of a bare time" "$fickcast" check "$case_file" --set "time.end=20"
+grep -q "warning: --set: time.end: '20' has no unit and is read as seconds" "$scratch/out.txt" ||
+  fail "a bare time.end gives no warning: $(grep -i warning "$scratch/out.txt")"
+expect_code 0 "check of a bare schedule" "$fickcast" check "$case_file" --set "temperature.schedule=1000, hold 2 h"
+grep -q "temperature.schedule: '1000, hold 2 h' holds a number without its unit" "$scratch/out.txt" ||
+  fail "a bare temperature gives no warning: $(grep -i warning "$scratch/out.txt")"
+expect_code 0 "check with units" "$fickcast" check "$case_file" --set "time.end=20 s" \
+  --set "temperature.schedule=1000 degC, ramp 10 K/min to 1100 degC, hold 2 h"
+grep -q "has no unit\|without its unit" "$scratch/out.txt" && fail "a value with units is warned about"
+expect_code 0 "run with a bare time" "$fickcast" run "$case_file" --output "$scratch/bare" --set "time.end=2e7" --quiet
+grep -q "time.end: '2e7' has no unit" "$scratch/bare/summary.json" || fail "summary.json lacks the bare-time warning"
+
 # Progress into a log (stderr not a terminal): the mesh of each solve before it starts, then plain
 # lines at the interval (shortened here from a minute); none with --quiet.
 FICKCAST_PROGRESS_SECONDS=0.001 expect_code 0 "run with progress into a log" "$fickcast" run "$case_file" \
