@@ -9,6 +9,7 @@
 
 #include <deal.II/base/mpi.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 
@@ -53,11 +54,17 @@ namespace fickcast
     });
     if (!talk)
       return invocation.report && root ? write_report(outcome.folder, true) : exit_success;
-    std::printf("  answer: %s = %.8g %s (bracket %.8g to %.8g after %zu runs)\n", outcome.key.c_str(), outcome.value,
-                outcome.parameter_unit.c_str(), outcome.bracket_low, outcome.bracket_high, outcome.evaluations.size());
+    // The digits the tolerance supports (a relative tolerance of 1e-3 gives 4), and the half
+    // width of the final bracket.
+    const int digits = std::clamp(static_cast<int>(std::ceil(-std::log10(base.size.tolerance))) + 1, 3, 12);
+    const DisplayUnits answer_units(base, digits);
+    std::printf("  answer: %s = %.*g %s (+- %.2g %s: the final bracket, after %zu runs)\n", outcome.key.c_str(), digits,
+                outcome.value, outcome.parameter_unit.c_str(),
+                0.5 * std::abs(outcome.bracket_high - outcome.bracket_low), outcome.parameter_unit.c_str(),
+                outcome.evaluations.size());
     std::printf("          %s = %s at the answer (aim %s)\n", outcome.result_name.c_str(),
-                units.result(outcome.result, result_unit, true).c_str(),
-                units.result(outcome.target, result_unit, true).c_str());
+                answer_units.result(outcome.result, result_unit, true).c_str(),
+                answer_units.result(outcome.target, result_unit, true).c_str());
     std::printf("results: %s (size.csv, size_summary.json, runs/)\n", outcome.folder.c_str());
     std::printf("  Model predictions support, but do not replace, testing and engineering judgement; see the\n"
                 "  README's cautions before using them for medical, containment or safety decisions.\n");

@@ -171,6 +171,9 @@ aim = 40 yr
 tolerance = 1e-3" "end of clay" >size.ini
 expect_code 0 "size" "$fickcast" size size.ini --output sized
 grep -q "run  1" out.txt && grep -q "answer" out.txt || fail "sizing does not print its runs and answer"
+# At a tolerance of 1e-3 the answer has 4 significant digits, not 8, and the bracket's half width.
+grep -Eq "answer: layer.clay.thickness = (0\.[0-9]{4}|[1-9]\.[0-9]{3}) m \(\+- [0-9.e+-]+ m: the final bracket, after [0-9]+ runs\)" out.txt ||
+  fail "the sizing answer is not printed to the digits its tolerance supports: $(grep answer out.txt)"
 [ -f sized/size.csv ] && [ -f sized/size_summary.json ] || fail "sizing tables missing"
 answer=$(sed -n 's/.*"value": \([0-9.e+-]*\),*/\1/p' sized/size_summary.json | head -1)
 result=$(sed -n 's/.*"result": \([0-9.e+-]*\),*/\1/p' sized/size_summary.json | head -1)
