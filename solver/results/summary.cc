@@ -294,6 +294,7 @@ namespace fickcast
         d["times"] = times;
         d["depths"] = depths;
         d["final"] = depth.depths.empty() ? not_a_number : depth.depths.back();
+        d["value"] = d["final"]; // like every named result: its value (at the end) and unit
         results["depth." + depth.name] = d;
       }
 

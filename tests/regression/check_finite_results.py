@@ -9,9 +9,12 @@ at any depth; the tests write them under build/test-scratch) and checks
   result that is legitimately absent:
     results/threshold.NAME/value     the level was never reached (its `reached` is false)
     results/release.NAME/value       the released fraction never reached the level (`reached` false)
+    results/flux_limit.NAME/value, crossed_limit.NAME/value
+                                     the rate or amount through the face never reached the limit
+                                     (`reached` false)
     results/time_lag.NAME/value and final_flux_in, both null together: no flux through the face at
                                      the end, so no asymptote (a null lag with a flux is a failure)
-    results/depth.NAME/depths[i], final
+    results/depth.NAME/depths[i], final, value
                                      the level is exceeded along the whole line ("below the whole
                                      domain" in the printout)
     results/moments/mean_position[i], variance[i]
@@ -27,6 +30,8 @@ at any depth; the tests write them under build/test-scratch) and checks
     bath.FACE in a stage             the face is not a bath in that stage (the column is empty for
                                      every row of that stage, or for none)
   A column is numeric if any of its cells reads as a number.
+
+Every named result in summary.json (but moments) has a value and a unit.
 
 Prints every problem; exits 1 on any, or if ROOT holds no results folder.
 Usage: check_finite_results.py ROOT
@@ -106,11 +111,11 @@ def check_summary(path, summary, problems):
             return False
         name, field = keys[1], keys[2]
         entry = results.get(name, {})
-        if name.startswith(("threshold.", "release.")) and field == "value":
+        if name.startswith(("threshold.", "release.", "flux_limit.", "crossed_limit.")) and field == "value":
             return entry.get("reached") is False
         if name.startswith("time_lag.") and field in ("value", "final_flux_in"):
             return entry.get("value") is None and entry.get("final_flux_in") is None
-        if name.startswith("depth.") and field in ("depths", "final"):
+        if name.startswith("depth.") and field in ("depths", "final", "value"):
             return True
         if name == "moments" and field in ("mean_position", "variance") and len(keys) >= 4:
             amounts = entry.get("amount", [])
@@ -133,6 +138,10 @@ def check_summary(path, summary, problems):
             problems.append(f"{path}: {'/'.join(str(k) for k in keys)} is {value}")
 
     walk(summary, [])
+    # One schema for every named result: its value and its unit (moments is a table of its own).
+    for name, entry in results.items():
+        if name != "moments" and not (isinstance(entry, dict) and "value" in entry and "unit" in entry):
+            problems.append(f"{path}: results/{name} lacks its value or unit")
 
 
 # Results folders the post-processor's bad-input tests damage on purpose (a letter in a number, a
