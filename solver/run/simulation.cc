@@ -98,8 +98,6 @@ namespace fickcast
     record.degree = problem.degree();
     record.ranks = Utilities::MPI::n_mpi_processes(communicator);
     record.linear_solver = problem.uses_direct_solver() ? "direct (KLU)" : "CG with algebraic multigrid";
-    if (progress)
-      progress({0, c.time.end, 0, record.cells, record.unknowns, true});
     record.regions = problem.names().regions;
     record.boundaries = problem.names().boundaries;
     const unsigned int n_boundaries = record.boundaries.size();
@@ -416,6 +414,10 @@ namespace fickcast
         have_good_state = true;
       }
     auto last_checkpoint = std::chrono::steady_clock::now();
+    // The mesh line comes once the case's input has passed every check (an input error stays the
+    // only line on stderr).
+    if (progress)
+      progress({0, c.time.end, 0, record.cells, record.unknowns, true});
 
     try
       {

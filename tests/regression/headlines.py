@@ -130,6 +130,8 @@ EXPECT = {
         (r"threshold\.clay_base about (\S+) yr", "yr", "sorbing_barrier", "threshold.clay_base",
          "digits"),
         (r"depth\.front at 100 yr about (\S+) m", "m", "sorbing_barrier", "depth.front", "digits"),
+        (r"flux_limit\.aquifer about (\S+) yr", "yr", "sorbing_barrier", "flux_limit.aquifer", "digits"),
+        (r"crossed\.aquifer about (\S+) mg/m2", "mg/m2", "sorbing_barrier", "crossed.aquifer", "digits"),
     ],
     "pipe_penetration": [
         (r"threshold\.behind_grout about (\S+) yr", "yr", "pipe_penetration",
@@ -160,8 +162,12 @@ EXPECT = {
     "membrane_permeation": [
         (r"point\.middle at the end (\S+) mol/m3", "mol/m3", "membrane_permeation",
          "point.middle.final", "digits"),
-        (r"flux_in\.bottom tends to (\S+) mol/\(m2 s\)", "mol/m2/s", "membrane_permeation",
-         "series.flux_in.bottom.last", "digits"),
+        (r"steady_flux\.receiver \S+ mol/m2/min \((\S+) mol/\(m2 s\)\)", "mol/m2/s", "membrane_permeation",
+         "steady_flux.receiver", "digits"),
+        (r"time_lag\.receiver \S+ min \((\S+) s\)", "s", "membrane_permeation", "time_lag.receiver",
+         "digits"),
+        (r"crossed\.receiver (\S+) mol/m2", "mol/m2", "membrane_permeation", "crossed.receiver",
+         "digits"),
     ],
     "wafer_trench": [
         (r"point\.below_floor \(0\.3 um under the trench floor\) about (\S+) 1/cm3", "1/cm3",
@@ -203,6 +209,7 @@ TO_SI = {
     "yr": ("s", JULIAN_YEAR), "h": ("s", 3600.0),
     "nm": ("m", 1e-9), "um": ("m", 1e-6), "mm": ("m", 1e-3), "cm": ("m", 1e-2),
     "mg/cm3": ("kg/m3", 1.0), "mg/L": ("kg/m3", 1e-3), "1/cm3": ("1/m3", 1e6),
+    "mg/m2": ("kg/m2", 1e-6),
 }
 
 # ---------------------------------------------------------------------------------------------
