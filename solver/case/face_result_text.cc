@@ -14,14 +14,20 @@ namespace fickcast
   {
     using Kind = FaceResultSpec::Kind;
 
+    /// Each kind with its prefix (FaceResultSpec::prefix() names them; this only lists them).
     const std::vector<std::pair<std::string, Kind>> &kinds()
     {
-      static const std::vector<std::pair<std::string, Kind>> table{{"flux", Kind::flux},
-                                                                   {"crossed", Kind::crossed},
-                                                                   {"peak_flux", Kind::peak_flux},
-                                                                   {"flux_limit", Kind::flux_limit},
-                                                                   {"crossed_limit", Kind::crossed_limit},
-                                                                   {"steady_flux", Kind::steady_flux}};
+      static const std::vector<std::pair<std::string, Kind>> table = [] {
+        std::vector<std::pair<std::string, Kind>> all;
+        for (const Kind kind :
+             {Kind::flux, Kind::crossed, Kind::peak_flux, Kind::flux_limit, Kind::crossed_limit, Kind::steady_flux})
+          {
+            FaceResultSpec spec;
+            spec.kind = kind;
+            all.emplace_back(spec.prefix(), kind);
+          }
+        return all;
+      }();
       return table;
     }
 
