@@ -60,6 +60,25 @@ namespace fickcast
           std::printf("%s\n", line.c_str());
         }
     }
+
+    /**
+     * An error in a `--vary KEY=values` named as the user wrote it: the command line turns it into
+     * the override `sweep.vary.KEY=values`, which the case reader reports as a `--set`.
+     */
+    InputError as_vary_error(const InputError &error, const Invocation &invocation)
+    {
+      const std::string prefix = "sweep.vary.";
+      if (error.where() != "--set" || error.key().rfind(prefix, 0) != 0)
+        return error;
+      const auto key_of = [](const std::string &text) { return text.substr(0, text.find('=')); };
+      for (const auto &o : invocation.overrides)
+        if (key_of(o) == error.key())
+          return error; // written as --set sweep.vary.KEY=...: that is where it is
+      for (const auto &v : invocation.vary)
+        if (key_of(v) == error.key())
+          return InputError("--vary", error.key().substr(prefix.size()), error.message());
+      return error;
+    }
   } // namespace
 
   int verb_sweep(const Invocation &invocation, MPI_Comm communicator)
@@ -68,20 +87,29 @@ namespace fickcast
     const unsigned int n_ranks = dealii::Utilities::MPI::n_mpi_processes(communicator);
     std::vector<std::string> overrides = invocation.overrides;
     overrides.insert(overrides.end(), invocation.vary.begin(), invocation.vary.end());
-    const CaseDescription base = read_case(invocation.case_file, overrides);
+    CaseDescription base;
+    std::vector<StudyCase> cases;
+    try
+      {
+        base = read_case(invocation.case_file, overrides);
+        if (!base.sweep.given())
+          throw InputError(base.file, "sweep",
+                           "expected a [sweep] section with vary.KEY = values (a sweep) or sample.KEY = "
+                           "distribution (an uncertainty study), or --vary KEY=values; found neither");
+        for (const auto &limit : base.sweep.limits)
+          result_level(base, limit.result, limit.level, limit.origin,
+                       std::string("sweep.") + (limit.above ? "exceed." : "below.") + limit.result);
+        cases = plan_study(base);
+        collectively(communicator, [&] {
+          if (rank == 0)
+            check_study_values(base, invocation.case_file, overrides);
+        });
+      }
+    catch (const InputError &error)
+      {
+        throw as_vary_error(error, invocation);
+      }
     const SweepSpec &sweep = base.sweep;
-    if (!sweep.given())
-      throw InputError(base.file, "sweep",
-                       "expected a [sweep] section with vary.KEY = values (a sweep) or sample.KEY = distribution "
-                       "(an uncertainty study), or --vary KEY=values; found neither");
-    for (const auto &limit : sweep.limits)
-      result_level(base, limit.result, limit.level, limit.origin,
-                   std::string("sweep.") + (limit.above ? "exceed." : "below.") + limit.result);
-    const std::vector<StudyCase> cases = plan_study(base);
-    collectively(communicator, [&] {
-      if (rank == 0)
-        check_study_values(base, invocation.case_file, overrides);
-    });
 
     StudyOptions options;
     options.case_file = invocation.case_file;

@@ -76,6 +76,7 @@ namespace fickcast
             reader.missing("size", part, "the rest of the sizing definition (from, to, result, aim)");
         z.parameter.values = {reader.get("size", "from")->text, reader.get("size", "to")->text};
         z.result = reader.get("size", "result")->text;
+        z.result_origin = reader.get("size", "result")->origin;
         z.aim = reader.get("size", "aim")->text;
         z.aim_origin = reader.get("size", "aim")->origin;
         z.tolerance = reader.quantity("size", "tolerance", 1e-4);

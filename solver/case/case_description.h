@@ -355,7 +355,8 @@ namespace fickcast
     std::string aim;          ///< the aimed value as written, in the result's dimension
     double tolerance = 1e-4;  ///< relative, on the parameter
     unsigned int max_runs = 40;
-    std::string aim_origin; ///< file:line of `aim`
+    std::string aim_origin;    ///< file:line of `aim`
+    std::string result_origin; ///< file:line of `result`
 
     bool given() const { return !parameter.key.empty(); }
   };

@@ -101,6 +101,8 @@ namespace fickcast
     // Checks the key before any run: a layer the case lacks fails here.
     parameter_overrides(base, outcome.key, format_value(outcome.low, outcome.parameter_unit), spec.parameter.origin);
 
+    // An unknown result name is the fault of size.result (where it is written); a bad level, of size.aim.
+    result_level(base, outcome.result_name, "0", spec.result_origin, "size.result");
     outcome.target = result_level(base, outcome.result_name, spec.aim, spec.aim_origin, "size.aim");
     for (const auto &r : expected_results(base))
       if (r.name == outcome.result_name)
@@ -204,7 +206,7 @@ namespace fickcast
             std::string names;
             for (const auto &n : summary.results)
               names += (names.empty() ? "" : ", ") + n.name;
-            throw InputError(spec.aim_origin, "size.result",
+            throw InputError(spec.result_origin, "size.result",
                              "expected a named result of the case (" + names + "), found '" + outcome.result_name +
                                "'");
           }
@@ -228,7 +230,7 @@ namespace fickcast
     const std::string ends = "at " + outcome.key + " = " + first.value + ", " + outcome.result_name + " = " +
                              shown(first.result) + "; at " + second.value + ", " + shown(second.result);
     if (!std::isfinite(f_low) || !std::isfinite(f_high))
-      throw InputError(spec.aim_origin, "size.result",
+      throw InputError(spec.result_origin, "size.result",
                        "expected " + outcome.result_name + " at both ends of the range, found it missing (" + ends +
                          ")");
     if ((f_low > 0 && f_high > 0) || (f_low < 0 && f_high < 0))

@@ -196,7 +196,9 @@ namespace fickcast
 
   std::string rejection_reason(const InputError &error)
   {
-    return error.where() == "--set" ? error.key() + ": " + error.message() : std::string(error.what());
+    if (error.where() != "--set")
+      return error.what();
+    return error.key().empty() ? error.message() : error.key() + ": " + error.message();
   }
 
   std::string plan_fingerprint(const std::vector<StudyCase> &cases, const std::vector<std::string> &base_overrides)

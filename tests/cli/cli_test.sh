@@ -41,6 +41,16 @@ grep -q -- "write \`point.x\` in \[output\]" "$scratch/err.txt" ||
   fail "--set output.probe.x does not name point.x: $(cat "$scratch/err.txt")"
 expect_code 2 "sweep --vary into an old section" "$fickcast" check "$case_file" --set "study.vary.time.end=1 yr, 2 yr"
 grep -q "in a \[sweep\] section" "$scratch/err.txt" || fail "--set study.vary does not name [sweep]: $(cat "$scratch/err.txt")"
+# A typo in a --vary key is named as --vary and the key as written (not as an --set of sweep.vary.*).
+expect_code 2 "sweep --vary with a misspelt key" "$fickcast" sweep "$case_file" --vary "region.silt.porosty=0.3,0.4" \
+  --output "$scratch/vary_typo"
+grep -q -- "^fickcast: --vary: region.silt.porosty: .*did you mean 'porosity'" "$scratch/err.txt" ||
+  fail "a --vary typo is not named as --vary: $(cat "$scratch/err.txt")"
+[ ! -e "$scratch/vary_typo" ] || fail "a refused --vary left a folder"
+expect_code 2 "sweep --vary with a value the key refuses" "$fickcast" sweep "$case_file" \
+  --vary "region.silt.porosity=0.3,abc" --output "$scratch/vary_typo"
+grep -q -- "^fickcast: --vary: region.silt.porosity: .*'abc'" "$scratch/err.txt" ||
+  fail "a bad --vary value is not named as --vary: $(cat "$scratch/err.txt")"
 expect_code 2 "missing case file argument" "$fickcast" run
 expect_code 2 "case file that does not exist" "$fickcast" run "$scratch/nowhere.ini"
 grep -q "nowhere.ini" "$scratch/err.txt" || fail "missing file not named"

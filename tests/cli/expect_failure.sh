@@ -9,7 +9,9 @@ line=$(grep -E "^${name//./\\.} \|" "$table") || { echo "no expectation for $nam
 rm -rf "$scratch" && mkdir -p "$scratch"
 stderr_file="$scratch/stderr.txt"
 verb=$(sed -n 's/^# verb: *//p' "$case_file" | head -1)
-"$fickcast" "${verb:-run}" "$case_file" --output "$scratch/results" >"$scratch/stdout.txt" 2>"$stderr_file"
+output=(--output "$scratch/results")
+[ "$verb" = check ] && output=() # check writes nothing and takes no --output
+"$fickcast" "${verb:-run}" "$case_file" "${output[@]}" >"$scratch/stdout.txt" 2>"$stderr_file"
 code=$?
 message=$(cat "$stderr_file")
 status=0
