@@ -204,19 +204,24 @@ namespace fickcast::post
     void release(Context &context, const bool root)
     {
       const CsvTable &series = context.results.series;
-      if (!series.has("released_fraction"))
+      // A release, or an uptake (case/content_fraction.h in the solver): the column says which.
+      const bool uptake = series.has("uptake_fraction");
+      const std::string column = uptake ? "uptake_fraction" : "released_fraction";
+      if (!series.has(column))
         return;
-      const auto fraction = series.numbers("released_fraction");
+      const auto fraction = series.numbers(column);
       if (!has_finite(fraction, true))
         return;
       const auto [t, label] = context.time_axis(root);
+      const std::string what = uptake ? "uptake fraction" : "released fraction";
       PlotSpec spec;
-      spec.title = std::string("Released fraction") + (root ? " against the square root of time" : "");
+      spec.title = std::string(uptake ? "Uptake fraction" : "Released fraction") +
+                   (root ? " against the square root of time" : "");
       spec.x_label = label;
-      spec.y_label = "released fraction [%]";
-      spec.curves.push_back({"released fraction", t, scaled(fraction, 0.01)});
+      spec.y_label = what + " [%]";
+      spec.curves.push_back({what, t, scaled(fraction, 0.01)});
       for (const auto &name : context.results.summary.results.getMemberNames())
-        if (name.rfind("release.", 0) == 0)
+        if (name.rfind(uptake ? "uptake." : "release.", 0) == 0)
           {
             const Json::Value &event = context.results.summary.results[name];
             if (event["level"].isNumeric())
@@ -227,9 +232,10 @@ namespace fickcast::post
                 spec.curves.push_back(line);
               }
           }
-      context.emit(spec, root ? "released_fraction_sqrt" : "released_fraction",
-                   "Fraction of the reference content that has left the body, from series.csv" +
-                     std::string(root ? "; against the square root of time, where early release from a slab is a "
+      context.emit(spec, column + (root ? "_sqrt" : ""),
+                   (uptake ? "Fraction of the equilibrium uptake that has entered the body, from series.csv"
+                           : "Fraction of the reference content that has left the body, from series.csv") +
+                     std::string(root ? "; against the square root of time, where the early part for a slab is a "
                                         "straight line."
                                       : "."));
     }

@@ -43,7 +43,7 @@ namespace fickcast::post
         return "+- " + format_number(e / c.si_per_unit, 2) + " " + c.symbol;
       if (name.rfind("depth.", 0) == 0)
         return "+- " + format_number(e, 2) + " m";
-      if (name == "released_fraction.final")
+      if (name == "released_fraction.final" || name == "uptake_fraction.final")
         return "+- " + format_number(100 * e, 2) + " %";
       const std::string unit = r["unit"].isString() ? r["unit"].asString() : "";
       if (unit == "s")
@@ -70,9 +70,10 @@ namespace fickcast::post
           else if (name.rfind("depth.", 0) == 0)
             rows.push_back({name, r["final"].isNumeric() ? quantity(r["final"].asDouble(), "m") : "none",
                             "depth of the " + in_display(r["level"].asDouble()) + " level at the last output time"});
-          else if (name.rfind("release.", 0) == 0)
+          else if (name.rfind("release.", 0) == 0 || name.rfind("uptake.", 0) == 0)
             rows.push_back({name, r["reached"].asBool() ? quantity(value, "s") : "not reached by the end",
-                            "time the released fraction reaches " + format_number(100 * r["level"].asDouble()) + " %"});
+                            std::string("time the ") + (name[0] == 'u' ? "uptake" : "released") + " fraction reaches " +
+                              format_number(100 * r["level"].asDouble()) + " %"});
           else if (name.rfind("time_lag.", 0) == 0)
             rows.push_back({name, quantity(value, "s"),
                             "through " + r["boundary"].asString() +
@@ -105,6 +106,9 @@ namespace fickcast::post
             }
           else if (name == "released_fraction.final")
             rows.push_back({name, format_number(100 * value, 5) + " %", "of the reference content"});
+          else if (name == "uptake_fraction.final")
+            rows.push_back({name, format_number(100 * value, 5) + " %",
+                            "taken up, of what equilibrium with the open faces would bring"});
           else if (name == "amount.final_total")
             rows.push_back({name, quantity(value, unit), "in the body at the end"});
           else if (name == "moments")

@@ -117,8 +117,8 @@ namespace fickcast::post
 
   bool is_event_result(const std::string &name)
   {
-    return name.rfind("threshold.", 0) == 0 || name.rfind("release.", 0) == 0 || name.rfind("flux_limit.", 0) == 0 ||
-           name.rfind("crossed_limit.", 0) == 0;
+    return name.rfind("threshold.", 0) == 0 || name.rfind("release.", 0) == 0 || name.rfind("uptake.", 0) == 0 ||
+           name.rfind("flux_limit.", 0) == 0 || name.rfind("crossed_limit.", 0) == 0;
   }
 
   std::vector<double> StudyTable::result_values(const std::size_t index) const

@@ -135,22 +135,27 @@ namespace fickcast
                     std::isfinite(depth.depths.back()) ? units.length(depth.depths.back()).c_str()
                                                        : "below the whole domain",
                     estimate("depth." + depth.name, length).c_str(), units.concentration(depth.level).c_str());
+    const std::string event_prefix = r.uptake ? "uptake." : "release.";
     for (const auto &release : r.releases)
-      std::printf("  release.%s: %s%s (%.0f %% released)\n", release.name.c_str(), units.time(release.time).c_str(),
-                  estimate("release." + release.name, time).c_str(), 100 * release.level);
+      std::printf("  %s%s: %s%s (%.0f %% %s)\n", event_prefix.c_str(), release.name.c_str(),
+                  units.time(release.time).c_str(), estimate(event_prefix + release.name, time).c_str(),
+                  100 * release.level, r.uptake ? "taken up" : "released");
     for (std::size_t b = 0; b < r.boundaries.size() && b < r.bath_final.size(); ++b)
       if (std::isfinite(r.bath_final[b]))
         std::printf("  bath.%s.final: %s%s (the bath liquid on %s at the end)\n", r.boundaries[b].c_str(),
                     units.concentration(r.bath_final[b]).c_str(),
                     estimate("bath." + r.boundaries[b] + ".final", concentration).c_str(), r.boundaries[b].c_str());
-    // The released fraction wherever the body releases (not when it takes the species up).
-    if (std::isfinite(r.released_final) && r.released_final >= 0)
-      std::printf("  released at the end: %.4g %%%s\n", 100 * r.released_final,
-                  estimate("released_fraction.final", [](double v) {
-                    char text[32];
-                    std::snprintf(text, sizeof text, "%.2g %%", 100 * v);
-                    return std::string(text);
-                  }).c_str());
+    // The content fraction: released, or taken up (of what equilibrium with the faces would bring).
+    if (std::isfinite(r.released_final) && (r.uptake || r.released_final >= 0))
+      std::printf("  %s at the end: %.4g %%%s%s\n", r.uptake ? "uptake_fraction" : "released", 100 * r.released_final,
+                  estimate(r.uptake ? "uptake_fraction.final" : "released_fraction.final",
+                           [](double v) {
+                             char text[32];
+                             std::snprintf(text, sizeof text, "%.2g %%", 100 * v);
+                             return std::string(text);
+                           })
+                    .c_str(),
+                  r.uptake ? " (taken up, of what equilibrium with the open faces would bring)" : "");
     for (const auto &lag : r.time_lags)
       std::printf("  time_lag.%s: %s%s through %s%s\n", lag.name.c_str(), units.time(lag.time_lag).c_str(),
                   estimate("time_lag." + lag.name, time).c_str(), lag.boundary.c_str(),

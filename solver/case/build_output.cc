@@ -172,7 +172,7 @@ namespace fickcast
             line.samples = static_cast<unsigned int>(samples->si);
           c.output.lines.push_back(line);
         }
-      else if (prefix == "release")
+      else if (prefix == "release" || prefix == "uptake") // which applies: case/content_fraction
         c.output.releases.push_back(LevelSpec{name, value.si});
       else if (prefix == "time_lag")
         {

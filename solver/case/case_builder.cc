@@ -1,5 +1,6 @@
 // build_case: the sections in order (section_builders.h), then [time], [numerics] and the settings record.
 #include "case/case_builder.h"
+#include "case/content_fraction.h"
 
 #include "case/section_builders.h"
 
@@ -176,6 +177,7 @@ namespace fickcast
     build_time(reader, c);
     build_numerics(reader, c);
     build_output(reader, c);
+    decide_content_fraction(reader, c);
     build_sweep_and_size(reader, c);
     record_settings(reader, c);
     return c;

@@ -309,8 +309,17 @@ namespace fickcast
     std::vector<LevelSpec> thresholds;
     std::vector<LevelSpec> depths;
     std::vector<LineSpec> lines;
-    std::vector<LevelSpec> releases; ///< levels of the released fraction (0, 1]
+    std::vector<LevelSpec> releases; ///< levels of the content fraction (0, 1]: release.* or, uptake, uptake.*
     double loading = 0;              ///< reference amount of the released fraction; 0: the initial amount
+    /// The content fraction is an uptake (case/content_fraction.h): (M - M0) / (M_eq - M0), with
+    /// M_eq the content at the reference-phase concentration `equilibrium` everywhere.
+    bool uptake = false;
+    double equilibrium = 0; ///< reference phase, SI (uptake only)
+
+    /// `uptake` or `release`: the prefix of the content fraction's events.
+    std::string fraction_event_prefix() const { return uptake ? "uptake" : "release"; }
+    /// `uptake_fraction` or `released_fraction`: its series column and (with `.final`) result.
+    std::string fraction_name() const { return uptake ? "uptake_fraction" : "released_fraction"; }
     std::vector<std::pair<std::string, std::string>> time_lags; ///< name, boundary
     std::vector<FaceResultSpec> face_results;
     bool moments = false;

@@ -325,6 +325,10 @@ namespace fickcast
       s.push_back(bounded(make("output", "release.*", K::quantity, Dim::dimensionless, "",
                                "the time the released fraction reaches this level, such as 50 %"),
                           0, true, 1, false));
+      s.push_back(bounded(make("output", "uptake.*", K::quantity, Dim::dimensionless, "",
+                               "the time the uptake fraction reaches this level, such as 50 % (a case that takes "
+                               "the species up: every open face holds one constant concentration above the initial)"),
+                          0, true, 1, false));
       s.push_back(positive(make("output", "loading", K::quantity, Dim::amount, "",
                                 "amount the released fraction refers to (default: the initial amount)")));
       s.push_back(make("output", "time_lag.*", K::text, Dim::none, "",

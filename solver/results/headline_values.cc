@@ -22,9 +22,9 @@ namespace fickcast
           values.emplace_back("threshold." + point.name, point.threshold_time);
       }
     if (std::isfinite(r.released_final))
-      values.emplace_back("released_fraction.final", r.released_final);
+      values.emplace_back(std::string(r.uptake ? "uptake_fraction" : "released_fraction") + ".final", r.released_final);
     for (const auto &release : r.releases)
-      values.emplace_back("release." + release.name, release.time);
+      values.emplace_back(std::string(r.uptake ? "uptake." : "release.") + release.name, release.time);
     for (const auto &lag : r.time_lags)
       values.emplace_back("time_lag." + lag.name, lag.time_lag);
     for (std::size_t b = 0; b < r.bath_final.size() && b < r.boundaries.size(); ++b)

@@ -14,7 +14,7 @@ namespace fickcast
 
   template <int dim>
   Observers<dim>::Observers(const FieldView<dim> &field, const CaseDescription &description, const std::string &folder,
-                            const double initial_amount, const bool resume)
+                            const double initial_amount, const double equilibrium_amount, const bool resume)
     : field_(field)
     , c_(description)
     , root_(Utilities::MPI::this_mpi_process(field.communicator) == 0)
@@ -66,7 +66,10 @@ namespace fickcast
       }
 
     initial_amount_ = initial_amount;
-    reference_ = c_.output.loading > 0 ? c_.output.loading : initial_amount;
+    if (c_.output.uptake)
+      reference_ = equilibrium_amount > initial_amount ? equilibrium_amount - initial_amount : 0.0;
+    else
+      reference_ = c_.output.loading > 0 ? c_.output.loading : initial_amount;
     for (const auto &release : c_.output.releases)
       releases_.push_back(ReleaseRecord{release.name, release.level, not_a_number});
 
@@ -171,7 +174,10 @@ namespace fickcast
     if (reference_ <= 0)
       return not_a_number;
     // What has left since the start, as a fraction of the reference (the initial content, or
-    // output.loading: a label claim that may differ from what the body holds at t = 0).
+    // output.loading: a label claim that may differ from what the body holds at t = 0); in an
+    // uptake case, what has come in, as a fraction of what equilibrium would bring.
+    if (c_.output.uptake)
+      return (remaining - initial_amount_) / reference_;
     return (initial_amount_ - remaining) / reference_;
   }
 
@@ -299,6 +305,7 @@ namespace fickcast
     record.depths = depths_;
     record.releases = releases_;
     record.released_reference = reference_;
+    record.uptake = c_.output.uptake;
     record.released_final = last_released_;
     record.moments = moments_;
     for (const auto &line : lines_)

@@ -38,10 +38,11 @@ namespace fickcast
     using Vector = FieldVector;
 
     /// Locates points and line points (InputError if outside the mesh); opens profiles.csv in
-    /// @p folder on rank 0 when there are lines. @p initial_amount is the content at t = 0.
+    /// @p folder on rank 0 when there are lines. @p initial_amount is the content at t = 0;
+    /// @p equilibrium_amount the content at the equilibrium of an uptake case (else unused).
     /// With @p resume, profiles.csv is left as it is until restore().
     Observers(const FieldView<dim> &field, const CaseDescription &description, const std::string &folder,
-              double initial_amount, bool resume = false);
+              double initial_amount, double equilibrium_amount, bool resume = false);
     /// Everything seen so far; flushes profiles.csv (rank 0).
     ObserverState saved_state();
     /// Continues from @p state (what saved_state() gave on the same rank): profiles.csv is cut
@@ -56,7 +57,8 @@ namespace fickcast
     {
       return named_points_ ? named_points_->concentrations(ghosted) : std::vector<double>{};
     }
-    /// Released fraction for a remaining content @p remaining (NaN without a reference amount).
+    /// The content fraction for a content @p remaining: released (M0 - M) / reference, or, in an
+    /// uptake case, taken up (M - M0) / (M_eq - M0); NaN without a reference amount.
     double released_fraction(double remaining) const;
     bool has_release() const { return reference_ > 0; }
 

@@ -143,8 +143,9 @@ namespace fickcast
     std::vector<NamedPointRecord> points;
     std::vector<DepthRecord> depths;
     std::vector<ReleaseRecord> releases;
-    double released_reference = 0;        ///< amount the released fraction refers to
-    double released_final = not_a_number; ///< released fraction at the end
+    double released_reference = 0;        ///< amount the content fraction refers to (uptake: M_eq - M0)
+    double released_final = not_a_number; ///< content fraction at the end: released, or taken up if `uptake`
+    bool uptake = false;                  ///< the content fraction is an uptake (case/content_fraction.h)
     std::vector<TimeLagRecord> time_lags;
     std::vector<FaceResultRecord> face_results;
     std::vector<MomentsRecord> moments;

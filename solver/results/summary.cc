@@ -203,14 +203,14 @@ namespace fickcast
         Json::Value released = quantity(r.released_final, "1");
         released["reference_amount"] = r.released_reference;
         released["reference_unit"] = c.units.amount;
-        results["released_fraction.final"] = released;
+        results[c.output.fraction_name() + ".final"] = released;
       }
     for (const auto &release : r.releases)
       {
         Json::Value event = quantity(release.time, "s");
         event["level"] = release.level;
         event["reached"] = std::isfinite(release.time);
-        results["release." + release.name] = event;
+        results[c.output.fraction_event_prefix() + "." + release.name] = event;
       }
     for (const auto &lag : r.time_lags)
       {

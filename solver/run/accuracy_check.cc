@@ -82,7 +82,7 @@ namespace fickcast
     /// The smallest error worth asking of a result whose value is round-off around zero.
     double absolute_floor(const std::string &name)
     {
-      return name == "released_fraction.final" ? 1e-9 : 0.0;
+      return name == "released_fraction.final" || name == "uptake_fraction.final" ? 1e-9 : 0.0;
     }
 
     using Values = std::vector<std::pair<std::string, double>>;

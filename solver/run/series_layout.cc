@@ -51,7 +51,7 @@ namespace fickcast
     if (layout.has_decay)
       columns.push_back({"decayed.total", amount_unit});
     columns.push_back({"balance_error", amount_unit});
-    columns.push_back({"released_fraction", ""});
+    columns.push_back({c.output.fraction_name(), ""});
     for (const auto &named_point : c.output.points)
       columns.push_back({"point." + named_point.name, c.units.concentration});
     columns.push_back({"linear_iterations", ""});

@@ -50,6 +50,21 @@ namespace fickcast
       double time;
       Vector state;
     };
+
+    /// The content with the reference-phase concentration at the case's equilibrium everywhere
+    /// (an uptake case's M_eq; NaN for other cases).
+    template <int dim>
+    double equilibrium_amount(const DiffusionProblem<dim> &problem, const CaseDescription &c)
+    {
+      if (!c.output.uptake)
+        return std::nan("");
+      auto full = problem.make_vector();
+      full = c.output.equilibrium;
+      double total = 0;
+      for (const double a : problem.region_amounts(full))
+        total += a;
+      return total;
+    }
   } // namespace
 
   void request_stop()
@@ -155,7 +170,7 @@ namespace fickcast
     for (const double a : record.initial_region_amounts)
       reference_amount += std::abs(a);
 
-    Observers<dim> observers(field, c, folder, reference_amount, resumed.has_value());
+    Observers<dim> observers(field, c, folder, reference_amount, equilibrium_amount(problem, c), resumed.has_value());
     auto remaining = [&problem](const Vector &state) {
       double total = problem.undissolved_amount();
       for (const double a : problem.region_amounts(state))

@@ -30,9 +30,9 @@ namespace fickcast
       names.push_back({"point." + named_point.name + ".final", c.units.concentration});
     for (const auto &threshold : c.output.thresholds)
       names.push_back({"threshold." + threshold.name, "s"});
-    names.push_back({"released_fraction.final", "1"});
+    names.push_back({c.output.fraction_name() + ".final", "1"});
     for (const auto &release : c.output.releases)
-      names.push_back({"release." + release.name, "s"});
+      names.push_back({c.output.fraction_event_prefix() + "." + release.name, "s"});
     for (const auto &[name, boundary] : c.output.time_lags)
       names.push_back({"time_lag." + name, "s"});
     for (const auto &face : bath_faces(c))
@@ -61,9 +61,9 @@ namespace fickcast
                         [&](const LevelSpec &threshold) { return threshold.name == named_point.name; }))
           names.push_back("threshold." + named_point.name);
       }
-    names.push_back("released_fraction.final");
+    names.push_back(c.output.fraction_name() + ".final");
     for (const auto &release : c.output.releases)
-      names.push_back("release." + release.name);
+      names.push_back(c.output.fraction_event_prefix() + "." + release.name);
     for (const auto &[name, boundary] : c.output.time_lags)
       names.push_back("time_lag." + name);
     for (const auto &face : bath_faces(c))
@@ -117,7 +117,7 @@ namespace fickcast
   }
   bool is_event_result(const std::string &name)
   {
-    return name.rfind("threshold.", 0) == 0 || name.rfind("release.", 0) == 0 || name.rfind("flux_limit.", 0) == 0 ||
-           name.rfind("crossed_limit.", 0) == 0;
+    return name.rfind("threshold.", 0) == 0 || name.rfind("release.", 0) == 0 || name.rfind("uptake.", 0) == 0 ||
+           name.rfind("flux_limit.", 0) == 0 || name.rfind("crossed_limit.", 0) == 0;
   }
 } // namespace fickcast

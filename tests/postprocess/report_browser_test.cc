@@ -211,9 +211,11 @@ samples.depth = 51
       EXPECT_TRUE(std::filesystem::is_regular_file(image)) << image;
     const auto plots = png_images(outcome);
     const std::size_t pngs = plots.size();
-    // Profile along the line, point history, amounts (no released fraction: the body starts empty).
-    EXPECT_EQ(pngs, 3u);
-    for (const char *stem : {"profile_depth.png", "points.png", "amounts.png"})
+    // Profile along the line, point history, amounts, and the uptake fraction (the body starts
+    // empty under a held face: an uptake, no released fraction).
+    EXPECT_EQ(pngs, 4u);
+    EXPECT_FALSE(std::filesystem::exists(folder + "/report/released_fraction.png"));
+    for (const char *stem : {"profile_depth.png", "points.png", "amounts.png", "uptake_fraction.png"})
       EXPECT_TRUE(std::filesystem::is_regular_file(folder + "/report/" + stem)) << stem;
     // Each plot image shows curves in the plot palette.
     for (const auto &png : plots)
@@ -262,7 +264,7 @@ samples.depth = 51
     const std::string scratch = std::filesystem::path(folder).parent_path().string();
     const ReportOutcome outcome = make_report(folder, {});
     const auto plots = png_images(outcome);
-    ASSERT_EQ(plots.size(), 3u);
+    ASSERT_EQ(plots.size(), 4u);
 
     // Blank each plot: white, same size, written with VTK's PNG writer over the report's file.
     for (const auto &png : plots)
@@ -309,7 +311,7 @@ samples.depth = 51
     const std::string shot_file = scratch + "/blank_plots.png";
     const std::string dom =
       chromium(std::string(screenshot_size) + " --dump-dom --screenshot=" + shot_file, outcome.html, scratch, log);
-    EXPECT_EQ(images_ok(dom), "3/3"); // the blank images load: only their content is wrong
+    EXPECT_EQ(images_ok(dom), "4/4"); // the blank images load: only their content is wrong
     EXPECT_TRUE(console_lines(log).empty()) << console_lines(log).front();
     ASSERT_TRUE(std::filesystem::is_regular_file(shot_file));
     const Look shot = look_at(shot_file);

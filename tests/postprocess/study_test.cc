@@ -144,11 +144,11 @@ seed = 3
     options.folder = file.substr(0, file.rfind('/')) + "/study";
     options.overwrite = true;
     const StudyTotals totals = run_study(base, plan_study(base), options, MPI_COMM_SELF, {});
-    ASSERT_EQ(totals.table.statistics.size(), 3u); // amount, point final value, threshold
+    ASSERT_EQ(totals.table.statistics.size(), 4u); // amount, point final value, threshold, uptake fraction
 
     const StudyTable study = read_study(options.folder);
     ASSERT_EQ(study.parameters.size(), 2u); // the message column is not a result
-    ASSERT_EQ(study.results.size(), 3u);
+    ASSERT_EQ(study.results.size(), 4u);
     EXPECT_EQ(study.parameter_unit(study.parameters[1]), "cm");
     for (const double v : study.parameter_values(study.parameters[1]))
       EXPECT_TRUE(v >= 70 && v <= 110) << v;
@@ -170,7 +170,7 @@ seed = 3
     EXPECT_TRUE(some_not_reached) << "the fixture should leave some samples short of the threshold";
 
     const ReportOutcome outcome = make_study_report(options.folder, {});
-    EXPECT_GE(outcome.images.size(), 2 * (3u + 3u + 3u * 2u)); // distribution, exceedance, 2 scatters
+    EXPECT_GE(outcome.images.size(), 2 * (4u + 4u + 4u * 2u)); // distribution, exceedance, 2 scatters
     const std::string html = read_file(outcome.html, "the report");
     EXPECT_NE(html.find("not reached"), std::string::npos);
   }

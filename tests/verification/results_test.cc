@@ -67,6 +67,55 @@ namespace fickcast::testing
     EXPECT_NEAR(record.releases[1].time / 0.848085408046, 1.0, 3e-4); // measured 6.1e-5
   }
 
+  // Uptake by the same sheet from a constant surface concentration (Crank 1975 eq. 4.18, p. 48:
+  // Mt/Minf = 1 - sum 8/((2n+1)^2 pi^2) exp(-(2n+1)^2 pi^2 D t / (4 L^2)), the same series as the
+  // release above), here from a non-zero start c0 = 2 to c1 = 10 mol/m3 in a porous sheet with
+  // porosity 0.4 and retardation 3, so that the fraction must be (M - M0) / (M_eq - M0) with the
+  // capacity theta R (Freeze and Cherry 1979, Groundwater, eq. 9.8: R = 1 + rho_b Kd / theta):
+  // D / R = 1 m2/s. The case is an uptake (case/content_fraction.h): the series column and results
+  // say "uptake", and the half-time is D t / l^2 = 0.0491826848809 with l = 2 L, as for release.
+  TEST(Results, SheetUptakeFractionAndHalfTime)
+  {
+    const std::vector<double> times{0.005, 0.02, 0.1, 0.3, 0.8};
+    std::string list;
+    for (const double t : times)
+      list += (list.empty() ? "" : ", ") + std::to_string(t) + " s";
+    const std::string text =
+      "[case]\ntitle = uptake\n[geometry]\nlayers = sheet 1 m\ncell_size = 0.01 m\n[region.sheet]\n"
+      "diffusivity = 3 m2/s\nporosity = 0.4\nretardation = 3\n[initial]\nvalue = 2 mol/m3\n"
+      "[boundary.top]\ntype = concentration\nvalue = 10 mol/m3\n[time]\nend = 1 s\ntolerance = 1e-6\n"
+      "[output]\nfields = false\ntimes = " +
+      list + "\nuptake.half = 50 %\n";
+    const CaseDescription description = describe(text, "sheet_uptake");
+    ASSERT_TRUE(description.output.uptake);
+    EXPECT_DOUBLE_EQ(description.output.equilibrium, 10.0);
+    const RunRecord record = run(description);
+    ASSERT_EQ(record.status, "completed");
+    EXPECT_TRUE(record.uptake);
+    // M_eq - M0 = theta R (c1 - c0) L = 0.4 x 3 x 8 x 1 mol/m2.
+    EXPECT_NEAR(record.released_reference, 9.6, 1e-9);
+    const CsvTable series = read_csv(description.output.folder + "/series.csv");
+    EXPECT_EQ(series.columns.count("released_fraction"), 0u);
+    const auto crank = [](const double t) {
+      double sum = 0;
+      for (int n = 0; n < 4000; ++n)
+        sum +=
+          8 / ((2 * n + 1.0) * (2 * n + 1.0) * pi * pi) * std::exp(-(2 * n + 1.0) * (2 * n + 1.0) * pi * pi * t / 4);
+      return 1 - sum;
+    };
+    for (const double t : times)
+      {
+        const double computed = row_value(series, "uptake_fraction", t);
+        std::printf("sheet uptake, D t / R L^2 = %g: taken up %.6f, Crank %.6f\n", t, computed, crank(t));
+        EXPECT_NEAR(computed, crank(t), 6e-5);
+      }
+    ASSERT_EQ(record.releases.size(), 1u);
+    const double half = record.releases[0].time / 4;
+    std::printf("sheet uptake half-time: D t / R l^2 = %.8f (exact 0.0491826848809)\n", half);
+    EXPECT_NEAR(half / 0.0491826848809, 1.0, 2e-5);
+    EXPECT_NEAR(record.released_final, crank(1.0), 6e-5);
+  }
+
   // Breakthrough through a slab of thickness L on an impermeable base, surface held at c0: the
   // base concentration is that of the centre of a sheet of thickness 2 L taking up solute,
   // c(L, t)/c0 = 1 - (4/pi) sum (-1)^n/(2n+1) exp(-(2n+1)^2 pi^2 D t / (4 L^2)) (Crank 1975 eq. 4.17,
