@@ -4,6 +4,7 @@
 
 #include "case/input_error.h"
 #include "geometry/mesh_import.h"
+#include "geometry/point_placement.h"
 #include "model/value_text.h"
 
 #include <deal.II/base/quadrature_lib.h>
@@ -98,6 +99,7 @@ namespace fickcast
           unit_index_.push_back(-1);
       }
     refine_near_open_faces();
+    check_point_placement(triangulation(), description_, names_.regions, communicator_);
   }
 
   template <int dim>
