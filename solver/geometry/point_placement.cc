@@ -75,12 +75,22 @@ namespace fickcast
         std::string list;
         for (const auto &r : touching)
           list += (list.empty() ? "" : " and ") + r;
+        // Where the touching regions share a partition coefficient the field is continuous and
+        // both sides read the same; where they do not, the side must be said.
+        bool jumps = false;
+        for (const auto &r : touching)
+          {
+            const RegionSpec *a = c.find_region(r), *b = c.find_region(touching.front());
+            jumps = jumps || (a != nullptr && b != nullptr && a->partition != b->partition);
+          }
         if (named.region.empty())
           {
-            if (touching.size() > 1)
+            if (jumps)
               throw InputError(where, key,
                                "expected '... in REGION' for a point on the interface of " + list + " at " +
-                                 coordinates(p) + ", found no region (which side it reads matters): add in " +
+                                 coordinates(p) +
+                                 ", found no region (the concentration jumps there: the regions differ in partition "
+                                 "coefficient): add in " +
                                  touching.front() + " or in " + touching.back());
           }
         else if (std::find(touching.begin(), touching.end(), named.region) == touching.end())

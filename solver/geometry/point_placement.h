@@ -15,8 +15,9 @@ namespace fickcast
   /**
    * Checks every named point (output.point.*) of @p c against the mesh @p triangulation, whose
    * material id m is the region @p regions[m]: the point must lie in a cell (not in a hole of a
-   * mesh, not beyond its boundary), and a point on an interface between two regions must say with
-   * `in REGION` which side it reads (a region that touches it). Throws InputError at the point's
+   * mesh, not beyond its boundary), and a point on an interface between regions of different
+   * partition coefficients (where the concentration jumps) must say with `in REGION` which side
+   * it reads (a region that touches it). Throws InputError at the point's
    * line with its coordinates in full. Collective over @p communicator (each rank sees its own
    * cells and ghosts).
    */

@@ -46,7 +46,7 @@ depth.front = 100 mg/L
     const CaseDescription c = read_case_text(case_text, "case.ini");
     EXPECT_EQ(result_order(c),
               (std::vector<std::string>{"amount.final_total", "point.surface.final", "point.base.final",
-                                        "threshold.base", "released_fraction.final", "depth.front"}));
+                                        "threshold.base", "uptake_fraction.final", "depth.front"}));
   }
 
   TEST(CaseSummary, ResultsComeInTheGivenOrderNotTheFileOrder)
