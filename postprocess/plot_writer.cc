@@ -122,7 +122,9 @@ namespace fickcast::post
             }
       if (spec.log_y && yr.valid())
         yr.min = std::max(yr.min, std::floor(yr.max) - 6.0); // six decades below the largest value
-      xr.pad(0.02);
+      xr.pad(std::any_of(spec.curves.begin(), spec.curves.end(), [](const PlotCurve &c) { return c.markers_only; })
+               ? 0.05
+               : 0.02);
       yr.pad(0.05);
       // One power of ten per axis, written into the label; the drawn numbers stay short.
       const int x_exponent = axis_exponent(xr.min, xr.max);
@@ -197,6 +199,18 @@ namespace fickcast::post
           const PLINT style = curve.reference ? 2 : 1 + (index % 8);
           const char *marker = markers[static_cast<std::size_t>(index) % markers.size()];
           plcol0(colour);
+          if (curve.filled)
+            {
+              std::vector<PLFLT> fx, fy;
+              for (std::size_t i = 0; i < x.size(); ++i)
+                if (std::isfinite(x[i]) && std::isfinite(y[i]))
+                  {
+                    fx.push_back(x[i]);
+                    fy.push_back(y[i]);
+                  }
+              if (fx.size() >= 3)
+                plfill(static_cast<PLINT>(fx.size()), fx.data(), fy.data());
+            }
           if (!curve.markers_only)
             {
               pllsty(style);
@@ -205,7 +219,9 @@ namespace fickcast::post
               pllsty(1);
             }
           PLINT opt = curve.markers_only ? 0 : PL_LEGEND_LINE;
-          if (!curve.reference)
+          if (curve.filled)
+            ++index; // its own colour, no marker
+          else if (!curve.reference)
             {
               // Markers at about nine evenly spaced abscissae (not every point), staggered per curve.
               std::vector<PLFLT> mx, my;
@@ -253,8 +269,8 @@ namespace fickcast::post
           line_widths.push_back(curve.reference ? 1.2 : 2.4);
           symbol_colours.push_back(colour);
           symbol_scales.push_back(1.0);
-          symbol_numbers.push_back(curve.reference ? 0 : 1);
-          symbols.push_back(curve.reference ? "" : marker);
+          symbol_numbers.push_back(curve.reference || curve.filled ? 0 : 1);
+          symbols.push_back(curve.reference || curve.filled ? "" : marker);
         }
       PLFLT legend_width = 0, legend_height = 0;
       const PLINT n = static_cast<PLINT>(texts.size());

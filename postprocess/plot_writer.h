@@ -14,6 +14,7 @@ namespace fickcast::post
     std::vector<double> y;
     bool markers_only = false; ///< scattered points (a study's cases), no line
     bool reference = false;    ///< a thin grey reference line (threshold, percentile), no marker
+    bool filled = false;       ///< a closed outline filled in its colour (a bar), no marker
   };
 
   /// A complete plot: axis labels carry the quantity and its unit.

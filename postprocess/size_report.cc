@@ -66,8 +66,9 @@ namespace fickcast::post
     PlotSpec spec{result + " against " + key,
                   key + (unit.empty() ? "" : " [" + unit + "]"),
                   result + (shown_unit.empty() ? "" : " [" + shown_unit + "]"),
-                  {runs, goal}};
-    spec.subject = summary["title"].asString();
+                  {runs, goal},
+                  false,
+                  summary["title"].asString()};
     const bool plotted = write_plot(spec, folder + "/size_runs", formats);
 
     std::string body = "<h1>Sizing search: " + html_escape(key) + "</h1>\n<p class=\"meta\">Read from <code>" +

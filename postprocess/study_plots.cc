@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <map>
 #include <numeric>
 #include <set>
 
@@ -18,6 +19,7 @@ namespace fickcast::post
       std::vector<double> values;
       std::string label;
       std::string unit;
+      double seconds = 0; ///< seconds per display unit, for a time; 0 otherwise
     };
 
     Shown shown(const StudyTable &study, const std::size_t column)
@@ -33,9 +35,30 @@ namespace fickcast::post
           for (double &v : s.values)
             v /= unit.seconds;
           s.unit = unit.symbol;
+          s.seconds = unit.seconds;
         }
       s.label = s.label + (s.unit.empty() ? "" : " [" + s.unit + "]");
       return s;
+    }
+
+    /// Ranks of @p v (1-based, ties averaged; NaN entries must be removed before).
+    std::vector<double> ranks(const std::vector<double> &v)
+    {
+      std::vector<std::size_t> order(v.size());
+      std::iota(order.begin(), order.end(), 0);
+      std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return v[a] < v[b]; });
+      std::vector<double> r(v.size());
+      for (std::size_t i = 0; i < order.size();)
+        {
+          std::size_t j = i;
+          while (j + 1 < order.size() && v[order[j + 1]] == v[order[i]])
+            ++j;
+          const double mean_rank = 0.5 * static_cast<double>(i + j) + 1;
+          for (std::size_t k = i; k <= j; ++k)
+            r[order[k]] = mean_rank;
+          i = j + 1;
+        }
+      return r;
     }
 
     std::string safe(const std::string &name)
@@ -47,9 +70,32 @@ namespace fickcast::post
     }
   } // namespace
 
+  double rank_correlation(const std::vector<double> &x, const std::vector<double> &y)
+  {
+    std::vector<double> a, b;
+    for (std::size_t i = 0; i < x.size() && i < y.size(); ++i)
+      if (!std::isnan(x[i]) && !std::isnan(y[i]))
+        {
+          a.push_back(x[i]);
+          b.push_back(y[i]);
+        }
+    if (a.size() < 3)
+      return std::nan("");
+    const auto ra = ranks(a), rb = ranks(b);
+    const double n = static_cast<double>(a.size()), mean = (n + 1) / 2;
+    double sab = 0, saa = 0, sbb = 0;
+    for (std::size_t i = 0; i < ra.size(); ++i)
+      {
+        sab += (ra[i] - mean) * (rb[i] - mean);
+        saa += (ra[i] - mean) * (ra[i] - mean);
+        sbb += (rb[i] - mean) * (rb[i] - mean);
+      }
+    return saa > 0 && sbb > 0 ? sab / std::sqrt(saa * sbb) : std::nan("");
+  }
+
   std::vector<PlotFile> make_study_plots(const StudyTable &study, const std::string &folder, const bool uncertainty,
                                          const PlotFormats &formats, const std::size_t max_plots,
-                                         const std::string &subject)
+                                         const std::string &subject, const std::vector<StudyLimitMark> &limits)
   {
     make_folder(folder);
     std::vector<PlotFile> written;
@@ -107,7 +153,7 @@ namespace fickcast::post
                 histogram.y.insert(histogram.y.end(), {0, counts[b], counts[b], 0});
               }
             PlotSpec distribution{
-              "Distribution of " + study.table.names()[r], result.label, "number of cases", {histogram}};
+              "Distribution of " + study.table.names()[r], result.label, "number of cases", {histogram}, false, {}};
             emit(distribution, "distribution_" + safe(study.table.names()[r]),
                  "Histogram of " + study.table.names()[r] + " over the " + std::to_string(finite.size()) +
                    " completed cases where it has a value (" + std::to_string(bins) + " equal bins)" + beyond + ".");
@@ -119,7 +165,9 @@ namespace fickcast::post
             PlotSpec exceedance{"Exceedance of " + study.table.names()[r],
                                 result.label,
                                 "probability of exceeding [%]",
-                                {{"cases (Weibull plotting position)", levels, probability}}};
+                                {{"cases (Weibull plotting position)", levels, probability}},
+                                false,
+                                {}};
             for (const auto &[name, p] : {std::pair<const char *, double>{"P5", 0.05}, {"P50", 0.5}, {"P95", 0.95}})
               {
                 const double q = sample_quantile(all, p);
@@ -132,6 +180,14 @@ namespace fickcast::post
                 line.reference = true;
                 exceedance.curves.push_back(line);
               }
+            std::string limit_text;
+            for (const auto &limit : limits)
+              if (limit.result == study.table.names()[r])
+                {
+                  const double x = result.seconds > 0 ? limit.level / result.seconds : limit.level;
+                  exceedance.curves.push_back({"limit: " + limit.label, {x, x}, {0, 100}});
+                  limit_text += (limit_text.empty() ? " The solid line marks the limit: " : "; ") + limit.label;
+                }
             emit(exceedance, "exceedance_" + safe(study.table.names()[r]),
                  "Probability that " + study.table.names()[r] +
                    " exceeds a level: 1 - i/(n+1) at the i-th smallest of n cases; grey lines mark P5, P50 and P95 "
@@ -140,29 +196,112 @@ namespace fickcast::post
                    (not_reached
                       ? ": they exceed every level shown, and percentiles beyond the simulated time have no line"
                       : "") +
-                   ".");
+                   "." + limit_text + (limit_text.empty() ? "" : "."));
+
+            // Which inputs drive the result: rank correlations, as horizontal bars.
+            PlotSpec drivers{"What drives " + study.table.names()[r],
+                             "rank correlation with " + study.table.names()[r],
+                             "input (see the legend)",
+                             {},
+                             false,
+                             {}};
+            // Largest |correlation| on top, as in a tornado chart.
+            std::vector<std::pair<double, std::size_t>> bars;
+            for (const std::size_t p : study.parameters)
+              {
+                const double rho = rank_correlation(study.parameter_values(p), study.result_values(r));
+                if (std::isfinite(rho))
+                  bars.emplace_back(rho, p);
+              }
+            std::sort(bars.begin(), bars.end(),
+                      [](const auto &a, const auto &b) { return std::abs(a.first) < std::abs(b.first); });
+            double row = 1;
+            for (const auto &[rho, p] : bars)
+              {
+                PlotCurve bar{study.table.names()[p] + ": " + format_number(rho, 2),
+                              {0, 0, rho, rho, 0},
+                              {row - 0.3, row + 0.3, row + 0.3, row - 0.3, row - 0.3}};
+                bar.filled = true;
+                drivers.curves.push_back(bar);
+                row += 1;
+              }
+            if (!drivers.curves.empty())
+              {
+                drivers.curves.push_back({"no correlation", {0, 0}, {0.3, row - 0.7}});
+                drivers.curves.back().reference = true;
+                emit(drivers, "drivers_" + safe(study.table.names()[r]),
+                     "Spearman rank correlation of each sampled input with " + study.table.names()[r] +
+                       " over the completed cases (events not reached rank last): a bar towards +1 means larger "
+                       "values of the input go with larger values of the result, towards -1 with smaller; bars "
+                       "near 0 mark inputs that hardly matter here. Correlations, not causes: with few samples "
+                       "(under about 30) bars below 0.3 are within chance.");
+              }
           }
+        // Where an event was not reached, its marks go above the highest reached value.
+        double low = INFINITY, high = -INFINITY;
+        for (const double v : result.values)
+          if (std::isfinite(v))
+            {
+              low = std::min(low, v);
+              high = std::max(high, v);
+            }
+        const double above = std::isfinite(high) ? high + 0.1 * std::max(high - low, std::abs(high) * 0.1) : 0;
         for (const std::size_t p : varied)
           {
             const auto x = study.parameter_values(p);
-            std::vector<std::size_t> order(x.size());
-            std::iota(order.begin(), order.end(), 0);
-            std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return x[a] < x[b]; });
-            PlotCurve curve{"cases", {}, {}};
-            for (const std::size_t i : order)
-              {
-                curve.x.push_back(x[i]);
-                curve.y.push_back(result.values[i]);
-              }
-            curve.markers_only = uncertainty || varied.size() > 1;
             const std::string &pname = study.table.names()[p];
             const std::string punit = study.table.units()[p].empty() ? study.parameter_unit(p) : study.table.units()[p];
             PlotSpec spec{study.table.names()[r] + " against " + pname,
                           pname + (punit.empty() ? "" : " [" + punit + "]"),
                           result.label,
-                          {curve}};
+                          {},
+                          false,
+                          {}};
+            // A grid: one line per combination of the other varied parameters' values.
+            std::map<std::string, std::vector<std::size_t>> series;
+            for (std::size_t i = 0; i < x.size(); ++i)
+              {
+                std::string key;
+                if (!uncertainty)
+                  for (const std::size_t q : varied)
+                    if (q != p)
+                      {
+                        const std::string unit =
+                          study.table.units()[q].empty() ? study.parameter_unit(q) : study.table.units()[q];
+                        key += (key.empty() ? "" : ", ") + study.table.names()[q] + " = " +
+                               format_number(study.parameter_values(q)[i]) + (unit.empty() ? "" : " " + unit);
+                      }
+                series[key].push_back(i);
+              }
+            PlotCurve missing{"not reached by the end (drawn above the others)", {}, {}};
+            missing.markers_only = true;
+            for (auto &[key, cases] : series)
+              {
+                std::sort(cases.begin(), cases.end(), [&](std::size_t a, std::size_t b) { return x[a] < x[b]; });
+                PlotCurve curve{key.empty() ? "cases" : key, {}, {}};
+                for (const std::size_t i : cases)
+                  {
+                    if (std::isinf(result.values[i]))
+                      {
+                        missing.x.push_back(x[i]);
+                        missing.y.push_back(above);
+                      }
+                    curve.x.push_back(x[i]);
+                    curve.y.push_back(std::isfinite(result.values[i]) ? result.values[i] : std::nan(""));
+                  }
+                curve.markers_only = uncertainty;
+                spec.curves.push_back(curve);
+              }
+            if (!missing.x.empty())
+              spec.curves.push_back(missing);
             emit(spec, "result_" + safe(study.table.names()[r]) + "_vs_" + safe(pname),
-                 study.table.names()[r] + " of each completed case against " + pname + ", from sweep.csv.");
+                 study.table.names()[r] + " of each completed case against " + pname +
+                   (series.size() > 1 ? ", one line per value of the other varied parameters" : std::string()) +
+                   ", from sweep.csv" +
+                   (missing.x.empty() ? std::string(".")
+                                      : "; " + std::to_string(missing.x.size()) +
+                                          " cases did not reach it within the simulated time and are drawn as "
+                                          "separate marks above the highest value reached."));
           }
       }
     return written;

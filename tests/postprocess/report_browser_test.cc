@@ -10,6 +10,10 @@
 #include "output_file.h"
 #include "report.h"
 
+#include "case/case_reader.h"
+#include "studies/study_plan.h"
+#include "studies/study_runner.h"
+
 #include <vtkImageData.h>
 #include <vtkPNGReader.h>
 #include <vtkPNGWriter.h>
@@ -336,5 +340,125 @@ samples.depth = 51
     const std::string dom = chromium("--dump-dom", page, scratch, log);
     EXPECT_EQ(images_ok(dom), "0/1");
     EXPECT_FALSE(console_lines(log).empty());
+  }
+
+  namespace
+  {
+    /// A small liner for the study reports (invented numbers): clay over sand, a held top face.
+    const char *study_case = R"(
+[case]
+title = Study report check: clay liner (invented numbers)
+[geometry]
+layers = clay 0.8 m, sand 0.4 m
+cell_size = 0.02 m
+[region.clay]
+diffusivity = 1.9e-9 m2/s
+porosity = 0.38
+tortuosity = 0.33
+[region.sand]
+diffusivity = 1.9e-9 m2/s
+[boundary.top]
+type = concentration
+value = 1500 mg/L
+[time]
+end = 25 yr
+tolerance = 1e-3
+[output]
+fields = false
+point.base = end of clay
+threshold.base = 250 mg/L
+)";
+
+    /// Runs the study @p sweep_section of study_case into @p name/study, makes its report, and
+    /// checks it in Chromium: every image loads, no console line, the screenshot is drawn with
+    /// curves. Returns the page as Chromium saw it.
+    std::string study_report_in_browser(const std::string &sweep_section, const std::string &name, std::size_t &images)
+    {
+      const std::string file = testing::write_case(std::string(study_case) + sweep_section, name);
+      const CaseDescription base = read_case(file);
+      StudyOptions options;
+      options.case_file = file;
+      options.folder = file.substr(0, file.rfind('/')) + "/study";
+      options.overwrite = true;
+      run_study(base, plan_study(base), options, MPI_COMM_SELF, {});
+      const ReportOutcome outcome = make_study_report(options.folder, {});
+      const auto plots = png_images(outcome);
+      images = plots.size();
+      // Each plot shows curves or marks in the palette; a scatter of a dozen cases has fewer such
+      // pixels than a curve (about 600 measured), hence a lower bar than plot_drawn's.
+      for (const auto &png : plots)
+        {
+          const long pixels = look_at(png).curve_pixels;
+          EXPECT_GT(pixels, 200) << png;
+          std::printf("plot %s: %ld curve pixels\n", std::filesystem::path(png).filename().c_str(), pixels);
+        }
+      const std::string scratch = options.folder;
+      std::string log;
+      const std::string dom = chromium("--dump-dom", outcome.html, scratch, log);
+      EXPECT_EQ(images_ok(dom), std::to_string(images) + "/" + std::to_string(images));
+      EXPECT_TRUE(console_lines(log).empty()) << console_lines(log).front();
+      const std::string shot_file = scratch + "/report.png";
+      chromium(std::string(screenshot_size) + " --screenshot=" + shot_file, outcome.html, scratch, log);
+      const Look shot = look_at(shot_file);
+      std::printf("%s: screenshot %dx%d, %zu colours, %.1f %% non-white, %ld curve pixels, images %s\n", name.c_str(),
+                  shot.width, shot.height, shot.colours, 100 * shot.non_white, shot.curve_pixels,
+                  images_ok(dom).c_str());
+      EXPECT_TRUE(page_drawn(shot));
+      EXPECT_TRUE(plots_on_page_drawn(shot));
+      return dom;
+    }
+
+    /// The cells of the table row whose first cell is @p first (tags stripped), empty if none.
+    std::vector<std::string> table_row(const std::string &dom, const std::string &first)
+    {
+      const std::regex row("<tr>(.*?)</tr>");
+      const std::regex cell("<t[dh][^>]*>(.*?)</t[dh]>");
+      for (auto r = std::sregex_iterator(dom.begin(), dom.end(), row); r != std::sregex_iterator(); ++r)
+        {
+          const std::string text = (*r)[1].str();
+          std::vector<std::string> cells;
+          for (auto c = std::sregex_iterator(text.begin(), text.end(), cell); c != std::sregex_iterator(); ++c)
+            cells.push_back((*c)[1].str());
+          if (!cells.empty() && cells.front() == first)
+            return cells;
+        }
+      return {};
+    }
+  } // namespace
+
+  // A what-if grid (2 x 3 cases) is reported as one: no mean or percentiles, each result against
+  // each parameter with one line per value of the other, the case title as heading.
+  TEST(ReportBrowser, WhatIfGridReport)
+  {
+    std::size_t images = 0;
+    const std::string dom = study_report_in_browser(
+      "[sweep]\nvary.region.clay.tortuosity = 0.2, 0.4, 0.8\nvary.layer.clay.thickness = 0.5 m, 0.8 m\n",
+      "post_report_grid", images);
+    EXPECT_NE(dom.find("<h1>Study report check: clay liner (invented numbers)</h1>"), std::string::npos);
+    EXPECT_NE(dom.find("What-if study: 6 cases"), std::string::npos);
+    EXPECT_EQ(dom.find("Uncertainty study"), std::string::npos);
+    EXPECT_EQ(dom.find("<th>P95</th>"), std::string::npos) << "a grid has no percentiles";
+    EXPECT_EQ(table_row(dom, "threshold.base").size(), 5u) << "result, unit, cases, smallest, largest";
+    EXPECT_NE(dom.find("one line per value of the other varied parameters"), std::string::npos);
+    EXPECT_EQ(images, 8u); // 4 results x 2 parameters (amount, point, threshold, uptake fraction)
+  }
+
+  // An uncertainty study's limit probability stands in the results table, in the case's units, on
+  // the threshold's row; a rank-correlation chart per result says which inputs drive it.
+  TEST(ReportBrowser, UncertaintyReportShowsTheLimitProbability)
+  {
+    std::size_t images = 0;
+    const std::string dom = study_report_in_browser(
+      "[sweep]\nsample.region.clay.tortuosity = lognormal(0.33, 0.3)\nsample.layer.clay.thickness = "
+      "uniform(0.6 m, 1 m)\nsamples = 12\nseed = 5\nbelow.threshold.base = 10 yr\n",
+      "post_report_uncertainty", images);
+    EXPECT_NE(dom.find("Uncertainty study: 12 samples"), std::string::npos);
+    const auto row = table_row(dom, "threshold.base");
+    ASSERT_EQ(row.size(), 10u) << "result, unit, cases, mean, P5, P50, P95, smallest, largest, limit probability";
+    std::printf("threshold.base row: limit probability '%s'\n", row[9].c_str());
+    EXPECT_EQ(row[9].rfind("P(below 10 yr) = ", 0), 0u) << row[9];
+    EXPECT_NE(row[9].find("n = 12"), std::string::npos) << row[9];
+    EXPECT_NE(dom.find("Which inputs drive each result"), std::string::npos);
+    EXPECT_NE(dom.find("What drives threshold.base"), std::string::npos);
   }
 } // namespace fickcast::post
