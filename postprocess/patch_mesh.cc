@@ -8,6 +8,7 @@
 #include <vtkGenericCell.h>
 #include <vtkIdList.h>
 #include <vtkPointData.h>
+#include <vtkPoints.h>
 
 #include <algorithm>
 #include <cmath>
@@ -176,14 +177,27 @@ namespace fickcast::post
   {
     if (locator_ == nullptr)
       {
+        unit_scale_ = grid_->GetLength() > 0 ? 1 / grid_->GetLength() : 1.0;
+        auto points = vtkSmartPointer<vtkPoints>::New();
+        points->SetDataTypeToDouble();
+        points->SetNumberOfPoints(grid_->GetNumberOfPoints());
+        for (vtkIdType i = 0; i < grid_->GetNumberOfPoints(); ++i)
+          {
+            double p[3];
+            grid_->GetPoint(i, p);
+            points->SetPoint(i, p[0] * unit_scale_, p[1] * unit_scale_, p[2] * unit_scale_);
+          }
+        unit_grid_ = vtkSmartPointer<vtkUnstructuredGrid>::New();
+        unit_grid_->ShallowCopy(grid_);
+        unit_grid_->SetPoints(points);
         locator_ = vtkSmartPointer<vtkStaticCellLocator>::New();
-        locator_->SetDataSet(grid_);
+        locator_->SetDataSet(unit_grid_);
         locator_->BuildLocator();
       }
     auto cell = vtkSmartPointer<vtkGenericCell>::New();
     double pcoords[3], weights[8];
-    const double tolerance = 1e-7 * grid_->GetLength();
-    double x[3] = {point[0], point[1], point[2]};
+    const double tolerance = 1e-7; // of the unit diagonal
+    double x[3] = {point[0] * unit_scale_, point[1] * unit_scale_, point[2] * unit_scale_};
     const vtkIdType id = locator_->FindCell(x, tolerance * tolerance, cell, pcoords, weights);
     if (id < 0)
       return false;

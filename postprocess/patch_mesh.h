@@ -62,6 +62,10 @@ namespace fickcast::post
     bool patches_ = false;
     std::vector<PatchElement> elements_;
     mutable vtkSmartPointer<vtkStaticCellLocator> locator_;
+    /// The grid the locator searches: grid_ with its points scaled to a unit diagonal (VTK 9.1's
+    /// static locator runs out of memory on a mesh micrometres across), and that scale.
+    mutable vtkSmartPointer<vtkUnstructuredGrid> unit_grid_;
+    mutable double unit_scale_ = 1;
   };
 
   /// Gauss-Legendre points and weights on [0, 1].

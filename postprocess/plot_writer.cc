@@ -308,6 +308,11 @@ namespace fickcast::post
     return label + " [" + power + "]";
   }
 
+  std::mutex &plplot_lock()
+  {
+    return plplot_mutex;
+  }
+
   bool cairo_devices_available()
   {
     const std::lock_guard<std::mutex> lock(plplot_mutex);

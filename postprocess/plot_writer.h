@@ -1,6 +1,7 @@
 // Line plots written with PLplot's cairo drivers (pngcairo, svgcairo).
 #pragma once
 
+#include <mutex>
 #include <string>
 #include <vector>
 
@@ -60,4 +61,7 @@ namespace fickcast::post
 
   /// True if this PLplot has the pngcairo and svgcairo devices.
   bool cairo_devices_available();
+
+  /// The lock every user of PLplot holds while drawing (PLplot keeps global state).
+  std::mutex &plplot_lock();
 } // namespace fickcast::post

@@ -1,11 +1,14 @@
 #include "run_plots.h"
 
+#include "field_map.h"
+
 #include "field_sampler.h"
 #include "output_file.h"
 #include "time_units.h"
 
 #include <algorithm>
 #include <cmath>
+#include <cstdlib>
 #include <limits>
 #include <map>
 #include <set>
@@ -56,7 +59,37 @@ namespace fickcast::post
 
       /// Number densities (dopants) span decades: their profiles are drawn on a logarithmic axis,
       /// as the trade draws them.
-      bool log_profiles() const { return results.summary.unit_concentration == "1/m3"; }
+      bool log_profiles() const { return results.summary.unit_concentration == "1/m3" || partition_jump(); }
+
+      /// Partition coefficients of the regions more than ten times apart: the concentration jumps
+      /// by that factor at their interfaces, and a linear axis would flatten the low side.
+      bool partition_jump() const
+      {
+        double low = 1, high = 1;
+        for (const auto &s : results.summary.settings)
+          {
+            const std::string suffix = ".partition";
+            if (s.key.rfind("region.", 0) != 0 || s.key.size() <= suffix.size() ||
+                s.key.compare(s.key.size() - suffix.size(), suffix.size(), suffix) != 0)
+              continue;
+            const double k = std::strtod(s.si.c_str(), nullptr);
+            if (k > 0)
+              {
+                low = std::min(low, k);
+                high = std::max(high, k);
+              }
+          }
+        return high > 10 * low;
+      }
+
+      /// What a profile caption says of a logarithmic axis chosen for a partition jump.
+      std::string log_note() const
+      {
+        return partition_jump() && results.summary.unit_concentration != "1/m3"
+                 ? " Logarithmic axis: the regions' partition coefficients differ more than tenfold, so the "
+                   "concentration jumps by that factor at their interfaces."
+                 : "";
+      }
 
       /// Time axis values and label (plain or square root of time).
       std::pair<std::vector<double>, std::string> time_axis(const bool root) const
@@ -111,7 +144,7 @@ namespace fickcast::post
             }
           context.emit(spec, "profile_" + line,
                        "Concentration (in each region's own phase) along sampling line " + line +
-                         " at output times, from profiles.csv.");
+                         " at output times, from profiles.csv." + context.log_note());
         }
     }
 
@@ -169,7 +202,7 @@ namespace fickcast::post
       context.emit(spec, "profile_fields",
                    "Concentration (in each region's own phase) sampled from the written fields along the " +
                      std::string(summary.dimension == 1 ? "mesh" : "line " + where) +
-                     " at output times (linear between the nodes of each cell's output patch).");
+                     " at output times (linear between the nodes of each cell's output patch)." + context.log_note());
     }
 
     void point_histories(Context &context)
@@ -273,6 +306,156 @@ namespace fickcast::post
                      unit + ".");
     }
 
+    /// One plot per open face: the rate through it (inward positive) against time, in the amount
+    /// unit per displayed time unit, with the limits and the peak the case asked of that face.
+    void face_fluxes(Context &context)
+    {
+      const CsvTable &series = context.results.series;
+      const auto [t, label] = context.time_axis(false);
+      const Json::Value &results = context.results.summary.results;
+      const std::string unit = context.results.summary.unit_amount + "/" + context.time_unit.symbol;
+      for (std::size_t c = 0; c < series.names().size(); ++c)
+        {
+          const std::string &name = series.names()[c];
+          if (name.rfind("flux_in.", 0) != 0)
+            continue;
+          const std::string face = name.substr(8);
+          std::vector<double> rate = series.numbers(c);
+          for (double &v : rate)
+            v *= context.time_unit.seconds;
+          if (!has_finite(rate, false))
+            continue;
+          PlotSpec spec;
+          spec.title = "Rate through " + face;
+          spec.x_label = label;
+          spec.y_label = "rate in through " + face + bracket(unit);
+          spec.curves.push_back({"into the body (out is negative)", t, rate});
+          // A held face's rate falls as 1/sqrt(t) from a singular start: where the rate in its
+          // main direction (that of the net amount crossed) spans more than a decade, a
+          // logarithmic axis of its size (the few steps against it, start-up wiggles, left out).
+          double net = 0, largest = 0, at_end = 0;
+          for (std::size_t i = 1; i < rate.size() && i < t.size(); ++i)
+            if (std::isfinite(rate[i]) && std::isfinite(rate[i - 1]))
+              net += 0.5 * (rate[i] + rate[i - 1]) * (t[i] - t[i - 1]);
+          const bool inward = net > 0, outward = net < 0;
+          // The singular start (the first thousandth of the run) would set the axis alone.
+          const double from = t.empty() ? 0 : 1e-3 * t.back();
+          for (std::size_t i = 0; i < rate.size() && i < t.size(); ++i)
+            if (const double v = rate[i]; std::isfinite(v) && (inward ? v > 0 : v < 0) && t[i] >= from)
+              {
+                largest = std::max(largest, std::abs(v));
+                at_end = std::abs(v);
+              }
+          if (largest > 0 && (inward || outward) && largest > 10 * at_end)
+            {
+              spec.log_y = true;
+              auto &y = spec.curves.back().y;
+              for (std::size_t i = 0; i < y.size(); ++i)
+                y[i] = (inward ? y[i] > 0 : y[i] < 0) && t[i] >= from ? std::abs(y[i]) : std::nan("");
+              spec.curves.back().label = inward ? "into the body" : "out of the body";
+              spec.y_label = "rate " + std::string(inward ? "in" : "out") + " through " + face + bracket(unit);
+            }
+          for (const auto &result : results.getMemberNames())
+            {
+              const Json::Value &r = results[result];
+              if (!r.isObject() || r["boundary"].asString() != face)
+                continue;
+              const double sign = r["direction"].asString() == "out" ? -1.0 : 1.0;
+              if (result.rfind("flux_limit.", 0) == 0 && r["limit"]["value"].isNumeric())
+                {
+                  const double level = sign * r["limit"]["value"].asDouble() * context.time_unit.seconds;
+                  PlotCurve line{result + " (limit)", {t.front(), t.back()}, {level, level}};
+                  line.reference = true;
+                  spec.curves.push_back(line);
+                }
+              if (result.rfind("peak_flux.", 0) == 0 && result.find(".time") == std::string::npos &&
+                  r["value"].isNumeric() && results.isMember(result + ".time") &&
+                  results[result + ".time"]["value"].isNumeric())
+                {
+                  PlotCurve peak{result,
+                                 {results[result + ".time"]["value"].asDouble() / context.time_unit.seconds},
+                                 {sign * r["value"].asDouble() * context.time_unit.seconds}};
+                  peak.markers_only = true;
+                  spec.curves.push_back(peak);
+                }
+            }
+          context.emit(spec, "rate_" + face,
+                       "Rate at which the species crosses " + face +
+                         " (into the body positive, out of it negative), "
+                         "from series.csv, in " +
+                         unit +
+                         "; the amount crossed so far is in the amounts plot. Grey "
+                         "lines: rate limits asked of this face; a mark: its largest rate." +
+                         std::string(spec.log_y ? " Logarithmic axis: the rate falls by more than tenfold "
+                                                  "over the run (drawn from the first thousandth of it on)."
+                                                : ""));
+        }
+    }
+
+    /// A 2-D run: the concentration over the section at the middle and the last output time,
+    /// sampled from the written fields on a grid of at most 160 points along the longer side.
+    void field_maps(Context &context)
+    {
+      const RunSummary &summary = context.results.summary;
+      if (summary.dimension != 2 || !context.results.fields || context.results.fields->times().empty())
+        return;
+      const FieldSeries &series = *context.results.fields;
+      const auto last = series.load(series.times().size() - 1);
+      double bounds[6];
+      last->GetBounds(bounds);
+      const double wide = bounds[1] - bounds[0], tall = bounds[3] - bounds[2];
+      if (!(wide > 0) || !(tall > 0))
+        return;
+      const DisplayUnit length = length_display(std::max(wide, tall));
+      const std::size_t longest = 160;
+      const std::size_t nx = std::max<std::size_t>(2, static_cast<std::size_t>(longest * wide / std::max(wide, tall)));
+      const std::size_t ny = std::max<std::size_t>(2, static_cast<std::size_t>(longest * tall / std::max(wide, tall)));
+      std::vector<Point> points;
+      FieldMap map;
+      for (std::size_t i = 0; i < nx; ++i)
+        map.x.push_back((bounds[0] + wide * static_cast<double>(i) / static_cast<double>(nx - 1)) / length.si_per_unit);
+      for (std::size_t j = 0; j < ny; ++j)
+        map.y.push_back((bounds[2] + tall * static_cast<double>(j) / static_cast<double>(ny - 1)) / length.si_per_unit);
+      for (std::size_t i = 0; i < nx; ++i)
+        for (std::size_t j = 0; j < ny; ++j)
+          points.push_back({map.x[i] * length.si_per_unit, map.y[j] * length.si_per_unit, 0.0});
+      const bool axisymmetric = summary.coordinates == "axisymmetric";
+      map.x_label = std::string(axisymmetric ? "r" : "x") + bracket(length.symbol);
+      // Built-in layers stack from the top face (y = 0) inward: drawn downward, as a section is.
+      map.downward = std::any_of(summary.settings.begin(), summary.settings.end(),
+                                 [](const EchoedSetting &s) { return s.key == "geometry.layers"; });
+      map.y_label = std::string(axisymmetric   ? "z"
+                                : map.downward ? "depth y from the top face"
+                                               : "y") +
+                    bracket(length.symbol);
+      map.value_label = std::string(context.log_profiles() ? "log#d10#u concentration" : "concentration") +
+                        bracket(context.concentration.symbol);
+      map.log_values = context.log_profiles();
+      map.subject = summary.title;
+      std::vector<std::size_t> chosen{series.times().size() - 1};
+      if (series.times().size() > 2)
+        chosen.insert(chosen.begin(), series.times().size() / 2);
+      for (const std::size_t k : chosen)
+        {
+          const auto grid = k + 1 == series.times().size() ? last : series.load(k);
+          const Samples samples =
+            sample_fields(grid, points, {"concentration"}, 2, summary.degree, series.times()[k].file);
+          map.values = samples.values[0];
+          for (double &v : map.values)
+            v /= context.concentration.si_per_unit;
+          map.title = "Concentration at t = " + format_time(series.times()[k].time);
+          const std::string stem = "field_map_" + std::to_string(k);
+          if (write_field_map(map, context.folder + "/" + stem, context.options.formats))
+            context.written.push_back(
+              {stem, map.title,
+               "Concentration over the section at t = " + format_time(series.times()[k].time) +
+                 ", the finite-element field of that output time sampled on a " + std::to_string(nx) + " x " +
+                 std::to_string(ny) + " grid, drawn to scale in twelve equal bands" +
+                 (map.log_values ? " of log10 concentration, over six decades below the largest value" : "") +
+                 "; white: outside the body" + (map.log_values ? " or below the lowest band" : "") + "."});
+        }
+    }
+
     void depths(Context &context)
     {
       const Json::Value &results = context.results.summary.results;
@@ -336,6 +519,8 @@ namespace fickcast::post
     depths(context);
     release(context, false);
     amounts(context, false);
+    face_fluxes(context);
+    field_maps(context);
     if (options.sqrt_time)
       {
         release(context, true);

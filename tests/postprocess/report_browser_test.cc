@@ -215,11 +215,11 @@ samples.depth = 51
       EXPECT_TRUE(std::filesystem::is_regular_file(image)) << image;
     const auto plots = png_images(outcome);
     const std::size_t pngs = plots.size();
-    // Profile along the line, point history, amounts, and the uptake fraction (the body starts
-    // empty under a held face: an uptake, no released fraction).
-    EXPECT_EQ(pngs, 4u);
+    // Profile along the line, point history, amounts, the uptake fraction (the body starts empty
+    // under a held face: an uptake, no released fraction) and the rate through the open face.
+    EXPECT_EQ(pngs, 5u);
     EXPECT_FALSE(std::filesystem::exists(folder + "/report/released_fraction.png"));
-    for (const char *stem : {"profile_depth.png", "points.png", "amounts.png", "uptake_fraction.png"})
+    for (const char *stem : {"profile_depth.png", "points.png", "amounts.png", "uptake_fraction.png", "rate_top.png"})
       EXPECT_TRUE(std::filesystem::is_regular_file(folder + "/report/" + stem)) << stem;
     // Each plot image shows curves in the plot palette.
     for (const auto &png : plots)
@@ -268,7 +268,7 @@ samples.depth = 51
     const std::string scratch = std::filesystem::path(folder).parent_path().string();
     const ReportOutcome outcome = make_report(folder, {});
     const auto plots = png_images(outcome);
-    ASSERT_EQ(plots.size(), 4u);
+    ASSERT_EQ(plots.size(), 5u);
 
     // Blank each plot: white, same size, written with VTK's PNG writer over the report's file.
     for (const auto &png : plots)
@@ -315,7 +315,7 @@ samples.depth = 51
     const std::string shot_file = scratch + "/blank_plots.png";
     const std::string dom =
       chromium(std::string(screenshot_size) + " --dump-dom --screenshot=" + shot_file, outcome.html, scratch, log);
-    EXPECT_EQ(images_ok(dom), "4/4"); // the blank images load: only their content is wrong
+    EXPECT_EQ(images_ok(dom), "5/5"); // the blank images load: only their content is wrong
     EXPECT_TRUE(console_lines(log).empty()) << console_lines(log).front();
     ASSERT_TRUE(std::filesystem::is_regular_file(shot_file));
     const Look shot = look_at(shot_file);
@@ -460,5 +460,66 @@ threshold.base = 250 mg/L
     EXPECT_NE(row[9].find("n = 12"), std::string::npos) << row[9];
     EXPECT_NE(dom.find("Which inputs drive each result"), std::string::npos);
     EXPECT_NE(dom.find("What drives threshold.base"), std::string::npos);
+  }
+
+  // A 2-D run with a partition jump (a coat holding 50 times the core's concentration): the report
+  // has a picture of the field (a map at the middle and the last output time) and profiles on a
+  // logarithmic axis that say why, and it renders in Chromium.
+  TEST(ReportBrowser, TwoDimensionalRunWithPartitionsHasFieldMaps)
+  {
+    ASSERT_TRUE(std::filesystem::exists(FICKCAST_CHROMIUM));
+    const CaseDescription description = testing::describe(R"(
+[case]
+title = Report check: coated block in 2-D (invented numbers)
+dimension = 2
+[geometry]
+layers = coat 0.1 m, core 0.4 m
+width = 0.3 m
+cell_size = 0.02 m
+[region.coat]
+diffusivity = 1e-3 m2/s
+partition = 50
+[region.core]
+diffusivity = 1e-2 m2/s
+[boundary.top]
+type = concentration
+ambient = 2 mg/L
+[time]
+end = 10 s
+[output]
+fields_every = 2.5 s
+point.middle = 0.15 m, 0.3 m
+)",
+                                                          "post_report_two_d");
+    ASSERT_EQ(testing::run(description).status, "completed");
+    const std::string folder = description.output.folder;
+    const ReportOutcome outcome = make_report(folder, {});
+    const auto plots = png_images(outcome);
+    std::size_t maps = 0;
+    for (const auto &png : plots)
+      if (std::filesystem::path(png).filename().string().rfind("field_map_", 0) == 0)
+        {
+          ++maps;
+          const Look map = look_at(png);
+          std::printf("map %s: %dx%d, %zu colours, %.1f %% non-white\n", png.c_str(), map.width, map.height,
+                      map.colours, 100 * map.non_white);
+          EXPECT_GE(map.colours, 12u) << png << ": the twelve bands of the ramp";
+          EXPECT_GT(map.non_white, 0.15) << png;
+        }
+    EXPECT_EQ(maps, 2u) << "the middle and the last output time";
+    const std::string html = read_file(outcome.html, "the report");
+    EXPECT_NE(html.find("Logarithmic axis: the regions' partition coefficients differ more than tenfold"),
+              std::string::npos);
+    std::string log;
+    const std::string scratch = std::filesystem::path(folder).parent_path().string();
+    const std::string dom = chromium("--dump-dom", outcome.html, scratch, log);
+    EXPECT_EQ(images_ok(dom), std::to_string(plots.size()) + "/" + std::to_string(plots.size()));
+    EXPECT_TRUE(console_lines(log).empty()) << console_lines(log).front();
+    const std::string shot_file = scratch + "/report_two_d.png";
+    chromium(std::string(screenshot_size) + " --screenshot=" + shot_file, outcome.html, scratch, log);
+    const Look shot = look_at(shot_file);
+    std::printf("2-D report: screenshot %dx%d, %zu colours, %.1f %% non-white, images %s\n", shot.width, shot.height,
+                shot.colours, 100 * shot.non_white, images_ok(dom).c_str());
+    EXPECT_TRUE(page_drawn(shot));
   }
 } // namespace fickcast::post

@@ -5,6 +5,7 @@
 #include "output_file.h"
 #include "post_error.h"
 #include "report.h"
+#include "study_plots.h"
 #include "study_table.h"
 
 #include "case/case_reader.h"
@@ -92,15 +93,24 @@ namespace fickcast::post
         csv += row;
       }
     write_file(folder + "/sweep.csv", csv);
-    write_file(folder + "/sweep_summary.json", R"({"results": {"depth.front.final": {"mean": 1.58, "p5": 1.25,
-      "p50": 1.58, "p95": 1.93, "exceedance": {"1.5 m": 0.6}}}})");
+    write_file(folder + "/sweep_summary.json", R"({"kind": "uncertainty", "title": "synthetic liner",
+      "results": {"depth.front.final": {"mean": 1.58, "p5": 1.25, "p50": 1.58, "p95": 1.93,
+      "probability_above 1.5 m": {"level": 1.5, "n": 40, "probability": 0.6, "standard_error": 0.0775}}}})");
     const ReportOutcome outcome = make_study_report(folder, ReportOptions{});
-    // distribution + exceedance + 2 scatter plots, PNG and SVG each
-    EXPECT_EQ(outcome.images.size(), 8u);
+    // distribution + exceedance + drivers + 2 scatter plots, PNG and SVG each
+    EXPECT_EQ(outcome.images.size(), 10u);
     const std::string html = read_file(outcome.html, "the report");
     EXPECT_NE(html.find("Uncertainty study"), std::string::npos);
-    EXPECT_NE(html.find("results.depth.front.final.p95"), std::string::npos); // sweep_summary.json shown
+    EXPECT_NE(html.find("<h1>synthetic liner</h1>"), std::string::npos);
+    EXPECT_NE(html.find("<td>P(above 1.5 m) = 60 % (+- 7.8 %, n = 40)</td>"), std::string::npos);
     EXPECT_NE(html.find("exceedance_depth_front_final.svg"), std::string::npos);
+    EXPECT_NE(html.find("drivers_depth_front_final.svg"), std::string::npos);
+    // Spearman's rank correlation itself (postprocess/study_plots.h).
+    EXPECT_NEAR(rank_correlation({1, 2, 3, 4}, {10, 20, 30, 40}), 1.0, 1e-15);
+    EXPECT_NEAR(rank_correlation({1, 2, 3, 4}, {4, 3, 2, 1}), -1.0, 1e-15);
+    // Ties get their mean rank (Spearman 1904): ranks (1.5, 1.5, 3) and (1, 2, 3) correlate by
+    // 0.866 (sqrt(3)/2, computed by hand).
+    EXPECT_NEAR(rank_correlation({5, 5, 7}, {1, 2, 3}), std::sqrt(3.0) / 2, 1e-12);
   }
 
   // The sweep.csv the solver itself writes (an invented liner scenario): parameters with units
