@@ -20,12 +20,14 @@ cd "$scratch" || exit 1
 failures=0
 fail() { echo "FAIL: $*"; failures=$((failures + 1)); }
 say() { echo "-- $*"; }
-# Runs a command with a 60 s limit; out.txt, err.txt and $code keep what it did (124: it hung).
+# Runs a command with a 60 s limit (times FICKCAST_TEST_TIME_SCALE: sanitizer builds run slower);
+# out.txt, err.txt and $code keep what it did (124: it hung).
+limit=$((60 * ${FICKCAST_TEST_TIME_SCALE:-1}))
 run() { # description command...
   local what=$1; shift
-  timeout -k 5 60 "$@" >out.txt 2>err.txt
+  timeout -k 5 "$limit" "$@" >out.txt 2>err.txt
   code=$?
-  [ "$code" -ne 124 ] || fail "$what: still running after 60 s (killed)"
+  [ "$code" -ne 124 ] || fail "$what: still running after $limit s (killed)"
 }
 expect_code() { # expected-code description command...
   local expected=$1 what=$2; shift 2
