@@ -266,6 +266,14 @@ namespace fickcast::post
                        (s.message.empty() ? "" : " (" + html_escape(s.message) + ")") + ".</p>\n";
     body += html_cautions();
 
+    // The answers first, then what was solved (a reader on a small screen sees them without
+    // scrolling past the settings).
+    body += "<h2>Headline results</h2>\n";
+    const auto rows = headline_rows(s, c);
+    body += rows.empty() ? "<p>The case asked for no named results.</p>\n"
+                         : html_table({"result", "value", "estimated error", "meaning"}, rows, "results");
+    body += accuracy_section(s);
+
     body += "<h2>What was solved</h2>\n";
     const auto *layers = s.setting("geometry.layers");
     const auto *mesh = s.setting("geometry.mesh");
@@ -293,12 +301,6 @@ namespace fickcast::post
     body += html_table({}, what, "facts");
     body += "<h3>Settings given in the case</h3>\n" + settings_table(s, false);
     body += "<details><summary>Settings left at their defaults</summary>\n" + settings_table(s, true) + "</details>\n";
-
-    body += "<h2>Headline results</h2>\n";
-    const auto rows = headline_rows(s, c);
-    body += rows.empty() ? "<p>The case asked for no named results.</p>\n"
-                         : html_table({"result", "value", "estimated error", "meaning"}, rows, "results");
-    body += accuracy_section(s);
 
     body += "<h2>Mass balance</h2>\n";
     const bool closed = std::isfinite(s.balance_relative) && std::abs(s.balance_relative) <= 1e-6;

@@ -29,7 +29,20 @@ namespace fickcast
     const std::vector<std::string> flux_bases = {"kg/(m2 s)", "mol/(m2 s)", "1/(m2 s)", "m/s"};
     const std::vector<std::string> source_bases = {"kg/(m3 s)", "mol/(m3 s)", "1/(m3 s)", "1/s"};
 
-    std::string si_unit_of(const Dim dim, const ConcentrationUnits &units, const unsigned int dimension = 1)
+    /// The measure a bath volume is written in: that of the amounts (whole in 3-D, for a sphere
+    /// and for axisymmetric cases; per unit length in 2-D Cartesian cases and for a cylinder; per
+    /// unit area in 1-D Cartesian cases), as the solver books the bath's content against them.
+    unsigned int bath_measure(const unsigned int dimension, const std::string &coordinates)
+    {
+      if (coordinates == "sphere" || coordinates == "axisymmetric")
+        return 3;
+      if (coordinates == "cylinder")
+        return 2;
+      return dimension;
+    }
+
+    std::string si_unit_of(const Dim dim, const ConcentrationUnits &units, const unsigned int dimension = 1,
+                           const std::string &coordinates = "cartesian")
     {
       switch (dim)
         {
@@ -40,7 +53,10 @@ namespace fickcast
           case Dim::activation_energy:
             return "J";
           case Dim::bath_volume:
-            return dimension == 1 ? "m" : dimension == 2 ? "m2" : "m3";
+            {
+              const unsigned int measure = bath_measure(dimension, coordinates);
+              return measure == 1 ? "m" : measure == 2 ? "m2" : "m3";
+            }
           case Dim::amount:
             return units.amount;
           case Dim::dimensionless:
@@ -260,6 +276,7 @@ namespace fickcast
     {
       Settings &settings;
       unsigned int dimension = 1;
+      std::string coordinate_system = "cartesian"; ///< case.coordinates, for the bath volume's measure
 
       /// A time or a temperature written without its unit is read in SI, which is rarely meant
       /// (20 for 20 s, 1000 for 1000 K): one warning naming the reading.
@@ -312,7 +329,7 @@ namespace fickcast
         value.key = entry.key;
         value.written = entry.value;
         value.origin = entry.origin();
-        value.si_unit = si_unit_of(dim, settings.units, dimension);
+        value.si_unit = si_unit_of(dim, settings.units, dimension, coordinate_system);
         const std::string &text = entry.value;
         if (text.empty() && spec.kind != ValueKind::text)
           throw InputError(entry.origin(), entry.full_key(),
@@ -724,6 +741,7 @@ namespace fickcast
     if (!dimension_given && coordinates == "axisymmetric")
       parser.dimension = 2;
 
+    parser.coordinate_system = coordinates;
     settings.units = decide_units(entries, parser.dimension, coordinates);
     for (const auto &entry : entries)
       {

@@ -175,8 +175,9 @@ namespace fickcast
       s.push_back(positive(make("boundary", "coefficient", K::quantity, Dim::velocity, "",
                                 "transfer coefficient h: outward flux = h (c_face - K ambient)")));
       s.push_back(positive(make("boundary", "volume", K::quantity, Dim::bath_volume, "",
-                                "bath volume (type bath): m3 in 3-D, per unit length (m2) in 2-D, "
-                                "per unit area (m) in 1-D")));
+                                "bath volume (type bath), in the measure of the amounts: whole (m3) in 3-D, "
+                                "for a sphere and axisymmetric; per unit length (m2) in 2-D and for a "
+                                "cylinder; per unit area (m) in 1-D")));
       s.push_back(positive(make("boundary", "partition", K::quantity, Dim::dimensionless, "",
                                 "bath liquid's partition coefficient against the reference phase (type bath)")));
       s.push_back(bounded(make("boundary", "initial", K::quantity, Dim::concentration, "",
@@ -438,7 +439,8 @@ namespace fickcast
         case Dim::activation_energy:
           return "an activation energy such as 3.46 eV or 148 kJ/mol";
         case Dim::bath_volume:
-          return "a bath volume (m3 in 3-D, m2 per unit length in 2-D, m per unit area in 1-D)";
+          return "a bath volume (whole, m3, in 3-D, for a sphere and axisymmetric; m2 per unit length in 2-D "
+                 "and for a cylinder; m per unit area in 1-D)";
         case Dim::amount:
           return "an amount in this case's amount units";
         case Dim::boundary_value:

@@ -184,13 +184,15 @@ for name in plate block; do
   expect_code 0 "$name: compare (concentration, reference_concentration) at 1e-8" \
     "$post" compare $one $two --field concentration,reference_concentration --tolerance 1e-8
 
-  say "$name: fickcast-post sample at ${at[$name]} m, t = 1 yr and integrate at t = 2 yr: the PVTU gives the 1-rank numbers (1e-8)"
+  say "$name: fickcast-post sample at ${at[$name]} m, t = 1 yr and integrate at t = 2 yr: the PVTU gives the 1-rank numbers (sample 2.4e-7: Float32 fields; integrals 1e-8)"
   for folder in $one $two; do
     expect_code 0 "sample $folder" "$post" sample $folder --at "${at[$name]}" --time 1yr --field concentration \
       --output sample_$folder.csv
     expect_code 0 "integrate $folder" "$post" integrate $folder --time 2yr --output integral_$folder.csv
   done
-  same_csv sample_$one.csv sample_$two.csv 1e-8 ||
+  # The fields are stored in single precision (Float32: 2^-23 = 1.2e-7 relative per value); a point on
+  # a cell edge may be read from either neighbour's nodes, so the sample agrees to two such steps.
+  same_csv sample_$one.csv sample_$two.csv 2.4e-7 ||
     fail "$name: sample on the PVTU differs from 1 rank: $(tail -1 sample_$one.csv) / $(tail -1 sample_$two.csv)"
   same_csv integral_$one.csv integral_$two.csv 1e-8 ||
     fail "$name: integrate on the PVTU differs from 1 rank: $(tr '\n' ' ' <integral_$one.csv) / $(tr '\n' ' ' <integral_$two.csv)"

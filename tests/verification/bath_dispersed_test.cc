@@ -86,6 +86,58 @@ namespace fickcast::testing
     EXPECT_NEAR(alpha * named / final_amount, bath_fraction(alpha, 1.0), 5e-5);
   }
 
+  // A sphere of radius a releasing into a well-stirred bath of volume V (the bath written in mm3,
+  // the sphere's natural measure: whole amounts). Crank 1975 eq. 6.30 (equation number from
+  // memory): Mt/Minf = 1 - sum 6 alpha (alpha + 1) exp(-D q_n^2 t / a^2) / (9 + 9 alpha + q_n^2
+  // alpha^2), tan q_n = 3 q_n / (3 + alpha q_n^2), alpha = 3 V / (4 pi a^3 K); q_n lies in
+  // [n pi, (n + 1/2) pi) (pi n for an infinite bath, 4.493... for alpha -> 0). The series at t = 0
+  // must sum to 1 (checked below, which guards the coding of the roots and weights). Here
+  // a = 1 mm, D = 1e-9 m2/s, K = 1, alpha = 1 (V = 4.18879 mm3); fickcast's released fraction is
+  // (M0 - M) / M0 = (Mt/Minf) alpha / (1 + alpha).
+  TEST(SphereBath, ReleaseIntoABathWrittenInCubicMillimetres)
+  {
+    const double alpha = 1;
+    const auto series_sum = [alpha](const double T) {
+      double sum = 0;
+      for (int n = 1; n <= 400; ++n)
+        {
+          auto f = [alpha](double q) { return std::sin(q) * (3 + alpha * q * q) - 3 * q * std::cos(q); };
+          boost::uintmax_t iterations = 200;
+          const auto root = boost::math::tools::toms748_solve(
+            f, n * pi + 1e-9, (n + 0.5) * pi - 1e-9, boost::math::tools::eps_tolerance<double>(50), iterations);
+          const double q = 0.5 * (root.first + root.second);
+          sum += 6 * alpha * (alpha + 1) * std::exp(-q * q * T) / (9 + 9 * alpha + q * q * alpha * alpha);
+        }
+      return sum;
+    };
+    // The weights decay as 12 / (pi n)^2: 400 terms leave about 12 / (400 pi^2) = 3e-3 at t = 0.
+    EXPECT_NEAR(series_sum(0), 1.0 - 12 / (400 * pi * pi), 5e-4);
+    const double volume_mm3 = alpha * 4.0 / 3.0 * pi;
+    char text[700];
+    std::snprintf(text, sizeof text,
+                  "[case]\ntitle = sphere in a bath\ncoordinates = sphere\n[geometry]\nlayers = bead 1 mm\n"
+                  "cell_size = 0.02 mm\n[region.bead]\ndiffusivity = 1e-9 m2/s\n[initial]\nvalue = 1 mol/m3\n"
+                  "[boundary.outer]\ntype = bath\nvolume = %.12g mm3\n[time]\nend = 300 s\ntolerance = 1e-6\n"
+                  "[output]\nfields = false\ntimes = 20 s, 100 s\n",
+                  volume_mm3);
+    const CaseDescription description = describe(text, "finite_bath_sphere");
+    const RunRecord record = run(description);
+    ASSERT_EQ(record.status, "completed");
+    const CsvTable series = read_csv(description.output.folder + "/series.csv");
+    const auto &time = series.column("time");
+    const auto &released = series.column("released_fraction");
+    for (const double t : {20.0, 100.0, 300.0})
+      {
+        const std::size_t row =
+          std::find_if(time.begin(), time.end(), [&](double s) { return std::abs(s - t) < 1e-9 * t; }) - time.begin();
+        ASSERT_LT(row, time.size());
+        const double T = 1e-9 * t / 1e-6;
+        const double exact = (1 - series_sum(T)) * alpha / (1 + alpha);
+        std::printf("sphere in a bath, D t / a^2 = %g: released %.6f, Crank %.6f\n", T, released[row], exact);
+        EXPECT_NEAR(released[row], exact, 2e-4);
+      }
+  }
+
   INSTANTIATE_TEST_SUITE_P(VolumeRatios, FiniteBath, ::testing::Values(1.0, 4.0),
                            [](const ::testing::TestParamInfo<double> &info) {
                              return "alpha" + std::to_string(static_cast<int>(info.param));
