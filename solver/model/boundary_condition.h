@@ -28,9 +28,11 @@ namespace fickcast
   public:
     /// @p face_partition is K of the region that touches the face; @p dimension is the dimension
     /// of the points asked for and @p stage the stage's name, if the case has stages (for
-    /// messages); @p non_finite_to (may be null) must outlive this.
+    /// messages); @p non_finite_to (may be null) must outlive this. @p negative_to (may be null)
+    /// gets the first concentration (value or ambient) below zero, once, as a warning.
     BoundaryCondition(const BoundarySpec &spec, double face_partition, unsigned int dimension = 1,
-                      std::string *non_finite_to = nullptr, const std::string &stage = "");
+                      std::string *non_finite_to = nullptr, const std::string &stage = "",
+                      std::string *negative_to = nullptr);
 
     BoundaryKind kind() const { return spec_->kind; }
     bool is_fixed() const { return kind() == BoundaryKind::concentration || kind() == BoundaryKind::bath; }
@@ -68,8 +70,8 @@ namespace fickcast
 
   private:
     /// Remembers a value of @p function, key `boundary.FACE.NAME`, that is not finite.
-    void check(double value, const ScalarFunction &function, const char *name, double x, double y, double z,
-               double t) const;
+    void check(double value, const ScalarFunction &function, const char *name, double x, double y, double z, double t,
+               bool concentration) const;
 
     const BoundarySpec *spec_;
     double face_partition_;
@@ -77,5 +79,6 @@ namespace fickcast
     unsigned int dimension_;
     std::string *non_finite_to_;
     std::string stage_;
+    std::string *negative_to_; ///< first concentration or ambient value below zero (a warning), or null
   };
 } // namespace fickcast

@@ -258,7 +258,7 @@ namespace fickcast
       {
         const BoundarySpec *boundary = spec.find_boundary(names_.boundaries[b]);
         boundaries_.emplace_back(boundary ? *boundary : sealed, boundary_partition_[b], dim, &non_finite_,
-                                 description_.stages.size() > 1 ? spec.name : std::string());
+                                 description_.stages.size() > 1 ? spec.name : std::string(), &negative_boundary_);
       }
     baths_.clear();
     for (unsigned int b = 0; b < boundaries_.size(); ++b)
@@ -352,6 +352,17 @@ namespace fickcast
     if (reporter == n_ranks)
       return "";
     return Utilities::MPI::broadcast(communicator_, non_finite_, reporter);
+  }
+
+  template <int dim>
+  std::string DiffusionProblem<dim>::negative_boundary_value() const
+  {
+    const unsigned int rank = Utilities::MPI::this_mpi_process(communicator_);
+    const unsigned int n_ranks = Utilities::MPI::n_mpi_processes(communicator_);
+    const unsigned int reporter = Utilities::MPI::min(negative_boundary_.empty() ? n_ranks : rank, communicator_);
+    if (reporter == n_ranks)
+      return "";
+    return Utilities::MPI::broadcast(communicator_, negative_boundary_, reporter);
   }
 
   template <int dim>

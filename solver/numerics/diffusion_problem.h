@@ -160,6 +160,9 @@ namespace fickcast
     /// value, flux or ambient, a source), as "KEY: message" from the lowest rank that met one, on
     /// every rank; empty if none (collective). A numerical failure, not an input error.
     std::string non_finite_expression() const;
+    /// The first boundary concentration (value or ambient) an expression or table gave below zero,
+    /// "" if none (collective: the lowest rank that saw one).
+    std::string negative_boundary_value() const;
     /// The rate of the integration clock: the relative diffusivity of the region whose D changes
     /// in time only (1 if none), so that stepping in tau = int rate dt is exact for it.
     double clock_rate(double t) const;
@@ -357,7 +360,8 @@ namespace fickcast
     std::unique_ptr<LinearSolver> solver_;
     unsigned int setups_before_ = 0; ///< matrix setups of the run before a resume
     mutable std::string bad_coefficient_;
-    mutable std::string non_finite_; ///< first non-finite expression value (Material, BoundaryCondition)
+    mutable std::string non_finite_;        ///< first non-finite expression value (Material, BoundaryCondition)
+    mutable std::string negative_boundary_; ///< first boundary concentration below zero (a warning)
     mutable PhaseTimer timer_;
   };
 } // namespace fickcast

@@ -766,8 +766,13 @@ namespace fickcast
     observers.finish(record);
     record.time_lags = faces.time_lags(c, record.boundary_entered, t);
     record.face_results = faces.results(c, t);
+    // A boundary below zero explains a state below zero better than the mesh does.
+    const std::string negative = problem.negative_boundary_value();
+    if (!negative.empty())
+      record.warnings.push_back(negative);
     for (const auto &warning : range.warnings())
-      record.warnings.push_back(warning);
+      if (negative.empty() || warning.rfind("the concentration went below zero", 0) != 0)
+        record.warnings.push_back(warning);
     record.matrix_setups = problem.n_matrix_setups();
     record.wall_time = std::chrono::duration<double>(std::chrono::steady_clock::now() - wall_start).count();
     record.timing = problem.timer().seconds();

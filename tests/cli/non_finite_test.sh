@@ -108,6 +108,21 @@ grep -q "it failed at the start: no state was good enough to write" "$scratch/at
   fail "at_start: does not say that no state was written: $(cat "$scratch/at_start.err")"
 [ "$(wc -l <"$scratch/at_start/series.csv")" -eq 1 ] || fail "at_start: series.csv holds rows of a state that was not good"
 
+# A boundary expression that swings below zero: the run completes (exit 0) and warns once, naming
+# the key, the value and when, in the printout and in summary.json; the mesh is not blamed for the
+# state below zero that the boundary itself caused.
+"$fickcast" run "$case_file" --output "$scratch/negative_boundary" --set "time.end=2 d" \
+  --set 'boundary.top.value={1000*sin(t/(0.2*d))} mg/L' --set numerics.accuracy=off \
+  >"$scratch/negative.out" 2>"$scratch/negative.err"
+code=$?
+[ "$code" -eq 0 ] || fail "negative boundary: expected exit 0, found $code: $(cat "$scratch/negative.err")"
+grep -q "warning: boundary.top.value: a concentration below zero (-" "$scratch/negative.err" ||
+  fail "negative boundary: no warning naming boundary.top.value: $(cat "$scratch/negative.err")"
+grep -q "boundary.top.value: a concentration below zero" "$scratch/negative_boundary/summary.json" ||
+  fail "negative boundary: summary.json lacks the warning"
+grep -q "went below zero" "$scratch/negative.err" &&
+  fail "negative boundary: the range guard blames the mesh for what the boundary did"
+
 # The folders above hold the last good state only: every number finite.
 python3 "$here/../regression/check_finite_results.py" "$scratch" || fail "a results folder holds a non-finite number"
 
