@@ -122,19 +122,9 @@ namespace fickcast::post
     for (double &v : shown)
       if (!std::isfinite(v) || v < low)
         v = low - 1e3 * (high - low);
-    if (!cairo_devices_available())
-      throw PostIoError("PLplot has no pngcairo/svgcairo device: install the Debian package plplot-driver-cairo");
-    const std::lock_guard<std::mutex> lock(plplot_lock());
-    for (const auto &[wanted, device, extension] :
-         {std::make_tuple(formats.png, "pngcairo", ".png"), std::make_tuple(formats.svg, "svgcairo", ".svg")})
-      {
-        if (!wanted)
-          continue;
-        const std::string path = stem + extension;
-        const std::string partial = partial_name(path);
-        render(map, shown, low, high, device, partial);
-        publish_file(partial, path);
-      }
+    render_formats(stem, formats, [&](const std::string &device, const std::string &file) {
+      render(map, shown, low, high, device, file);
+    });
     return true;
   }
 } // namespace fickcast::post

@@ -308,9 +308,22 @@ namespace fickcast::post
     return label + " [" + power + "]";
   }
 
-  std::mutex &plplot_lock()
+  void render_formats(const std::string &stem, const PlotFormats &formats,
+                      const std::function<void(const std::string &device, const std::string &file)> &render)
   {
-    return plplot_mutex;
+    if (!cairo_devices_available())
+      throw PostIoError("PLplot has no pngcairo/svgcairo device: install the Debian package plplot-driver-cairo");
+    const std::lock_guard<std::mutex> lock(plplot_mutex);
+    for (const auto &[wanted, device, extension] :
+         {std::make_tuple(formats.png, "pngcairo", ".png"), std::make_tuple(formats.svg, "svgcairo", ".svg")})
+      {
+        if (!wanted)
+          continue;
+        const std::string path = stem + extension;
+        const std::string partial = partial_name(path);
+        render(device, partial);
+        publish_file(partial, path);
+      }
   }
 
   bool cairo_devices_available()
@@ -337,19 +350,8 @@ namespace fickcast::post
         any = any || (std::isfinite(curve.x[i]) && std::isfinite(value_of(curve.y[i], spec.log_y)) && !curve.reference);
     if (!any)
       return false;
-    if (!cairo_devices_available())
-      throw PostIoError("PLplot has no pngcairo/svgcairo device: install the Debian package plplot-driver-cairo");
-    const std::lock_guard<std::mutex> lock(plplot_mutex);
-    for (const auto &[wanted, device, extension] :
-         {std::make_tuple(formats.png, "pngcairo", ".png"), std::make_tuple(formats.svg, "svgcairo", ".svg")})
-      {
-        if (!wanted)
-          continue;
-        const std::string path = stem + extension;
-        const std::string partial = partial_name(path);
-        render(spec, device, partial);
-        publish_file(partial, path);
-      }
+    render_formats(stem, formats,
+                   [&](const std::string &device, const std::string &file) { render(spec, device, file); });
     return true;
   }
 } // namespace fickcast::post

@@ -1,7 +1,7 @@
 // Line plots written with PLplot's cairo drivers (pngcairo, svgcairo).
 #pragma once
 
-#include <mutex>
+#include <functional>
 #include <string>
 #include <vector>
 
@@ -62,6 +62,11 @@ namespace fickcast::post
   /// True if this PLplot has the pngcairo and svgcairo devices.
   bool cairo_devices_available();
 
-  /// The lock every user of PLplot holds while drawing (PLplot keeps global state).
-  std::mutex &plplot_lock();
+  /**
+   * Calls @p render(device, file) for each format wanted (pngcairo to STEM.png, svgcairo to
+   * STEM.svg), each into a partial file renamed when complete, holding the PLplot lock (PLplot
+   * keeps global state). PostIoError if the cairo devices are missing.
+   */
+  void render_formats(const std::string &stem, const PlotFormats &formats,
+                      const std::function<void(const std::string &device, const std::string &file)> &render);
 } // namespace fickcast::post
