@@ -16,6 +16,8 @@ namespace fickcast::post
   public:
     /// Reads @p path; PostInputError if missing, empty, or a row has the wrong number of cells.
     static CsvTable read(const std::string &path);
+    /// Reads the text @p content as the file @p path would be read (for tables made in memory).
+    static CsvTable parse(const std::string &content, const std::string &path);
 
     /// Column index of @p name (without unit), or npos.
     std::size_t find(const std::string &name) const;
@@ -50,6 +52,9 @@ namespace fickcast::post
 
   /// Splits one CSV line into cells (double quotes group, `""` inside quotes is a quote).
   std::vector<std::string> split_csv_line(const std::string &line);
+
+  /// @p text as one CSV cell: quoted (quotes doubled) if it holds a comma, a quote or a line break.
+  std::string quote_csv_cell(const std::string &text);
 
   /// Parses @p text as a whole number in C locale; false if it is not one (or is empty).
   bool parse_number(const std::string &text, double &value);

@@ -6,6 +6,8 @@
 
 #include "patch_mesh.h"
 
+#include "case/units.h"
+
 #include <vtkCellData.h>
 #include <vtkDataArray.h>
 #include <vtkPointData.h>
@@ -33,12 +35,44 @@ namespace fickcast::post
     const auto cells = split_csv_line(text);
     Point point{0, 0, 0};
     const std::string expected = std::to_string(dimension) + " coordinate" + (dimension > 1 ? "s" : "") +
-                                 " in metres separated by commas (the case is " + std::to_string(dimension) + "-D)";
+                                 " separated by commas, in m or with a length unit (the case is " +
+                                 std::to_string(dimension) + "-D)";
     if (cells.size() != dimension)
       throw PostInputError(where, expected, "'" + text + "'");
+    // Each coordinate: a number and an optional unit; bare numbers take the unit written after
+    // the last coordinate (`0.1, 0.2 cm`), else metres.
+    std::vector<std::string> numbers(dimension), units(dimension);
     for (unsigned int d = 0; d < dimension; ++d)
-      if (!parse_number(cells[d], point[d]) || !std::isfinite(point[d]))
-        throw PostInputError(where, expected, "'" + text + "'");
+      {
+        const auto split = cells[d].find_first_not_of("0123456789.eE+-");
+        numbers[d] = cells[d].substr(0, split);
+        if (split != std::string::npos)
+          units[d] = cells[d].substr(split);
+        while (!units[d].empty() && units[d].front() == ' ')
+          units[d].erase(units[d].begin());
+        while (!numbers[d].empty() && numbers[d].back() == ' ')
+          numbers[d].pop_back();
+      }
+    const std::string shared_unit = units[dimension - 1];
+    for (unsigned int d = 0; d < dimension; ++d)
+      {
+        double number = 0;
+        if (!parse_number(numbers[d], number) || !std::isfinite(number))
+          throw PostInputError(where, expected, "'" + text + "'");
+        const std::string unit = units[d].empty() ? shared_unit : units[d];
+        if (unit.empty())
+          point[d] = number;
+        else
+          try
+            {
+              point[d] = UnitSystem::instance().to_si(number, unit, "m");
+            }
+          catch (const UnitError &)
+            {
+              throw PostInputError(where, "a length unit (m, cm, mm, um, nm, ft, in)",
+                                   "'" + unit + "' in '" + text + "'");
+            }
+      }
     return point;
   }
 

@@ -37,6 +37,8 @@ namespace fickcast::post
                         const std::vector<std::string> &fields, unsigned int dimension, unsigned int degree,
                         const std::string &file, const std::vector<Point> &sides = {});
 
-  /// Parses `X[,Y[,Z]]` with exactly @p dimension coordinates in metres; PostInputError otherwise.
+  /// Parses `X[,Y[,Z]]` with exactly @p dimension coordinates, each in metres or with a length unit
+  /// (`50 cm`); bare numbers take the unit after the last coordinate (`0.1, 0.2 cm`). PostInputError
+  /// otherwise.
   Point parse_point(const std::string &text, unsigned int dimension, const std::string &where);
 } // namespace fickcast::post

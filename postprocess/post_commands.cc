@@ -1,5 +1,6 @@
 #include "post_commands.h"
 
+#include "case_unit_table.h"
 #include "csv_table.h"
 #include "field_sampler.h"
 #include "output_file.h"
@@ -9,10 +10,14 @@
 #include "results_comparison.h"
 #include "results_folder.h"
 #include "run_plots.h"
+#include "study_table.h"
 #include "time_units.h"
+#include "timed_samples.h"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <filesystem>
 #include <iostream>
 #include <map>
 #include <set>
@@ -119,16 +124,6 @@ namespace fickcast::post
       return buffer;
     }
 
-    std::string csv_text(const std::string &text)
-    {
-      if (text.find_first_of(",\"") == std::string::npos)
-        return text;
-      std::string out = "\"";
-      for (const char c : text)
-        out += c == '"' ? std::string("\"\"") : std::string(1, c);
-      return out + "\"";
-    }
-
     std::vector<std::string> field_list(const Flags &flags, const std::vector<std::string> &fallback)
     {
       std::vector<std::string> fields;
@@ -139,13 +134,38 @@ namespace fickcast::post
       return fields.empty() ? fallback : fields;
     }
 
+    /// The units a study or sizing folder's cases were written in: those of its first run.
+    DisplayUnits units_of_first_run(const std::string &runs_folder)
+    {
+      std::vector<std::string> candidates;
+      if (std::filesystem::is_directory(runs_folder))
+        for (const auto &entry : std::filesystem::directory_iterator(runs_folder))
+          if (std::filesystem::is_regular_file(entry.path() / "summary.json"))
+            candidates.push_back(entry.path().string());
+      if (candidates.empty())
+        throw PostInputError(runs_folder, "the runs of the study (each with its summary.json) for the case's units",
+                             "none");
+      std::sort(candidates.begin(), candidates.end());
+      return case_units(read_run_summary(candidates.front() + "/summary.json"));
+    }
+
+    /// --units case|si: whether a table is written in the case's units.
+    bool in_case_units(const Flags &flags, const std::string &fallback)
+    {
+      const std::string units = flags.get("--units", fallback);
+      if (units != "case" && units != "si")
+        throw PostInputError("--units", "`case` (the units the case was written in) or `si`", "'" + units + "'");
+      return units == "case";
+    }
+
     int command_sample(const std::vector<std::string> &args)
     {
-      const Flags flags =
-        parse_flags(args, {"--from", "--to", "--points", "--at", "--time", "--field", "--output"}, {}, 1, "sample");
+      const Flags flags = parse_flags(
+        args, {"--from", "--to", "--points", "--at", "--time", "--field", "--output", "--units"}, {}, 1, "sample");
       const ResultsFolder results = open_results(flags.positional[0]);
       if (!results.fields)
         throw PostInputError(flags.positional[0] + "/fields/fields.pvd", "the fields of the run", "no such file");
+      const bool case_units_wanted = in_case_units(flags, "si");
       const unsigned int dim = results.summary.dimension;
       std::vector<Point> points;
       const bool line = flags.has("--from") || flags.has("--to");
@@ -168,16 +188,27 @@ namespace fickcast::post
           points.push_back(parse_point(at, dim, "--at"));
       const std::vector<std::string> fields = field_list(flags, {"concentration"});
       const FieldSeries &series = *results.fields;
-      const auto indices = series.select(flags.get("--time", "all"));
+      std::vector<std::string> notes;
+      const std::vector<double> times = requested_times(series, flags.get("--time", "all"), notes);
+      TimedSampler sampler(series, points, fields, dim, results.summary.degree);
+      // The interpolation estimate in the unit of the concentration when that is the only field.
+      std::string difference_unit;
+      double difference_scale = 1;
+      if (fields.size() == 1 && fields[0] == "concentration")
+        {
+          const DisplayUnits::Choice choice =
+            case_units_wanted ? case_units(results.summary).for_si_unit(results.summary.unit_concentration)
+                              : DisplayUnits::Choice{results.summary.unit_concentration, 1.0};
+          difference_unit = choice.symbol == "1" ? "" : " " + choice.symbol;
+          difference_scale = choice.si_per_unit;
+        }
 
       std::string csv;
       const char *axes[3] = {"x", "y", "z"};
-      for (std::size_t n = 0; n < indices.size(); ++n)
+      for (std::size_t n = 0; n < times.size(); ++n)
         {
-          const std::size_t k = indices[n];
-          const auto grid = series.load(k);
-          const Samples samples =
-            sample_fields(grid, points, fields, dim, results.summary.degree, series.times()[k].file);
+          const TimedSamples at = sampler.at(times[n]);
+          const Samples &samples = at.samples;
           if (n == 0)
             {
               csv = "time [s],point,distance [m]";
@@ -191,9 +222,21 @@ namespace fickcast::post
                 }
               csv += "\n";
             }
+          if (at.interpolated)
+            {
+              std::string note = "t = " + format_time(at.time) + " is not a stored state: values interpolated " +
+                                 "linearly in time between " + format_time(at.before) + " and " + format_time(at.after);
+              if (std::isfinite(at.difference))
+                note += "; the quadratic through " + format_time(at.third) + " differs by at most " +
+                        format_number(at.difference / difference_scale, 2) + difference_unit +
+                        (at.largest > 0
+                           ? " (" + format_number(100 * at.difference / at.largest, 2) + " % of the largest value)"
+                           : std::string());
+              notes.push_back(note);
+            }
           for (std::size_t i = 0; i < points.size(); ++i)
             {
-              csv += cell(series.times()[k].time) + "," + std::to_string(i) + "," + cell(samples.distance[i]);
+              csv += cell(at.time) + "," + std::to_string(i) + "," + cell(samples.distance[i]);
               for (unsigned int d = 0; d < dim; ++d)
                 csv += "," + cell(points[i][d]);
               for (const auto &values : samples.values)
@@ -201,8 +244,48 @@ namespace fickcast::post
               csv += "\n";
             }
         }
+      if (case_units_wanted)
+        csv = table_in_case_units(CsvTable::parse(csv, "samples"), case_units(results.summary));
       emit_csv(flags, csv);
+      for (const auto &note : notes)
+        std::cerr << "fickcast-post: sample: " << note << "\n";
       return 0;
+    }
+
+    int command_table(const std::vector<std::string> &args)
+    {
+      const Flags flags = parse_flags(args, {"--which", "--output", "--units"}, {}, 1, "table");
+      const std::string &folder = flags.positional[0];
+      require_folder(folder, "a results folder, a study folder or a sizing folder");
+      const bool case_units_wanted = in_case_units(flags, "case");
+      const std::string which = flags.get("--which", "");
+      auto write = [&](const CsvTable &table, const DisplayUnits &units, const bool events) {
+        emit_csv(flags, case_units_wanted ? table_in_case_units(table, units, events)
+                                          : read_file(table.path(), "a CSV table"));
+        return 0;
+      };
+      if (is_study_folder(folder) || is_size_folder(folder))
+        {
+          const bool study = is_study_folder(folder);
+          if (!which.empty() && which != (study ? "study" : "size"))
+            throw PostInputError(
+              "--which", study ? "`study` (the table of a study folder)" : "`size` (the table of a sizing folder)",
+              "'" + which + "'");
+          const CsvTable table = study ? read_study(folder).table : CsvTable::read(folder + "/size.csv");
+          return write(table, units_of_first_run(folder + (study ? "/cases" : "/runs")), study);
+        }
+      const ResultsFolder results = open_results(folder);
+      const DisplayUnits units = case_units(results.summary);
+      if (which.empty() || which == "series")
+        return write(results.series, units, false);
+      if (which == "profiles")
+        {
+          if (!results.profiles)
+            throw PostInputError(folder + "/profiles.csv", "the profiles of the run (a line.NAME in [output])",
+                                 "no such file");
+          return write(*results.profiles, units, false);
+        }
+      throw PostInputError("--which", "`series` or `profiles` (the tables of a results folder)", "'" + which + "'");
     }
 
     int command_integrate(const std::vector<std::string> &args)
@@ -233,8 +316,8 @@ namespace fickcast::post
           double measure = 0;
           for (std::size_t r = 0; r < integrals.regions.size(); ++r)
             {
-              csv +=
-                cell(series.times()[k].time) + "," + csv_text(integrals.regions[r]) + "," + cell(integrals.measure[r]);
+              csv += cell(series.times()[k].time) + "," + quote_csv_cell(integrals.regions[r]) + "," +
+                     cell(integrals.measure[r]);
               measure += integrals.measure[r];
               for (std::size_t f = 0; f < fields.size(); ++f)
                 {
@@ -335,9 +418,17 @@ namespace fickcast::post
     const std::map<std::string, std::string> commands{
       {"sample", "usage: fickcast-post sample RESULTS (--from X[,Y[,Z]] --to X[,Y[,Z]] [--points N] | --at "
                  "X[,Y[,Z]] ...)\n"
-                 "         [--time T|last|all] [--field NAME[,NAME]] [--output FILE.csv]\n"
+                 "         [--time T[,T...]|last|all] [--field NAME[,NAME]] [--units si|case] [--output FILE.csv]\n"
                  "  Field values along a straight line (N evenly spaced points, ends included) or at points,\n"
-                 "  at the chosen output times (default all); empty cells outside the mesh. Coordinates in m.\n"},
+                 "  at the chosen times (default all stored states); empty cells outside the mesh. Coordinates\n"
+                 "  in m or with a length unit (`--at \"50 cm\"`, `--at \"10, 4 mm\"`). A time between two\n"
+                 "  stored states is interpolated linearly in time; stderr says so, with an error estimate.\n"
+                 "  --units case writes times, lengths and concentrations in the units of the case (default si).\n"},
+      {"table", "usage: fickcast-post table FOLDER [--which series|profiles] [--units case|si] [--output FILE.csv]\n"
+                "  A results folder's series.csv (or profiles.csv), a study's sweep.csv or a sizing's size.csv\n"
+                "  written in the units of the case: times as time.end, lengths as the layers, concentrations,\n"
+                "  amounts and rates as the printout, fractions in %, events not reached named. The SI files\n"
+                "  stay as they are for scripts.\n"},
       {"integrate", "usage: fickcast-post integrate RESULTS [--time T|last|all] [--field NAME[,NAME]] [--output "
                     "FILE.csv]\n"
                     "  Integrals of point fields (default amount_per_volume, concentration) over each region and in\n"
@@ -354,9 +445,10 @@ namespace fickcast::post
                  "  sweep.csv gets a study report.\n"}};
     if (!command.empty() && commands.count(command))
       return commands.at(command);
-    std::string text = "usage: fickcast-post COMMAND ARGUMENTS   (COMMAND --help for one command)\n"
-                       "Reads what `fickcast run` wrote. Times: seconds or with a unit (s, min, h, d, yr).\n"
-                       "Exit codes: 0 done, 1 compare beyond tolerance, 2 bad input, 3 I/O error.\n\n";
+    std::string text =
+      "usage: fickcast-post COMMAND ARGUMENTS   (COMMAND --help for one command)\n"
+      "Reads what `fickcast run` wrote. Times: with a unit (s, min, h, d, yr, ...); a bare number is s.\n"
+      "Exit codes: 0 done, 1 compare beyond tolerance, 2 bad input, 3 I/O error.\n\n";
     for (const auto &[name, help] : commands)
       text += help;
     return text;
@@ -365,7 +457,7 @@ namespace fickcast::post
   int run_command(const std::vector<std::string> &arguments)
   {
     if (arguments.empty())
-      throw PostInputError("command line", "a command: sample, integrate, compare, plots or report", "none");
+      throw PostInputError("command line", "a command: sample, table, integrate, compare, plots or report", "none");
     const std::string &command = arguments[0];
     if (command == "--help" || command == "-h" || command == "help")
       {
@@ -386,6 +478,8 @@ namespace fickcast::post
         }
     if (command == "sample")
       return command_sample(rest);
+    if (command == "table")
+      return command_table(rest);
     if (command == "integrate")
       return command_integrate(rest);
     if (command == "compare")
@@ -394,6 +488,7 @@ namespace fickcast::post
       return command_plots(rest);
     if (command == "report")
       return command_report(rest);
-    throw PostInputError("command line", "a command: sample, integrate, compare, plots or report", "'" + command + "'");
+    throw PostInputError("command line", "a command: sample, table, integrate, compare, plots or report",
+                         "'" + command + "'");
   }
 } // namespace fickcast::post

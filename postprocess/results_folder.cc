@@ -54,6 +54,19 @@ namespace fickcast::post
     return {summary.unit_concentration, 1.0};
   }
 
+  DisplayUnits case_units(const RunSummary &summary)
+  {
+    CaseDescription description;
+    for (const auto &setting : summary.settings)
+      description.settings.push_back({setting.key, setting.written, setting.si, setting.origin});
+    description.units.concentration = summary.unit_concentration;
+    description.units.as_written =
+      summary.unit_concentration_written.empty() ? summary.unit_concentration : summary.unit_concentration_written;
+    description.units.amount = summary.unit_amount;
+    description.units.flux = summary.unit_flux;
+    return DisplayUnits(description, 10);
+  }
+
   DisplayUnit length_display(const double span_metres)
   {
     const double span = std::abs(span_metres);

@@ -5,6 +5,8 @@
 #include "field_series.h"
 #include "run_summary.h"
 
+#include "case/display_units.h"
+
 #include <optional>
 #include <string>
 
@@ -39,6 +41,10 @@ namespace fickcast::post
 
   /// The concentration unit the case was written in (e.g. mg/L), or the SI unit if unknown.
   DisplayUnit concentration_display(const RunSummary &summary);
+
+  /// The units the case of @p summary was written in, as `fickcast run` printed its results: time
+  /// of time.end, length of the layers, the first concentration unit, amounts derived from it.
+  DisplayUnits case_units(const RunSummary &summary);
 
   /// A length unit (m, mm, µm, nm) in which @p span_metres reads well.
   DisplayUnit length_display(double span_metres);

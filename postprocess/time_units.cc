@@ -3,6 +3,8 @@
 #include "csv_table.h"
 #include "post_error.h"
 
+#include "case/units.h"
+
 #include <cmath>
 #include <cstdio>
 #include <vector>
@@ -62,6 +64,13 @@ namespace fickcast::post
     for (const auto &unit : time_units())
       if (unit.symbol == symbol)
         return value * unit.seconds;
-    throw PostInputError(where, "a time unit s, min, h, d or yr", "'" + symbol + "'");
+    try
+      {
+        return UnitSystem::instance().to_si(value, symbol, "s");
+      }
+    catch (const UnitError &)
+      {
+        throw PostInputError(where, "a time unit (s, min, h, d, yr, ...)", "'" + symbol + "'");
+      }
   }
 } // namespace fickcast::post

@@ -2,7 +2,7 @@
 // line on a terminal, or one plain line per minute of wall time into a log.
 #pragma once
 
-#include "app/display_units.h"
+#include "case/display_units.h"
 #include "run/simulation.h"
 
 #include <chrono>

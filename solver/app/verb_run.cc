@@ -1,8 +1,8 @@
-#include "app/display_units.h"
 #include "app/exit_codes.h"
 #include "app/progress.h"
 #include "app/report_request.h"
 #include "app/verbs.h"
+#include "case/display_units.h"
 
 #include "case/case_reader.h"
 #include "run/run_case.h"

@@ -1,7 +1,7 @@
-#include "app/display_units.h"
 #include "app/exit_codes.h"
 #include "app/report_request.h"
 #include "app/verbs.h"
+#include "case/display_units.h"
 
 #include "case/case_reader.h"
 #include "studies/result_names.h"

@@ -23,7 +23,17 @@ case $name in
     copy; sed -i '4s/,[^,]*$//' "$out/results/series.csv"
     args=(report "$out/results"); fragment="$out/results/series.csv:4: expected" ;;
   unknown_time)
-    args=(sample "$base" --at 0.5 --time 3s); fragment="$base/fields/fields.pvd: expected an output time" ;;
+    args=(sample "$base" --at 0.5 --time 30s); fragment="$base/fields/fields.pvd: expected a time from 0 s to 10 s (the stored states)" ;;
+  integrate_time)
+    args=(integrate "$base" --time 3s); fragment="$base/fields/fields.pvd: expected an output time" ;;
+  length_unit)
+    args=(sample "$base" --at "0.5 kg"); fragment="--at: expected a length unit (m, cm, mm, um, nm, ft, in), found 'kg' in '0.5 kg'" ;;
+  time_unit)
+    args=(sample "$base" --at 0.5 --time "3 furlong"); fragment="--time: expected a time unit (s, min, h, d, yr, ...), found 'furlong'" ;;
+  table_which)
+    args=(table "$base" --which sweep); fragment="--which: expected \`series\` or \`profiles\` (the tables of a results folder), found 'sweep'" ;;
+  table_units)
+    args=(table "$base" --units imperial); fragment="--units: expected \`case\` (the units the case was written in) or \`si\`, found 'imperial'" ;;
   unknown_field)
     args=(sample "$base" --at 0.5 --time last --field nonsense); fragment="fields_0004.vtu: expected a field among" ;;
   missing_vtu)

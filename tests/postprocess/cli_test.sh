@@ -20,6 +20,29 @@ awk -F, 'NR==2 { if ($5 < 0.004999 || $5 > 0.005001) exit 1 }' "$out/s1.csv" || 
 "$post" sample "$base" --at 0.5 --time all --output "$out/s2.csv" || fail "sample at a point, all times"
 [ "$(wc -l <"$out/s2.csv")" -eq 6 ] || fail "sample --time all: expected 6 lines (5 times), found $(wc -l <"$out/s2.csv")"
 
+# sample with units: "50 cm" is 0.5 m; 6 s lies between the stored 5 s and 7.5 s: linear in time
+# (weights 0.6 and 0.4), and stderr says so
+"$post" sample "$base" --at "50 cm" --time 5s --output "$out/s3.csv" || fail "sample --at with a unit"
+[ "$(tail -1 "$out/s3.csv")" = "$(grep '^5,' "$out/s2.csv")" ] || fail "--at '50 cm' differs from --at 0.5"
+"$post" sample "$base" --at 0.5 --time "6 s" --output "$out/s4.csv" 2>"$out/s4.err" || fail "sample between states"
+grep -q "t = 6 s is not a stored state: values interpolated linearly in time between 5 s and 7.5 s" "$out/s4.err" \
+  || fail "sample between states did not say so: $(cat "$out/s4.err")"
+v5=$(awk -F, '$1 == 5 { print $5 }' "$out/s2.csv") v75=$(awk -F, '$1 == 7.5 { print $5 }' "$out/s2.csv")
+awk -F, -v a="$v5" -v b="$v75" 'NR == 2 { e = 0.6 * a + 0.4 * b; d = $5 - e; if (d < 0) d = -d; exit !(d <= 1e-9 * e) }' \
+  "$out/s4.csv" || fail "value at 6 s is not 0.6 x (5 s) + 0.4 x (7.5 s): $(tail -1 "$out/s4.csv"), $v5, $v75"
+
+# table: series.csv in the case's units (mg/L for point.mid: 1000 x kg/m3), the SI file untouched
+sum_before=$(md5sum <"$base/series.csv")
+"$post" table "$base" --output "$out/t.csv" || fail "table"
+head -1 "$out/t.csv" | grep -q 'time \[s\],.*point.mid \[mg/L\]' || fail "table header: $(head -1 "$out/t.csv")"
+column=$(head -1 "$base/series.csv" | tr ',' '\n' | grep -n '^point.mid' | cut -d: -f1)
+si=$(tail -1 "$base/series.csv" | cut -d, -f"$column") shown=$(tail -1 "$out/t.csv" | cut -d, -f"$column")
+awk -v a="$si" -v b="$shown" 'BEGIN { d = b - 1000 * a; if (d < 0) d = -d; exit !(a > 0 && d <= 1e-8 * b) }' \
+  || fail "table: point.mid $shown mg/L is not 1000 x $si kg/m3"
+[ "$(md5sum <"$base/series.csv")" = "$sum_before" ] || fail "table changed series.csv"
+"$post" table "$base" --which profiles | head -1 | grep -q 'concentration \[mg/L\]' || fail "table --which profiles"
+"$post" table "$base" --units si | cmp -s - "$base/series.csv" || fail "table --units si is not series.csv"
+
 # integrate: regions by name plus total, per time
 "$post" integrate "$base" --time last --output "$out/i.csv" || fail "integrate"
 grep -q '^10,upper,' "$out/i.csv" && grep -q '^10,lower,' "$out/i.csv" && grep -q '^10,total,' "$out/i.csv" \

@@ -8,7 +8,8 @@
 namespace fickcast
 {
   /// Converts SI results back into the units the case used (time of time.end, length of the
-  /// layers, the first concentration unit written).
+  /// layers or else of the first geometry key or point written with a length unit,
+  /// the first concentration unit written).
   class DisplayUnits
   {
   public:
@@ -32,10 +33,25 @@ namespace fickcast
      */
     std::string result(double value, const std::string &si_unit, bool event = false) const;
 
+    /// A unit to show a quantity in and its size in SI (shown value = SI value / si_per_unit).
+    struct Choice
+    {
+      std::string symbol;
+      double si_per_unit = 1;
+    };
+
+    /**
+     * The case's unit for a column or value whose SI unit is @p si_unit: times, lengths,
+     * concentrations, amounts and amounts per time as the printout shows them; a fraction
+     * (unit `1` or empty) stays a fraction; anything else (a diffusivity, a temperature) stays SI.
+     */
+    Choice for_si_unit(const std::string &si_unit) const;
+
   private:
     std::string format(double value, const std::string &unit) const;
     int digits_;
     std::string time_unit_, length_unit_, concentration_unit_, amount_unit_, rate_unit_;
+    std::string si_concentration_, si_amount_;
     double time_factor_ = 1, length_factor_ = 1, concentration_factor_ = 1, amount_factor_ = 1, rate_factor_ = 1;
   };
 } // namespace fickcast

@@ -1,4 +1,4 @@
-#include "app/display_units.h"
+#include "case/display_units.h"
 
 #include "case/quantity_text.h"
 #include "case/units.h"
@@ -51,6 +51,31 @@ namespace fickcast
           }
       return "";
     }
+
+    /// Without layers: the length unit of the first geometry key, then of the first point or line
+    /// of [output], written with one (a mesh case with points in um reads in um).
+    std::string first_length_unit(const CaseDescription &c)
+    {
+      for (const std::string prefix : {"geometry.", "output.point.", "output.line."})
+        for (const auto &record : c.settings)
+          if (record.key.compare(0, prefix.size(), prefix) == 0 && record.origin != "default")
+            {
+              const auto items = split_list(record.written);
+              if (items.empty())
+                continue;
+              try
+                {
+                  const std::string unit = split_quantity(items.front(), false).unit;
+                  if (!unit.empty() && UnitSystem::instance().convertible(unit, "m"))
+                    return unit;
+                }
+              catch (...)
+                {
+                  // Not a length: look further.
+                }
+            }
+      return "";
+    }
   } // namespace
 
   DisplayUnits::DisplayUnits(const CaseDescription &c, const int digits)
@@ -76,7 +101,8 @@ namespace fickcast
         }
     };
     time_factor_ = factor(written_unit(c, "time.end"), "s", time_unit_);
-    length_factor_ = factor(layer_unit(c), "m", length_unit_);
+    const std::string layers = layer_unit(c);
+    length_factor_ = factor(layers.empty() ? first_length_unit(c) : layers, "m", length_unit_);
     concentration_factor_ = factor(c.units.as_written == c.units.concentration ? "" : c.units.as_written,
                                    c.units.concentration, concentration_unit_);
 
@@ -87,6 +113,8 @@ namespace fickcast
     const std::string &as_written = c.units.as_written;
     const auto slash = as_written.find('/');
     const std::string &si_amount = c.units.amount;
+    si_concentration_ = c.units.concentration;
+    si_amount_ = si_amount;
     const unsigned int measure = si_amount.size() > 3 && si_amount.compare(si_amount.size() - 3, 3, "/m2") == 0  ? 2
                                  : si_amount.size() > 2 && si_amount.compare(si_amount.size() - 2, 2, "/m") == 0 ? 1
                                                                                                                  : 0;
@@ -135,6 +163,21 @@ namespace fickcast
     else
       std::snprintf(buffer, sizeof(buffer), "%.*g %s", digits_, value, si_unit.c_str());
     return buffer;
+  }
+
+  DisplayUnits::Choice DisplayUnits::for_si_unit(const std::string &si_unit) const
+  {
+    if (si_unit == "s")
+      return {time_unit_, time_factor_};
+    if (si_unit == "m")
+      return {length_unit_, length_factor_};
+    if (!si_concentration_.empty() && si_unit == si_concentration_ && si_unit != "1")
+      return {concentration_unit_, concentration_factor_};
+    if (!si_amount_.empty() && si_unit == si_amount_ && si_unit != "1")
+      return {amount_unit_, amount_factor_};
+    if (!si_amount_.empty() && si_unit == si_amount_ + "/s")
+      return {rate_unit_, rate_factor_};
+    return {si_unit, 1.0};
   }
 
   std::string DisplayUnits::time(const double seconds) const
