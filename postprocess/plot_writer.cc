@@ -146,7 +146,10 @@ namespace fickcast::post
       const double legend_room = 0.045 * n_rows;
       const double bottom = 0.13 + legend_room;
       plvpor(0.135, 0.96, bottom, 0.89);
-      plwind(xr.min, xr.max, yr.min, yr.max);
+      if (spec.downward)
+        plwind(xr.min, xr.max, yr.max, yr.min);
+      else
+        plwind(xr.min, xr.max, yr.min, yr.max);
       plsxax(5, 0);
       plsyax(5, 0);
       plcol0(grid_colour);

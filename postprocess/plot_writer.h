@@ -25,8 +25,9 @@ namespace fickcast::post
     std::string x_label; ///< quantity and unit, e.g. "time [yr]"; a power of ten goes into the brackets
     std::string y_label;
     std::vector<PlotCurve> curves;
-    bool log_y = false;  ///< logarithmic value axis (non-positive values are left out)
-    std::string subject; ///< the case it belongs to (its title); shown on the title line
+    bool log_y = false;    ///< logarithmic value axis (non-positive values are left out)
+    std::string subject;   ///< the case it belongs to (its title); shown on the title line
+    bool downward = false; ///< the value axis grows downward (a depth), its largest value at the bottom
   };
 
   /// Which files to write.

@@ -4,6 +4,7 @@
 
 #include "field_sampler.h"
 #include "output_file.h"
+#include "plot_marks.h"
 #include "time_units.h"
 
 #include <algorithm>
@@ -66,6 +67,21 @@ namespace fickcast::post
       bool partition_jump() const
       {
         double low = 1, high = 1;
+        partition_range(low, high);
+        return high > 10 * low;
+      }
+
+      /// Some region has a partition coefficient other than 1: its phase concentration differs
+      /// from the reference phase's.
+      bool any_partition() const
+      {
+        double low = 1, high = 1;
+        partition_range(low, high);
+        return low != 1 || high != 1;
+      }
+
+      void partition_range(double &low, double &high) const
+      {
         for (const auto &s : results.summary.settings)
           {
             const std::string suffix = ".partition";
@@ -79,7 +95,6 @@ namespace fickcast::post
                 high = std::max(high, k);
               }
           }
-        return high > 10 * low;
       }
 
       /// What a profile caption says of a logarithmic axis chosen for a partition jump.
@@ -89,6 +104,71 @@ namespace fickcast::post
                  ? " Logarithmic axis: the regions' partition coefficients differ more than tenfold, so the "
                    "concentration jumps by that factor at their interfaces."
                  : "";
+      }
+
+      /// Marks on a 1-D depth profile (x in units of @p length): the layer interfaces and, for the
+      /// phase concentration, each depth.NAME level with its crossings at the @p times drawn.
+      /// Returns what the caption should add.
+      std::string mark_profile(PlotSpec &spec, const DisplayUnit &length, const std::vector<double> &times,
+                               const bool levels, const double origin = 0) const
+      {
+        const RunSummary &summary = results.summary;
+        std::string caption;
+        std::vector<double> positions;
+        std::string between;
+        for (const auto &interface : layer_interfaces(summary))
+          {
+            positions.push_back((interface.position - origin) / length.si_per_unit);
+            between += (between.empty() ? "" : ", ") + interface.between;
+          }
+        double x_low = 0, x_high = 0;
+        bool any = false;
+        for (const auto &curve : spec.curves)
+          for (const double x : curve.x)
+            if (std::isfinite(x))
+              {
+                x_low = any ? std::min(x_low, x) : x;
+                x_high = any ? std::max(x_high, x) : x;
+                any = true;
+              }
+        if (!positions.empty())
+          {
+            add_vertical_marks(spec, positions, "interface" + std::string(positions.size() > 1 ? "s " : " ") + between);
+            caption += " Grey vertical lines: the layer interfaces.";
+          }
+        if (!levels || !any)
+          return caption;
+        const Json::Value &all = summary.results;
+        for (const auto &name : all.getMemberNames())
+          {
+            const Json::Value &d = all[name];
+            if (name.rfind("depth.", 0) != 0 || !d.isObject() || !d["level"].isNumeric())
+              continue;
+            const double level = d["level"].asDouble() / concentration.si_per_unit;
+            PlotCurve line{
+              name + " level " + format_number(level) + " " + concentration.symbol, {x_low, x_high}, {level, level}};
+            line.reference = true;
+            spec.curves.push_back(line);
+            PlotCurve crossings{name + " at the times drawn", {}, {}};
+            crossings.markers_only = true;
+            if (summary.coordinates == "cartesian")
+              for (Json::ArrayIndex i = 0; i < d["times"].size() && i < d["depths"].size(); ++i)
+                {
+                  const double t = d["times"][i].asDouble(), depth = d["depths"][i].asDouble();
+                  const bool drawn = std::any_of(times.begin(), times.end(), [&](const double shown) {
+                    return std::abs(shown - t) <= 1e-9 * std::max(std::abs(t), 1.0);
+                  });
+                  if (drawn && t > 0 && d["depths"][i].isNumeric() && std::isfinite(depth))
+                    {
+                      crossings.x.push_back((depth - origin) / length.si_per_unit);
+                      crossings.y.push_back(level);
+                    }
+                }
+            if (!crossings.x.empty())
+              spec.curves.push_back(crossings);
+            caption += " The dashed level of " + name + " and, marked, its depth at the times drawn.";
+          }
+        return caption;
       }
 
       /// Time axis values and label (plain or square root of time).
@@ -108,6 +188,7 @@ namespace fickcast::post
       const CsvTable &table = *context.results.profiles;
       const auto time = table.numbers("time"), distance = table.numbers("distance"),
                  value = table.numbers("concentration");
+      const std::vector<double> x = table.has("x") ? table.numbers("x") : std::vector<double>{};
       const std::size_t line_column = table.require("line");
       std::vector<std::string> lines;
       for (const auto &row : table.rows())
@@ -130,25 +211,36 @@ namespace fickcast::post
           spec.x_label = "distance along the line" + bracket(length.symbol);
           spec.y_label = "concentration" + bracket(context.concentration.symbol);
           spec.log_y = context.log_profiles();
+          std::vector<double> drawn;
+          double origin = nan, direction = 1;
           for (const std::size_t k : spread_indices(times.size(), context.options.max_times))
             {
               PlotCurve curve;
               curve.label = "t = " + format_time(times[k]);
+              drawn.push_back(times[k]);
               for (std::size_t r = 0; r < table.n_rows(); ++r)
                 if (table.rows()[r][line_column] == line && time[r] == times[k])
                   {
                     curve.x.push_back(distance[r] / length.si_per_unit);
                     curve.y.push_back(value[r] / context.concentration.si_per_unit);
+                    if (std::isnan(origin) && x.size() == time.size())
+                      origin = x[r];
+                    if (x.size() == time.size() && distance[r] > 0)
+                      direction = x[r] >= origin ? 1 : -1;
                   }
               spec.curves.push_back(curve);
             }
+          // A 1-D line that runs down from its start: interfaces and depth levels at their distance.
+          std::string marks;
+          if (context.results.summary.dimension == 1 && std::isfinite(origin) && direction > 0)
+            marks = context.mark_profile(spec, length, drawn, origin == 0, origin);
           context.emit(spec, "profile_" + line,
                        "Concentration (in each region's own phase) along sampling line " + line +
-                         " at output times, from profiles.csv." + context.log_note());
+                         " at output times, from profiles.csv." + context.log_note() + marks);
         }
     }
 
-    void profiles_from_fields(Context &context)
+    void profiles_from_fields(Context &context, const std::string &field = "concentration")
     {
       const FieldSeries &series = *context.results.fields;
       const RunSummary &summary = context.results.summary;
@@ -165,8 +257,9 @@ namespace fickcast::post
       const DisplayUnit length = length_display(to[axis] - from[axis]);
       const char *names[3] = {"x", "y", "z"};
       const bool radial = summary.coordinates == "cylinder" || summary.coordinates == "sphere";
+      const bool reference = field == "reference_concentration";
       PlotSpec spec;
-      spec.title = "Concentration profiles through the mesh";
+      spec.title = reference ? "Reference-phase concentration profiles" : "Concentration profiles through the mesh";
       std::string where;
       if (summary.dimension == 1)
         spec.x_label =
@@ -182,14 +275,17 @@ namespace fickcast::post
                        format_number(from[d] / length.si_per_unit) + " " + length.symbol;
           spec.title += " (" + where + ")";
         }
-      spec.y_label = "concentration" + bracket(context.concentration.symbol);
-      spec.log_y = context.log_profiles();
+      spec.y_label =
+        (reference ? "reference-phase concentration" : "concentration") + bracket(context.concentration.symbol);
+      spec.log_y = reference ? summary.unit_concentration == "1/m3" : context.log_profiles();
+      std::vector<double> drawn;
       const auto points = line_points(from, to, context.options.n_samples);
       for (const std::size_t k : spread_indices(series.times().size(), context.options.max_times))
         {
           const auto grid = k == 0 ? first : series.load(k);
           const Samples samples =
-            sample_fields(grid, points, {"concentration"}, summary.dimension, summary.degree, series.times()[k].file);
+            sample_fields(grid, points, {field}, summary.dimension, summary.degree, series.times()[k].file);
+          drawn.push_back(series.times()[k].time);
           PlotCurve curve;
           curve.label = "t = " + format_time(series.times()[k].time);
           for (std::size_t i = 0; i < points.size(); ++i)
@@ -199,10 +295,20 @@ namespace fickcast::post
             }
           spec.curves.push_back(curve);
         }
-      context.emit(spec, "profile_fields",
-                   "Concentration (in each region's own phase) sampled from the written fields along the " +
-                     std::string(summary.dimension == 1 ? "mesh" : "line " + where) +
-                     " at output times (linear between the nodes of each cell's output patch)." + context.log_note());
+      const std::string marks =
+        summary.dimension == 1 ? context.mark_profile(spec, length, drawn, !reference && !radial) : std::string();
+      if (reference)
+        context.emit(spec, "profile_reference",
+                     "Concentration in the reference phase (each region's own concentration divided by its "
+                     "partition coefficient), continuous across interfaces where the partitions make the phase "
+                     "concentration jump, sampled from the written fields along the " +
+                       std::string(summary.dimension == 1 ? "mesh" : "line " + where) + " at output times." + marks);
+      else
+        context.emit(spec, "profile_fields",
+                     "Concentration (in each region's own phase) sampled from the written fields along the " +
+                       std::string(summary.dimension == 1 ? "mesh" : "line " + where) +
+                       " at output times (linear between the nodes of each cell's output patch)." + context.log_note() +
+                       marks);
     }
 
     void point_histories(Context &context)
@@ -229,9 +335,11 @@ namespace fickcast::post
                 spec.curves.push_back(line);
               }
           }
+      const bool stages = add_stage_marks(spec, context.results.summary, context.time_unit.seconds);
       context.emit(spec, "points",
                    "Concentration at each named point against time, from series.csv; dashed grey "
-                   "lines are the threshold levels of summary.json.");
+                   "lines are the threshold levels of summary.json" +
+                     std::string(stages ? " and the vertical ones the stage changes." : "."));
     }
 
     void release(Context &context, const bool root)
@@ -265,12 +373,14 @@ namespace fickcast::post
                 spec.curves.push_back(line);
               }
           }
+      const bool stages = !root && add_stage_marks(spec, context.results.summary, context.time_unit.seconds);
       context.emit(spec, column + (root ? "_sqrt" : ""),
                    (uptake ? "Fraction of the equilibrium uptake that has entered the body, from series.csv"
                            : "Fraction of the reference content that has left the body, from series.csv") +
                      std::string(root ? "; against the square root of time, where the early part for a slab is a "
                                         "straight line."
-                                      : "."));
+                                      : ".") +
+                     (stages ? " Grey vertical lines: the stage changes." : ""));
     }
 
     void amounts(Context &context, const bool root)
@@ -300,10 +410,11 @@ namespace fickcast::post
           if (has_finite(values, true))
             spec.curves.push_back({text, t, values});
         }
+      const bool stages = !root && add_stage_marks(spec, context.results.summary, context.time_unit.seconds);
       context.emit(spec, root ? "amounts_sqrt" : "amounts",
                    "Amounts in the body and per region, and cumulative amounts entered through each face (inward "
                    "positive), from series.csv, in " +
-                     unit + ".");
+                     unit + "." + (stages ? " Grey vertical lines: the stage changes." : ""));
     }
 
     /// One plot per open face: the rate through it (inward positive) against time, in the amount
@@ -379,6 +490,7 @@ namespace fickcast::post
                   spec.curves.push_back(peak);
                 }
             }
+          const bool stages = add_stage_marks(spec, context.results.summary, context.time_unit.seconds);
           context.emit(spec, "rate_" + face,
                        "Rate at which the species crosses " + face +
                          " (into the body positive, out of it negative), "
@@ -388,7 +500,8 @@ namespace fickcast::post
                          "lines: rate limits asked of this face; a mark: its largest rate." +
                          std::string(spec.log_y ? " Logarithmic axis: the rate falls by more than tenfold "
                                                   "over the run (drawn from the first thousandth of it on)."
-                                                : ""));
+                                                : "") +
+                         (stages ? " Grey vertical lines: the stage changes." : ""));
         }
     }
 
@@ -479,9 +592,24 @@ namespace fickcast::post
             spec.x_label = "time [" + context.time_unit.symbol + "]";
             spec.y_label = "depth" + bracket(length.symbol);
             spec.curves.push_back({name, t, scaled(depth, length.si_per_unit)});
+            spec.downward = true;
+            // The layer interfaces the front has reached, as horizontal lines.
+            std::string crossed;
+            for (const auto &interface : layer_interfaces(context.results.summary))
+              if (interface.position <= span && !t.empty())
+                {
+                  const double y = interface.position / length.si_per_unit;
+                  PlotCurve line{"interface " + interface.between, {t.front(), t.back()}, {y, y}};
+                  line.reference = true;
+                  spec.curves.push_back(line);
+                  crossed = " Grey horizontal lines: the layer interfaces it has reached.";
+                }
+            const bool stages = add_stage_marks(spec, context.results.summary, context.time_unit.seconds);
             context.emit(spec, "depth_" + name.substr(6),
                          "Depth where the concentration falls below " + format_number(level) + " " +
-                           context.concentration.symbol + " at each output time, from summary.json.");
+                           context.concentration.symbol +
+                           " at each output time, from summary.json; depth grows downward, as in a section." + crossed +
+                           (stages ? " Grey vertical lines: the stage changes." : ""));
           }
     }
   } // namespace
@@ -515,6 +643,8 @@ namespace fickcast::post
       profiles_from_table(context);
     else if (results.fields)
       profiles_from_fields(context);
+    if (results.fields && context.any_partition())
+      profiles_from_fields(context, "reference_concentration");
     point_histories(context);
     depths(context);
     release(context, false);

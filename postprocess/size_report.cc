@@ -68,7 +68,8 @@ namespace fickcast::post
                   result + (shown_unit.empty() ? "" : " [" + shown_unit + "]"),
                   {runs, goal},
                   false,
-                  summary["title"].asString()};
+                  summary["title"].asString(),
+                  false};
     const bool plotted = write_plot(spec, folder + "/size_runs", formats);
 
     std::string body = "<h1>Sizing search: " + html_escape(key) + "</h1>\n<p class=\"meta\">Read from <code>" +

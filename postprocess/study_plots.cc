@@ -152,8 +152,13 @@ namespace fickcast::post
                 histogram.x.insert(histogram.x.end(), {left, left, left + width, left + width});
                 histogram.y.insert(histogram.y.end(), {0, counts[b], counts[b], 0});
               }
-            PlotSpec distribution{
-              "Distribution of " + study.table.names()[r], result.label, "number of cases", {histogram}, false, {}};
+            PlotSpec distribution{"Distribution of " + study.table.names()[r],
+                                  result.label,
+                                  "number of cases",
+                                  {histogram},
+                                  false,
+                                  {},
+                                  false};
             emit(distribution, "distribution_" + safe(study.table.names()[r]),
                  "Histogram of " + study.table.names()[r] + " over the " + std::to_string(finite.size()) +
                    " completed cases where it has a value (" + std::to_string(bins) + " equal bins)" + beyond + ".");
@@ -167,7 +172,8 @@ namespace fickcast::post
                                 "probability of exceeding [%]",
                                 {{"cases (Weibull plotting position)", levels, probability}},
                                 false,
-                                {}};
+                                {},
+                                false};
             for (const auto &[name, p] : {std::pair<const char *, double>{"P5", 0.05}, {"P50", 0.5}, {"P95", 0.95}})
               {
                 const double q = sample_quantile(all, p);
@@ -204,7 +210,8 @@ namespace fickcast::post
                              "input (see the legend)",
                              {},
                              false,
-                             {}};
+                             {},
+                             false};
             // Largest |correlation| on top, as in a tornado chart.
             std::vector<std::pair<double, std::size_t>> bars;
             for (const std::size_t p : study.parameters)
@@ -256,7 +263,8 @@ namespace fickcast::post
                           result.label,
                           {},
                           false,
-                          {}};
+                          {},
+                          false};
             // A grid: one line per combination of the other varied parameters' values.
             std::map<std::string, std::vector<std::size_t>> series;
             for (std::size_t i = 0; i < x.size(); ++i)

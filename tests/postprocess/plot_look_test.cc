@@ -152,4 +152,50 @@ namespace fickcast::post
     EXPECT_GT(outside, 8);
     EXPECT_EQ(inside, 0);
   }
+
+  // A depth against time is drawn growing downward (as a section is): a rising curve runs from
+  // the top left to the bottom right of the frame; without `downward` it runs the other way.
+  TEST(PlotLook, DepthAxisGrowsDownward)
+  {
+    for (const bool downward : {true, false})
+      {
+        PlotSpec spec;
+        spec.title = "Depth check";
+        spec.x_label = "time [h]";
+        spec.y_label = "depth [m]";
+        spec.downward = downward;
+        PlotCurve curve{"depth", {}, {}};
+        for (int i = 0; i <= 50; ++i)
+          {
+            curve.x.push_back(i);
+            curve.y.push_back(i * 0.02);
+          }
+        spec.curves.push_back(curve);
+        const std::string stem =
+          testing::scratch_folder(std::string("post_plot_depth_") + (downward ? "down" : "up")) + "/depth";
+        ASSERT_TRUE(write_plot(spec, stem, {true, false}));
+        const Picture picture(stem + ".png");
+        // Mean row of the curve's colour in the left and the right fifth of the picture (above the legend).
+        auto mean_row = [&](const int from, const int to) {
+          double sum = 0;
+          long n = 0;
+          for (int x = from; x < to; ++x)
+            for (int y = 0; y < picture.height * 4 / 5; ++y)
+              if (picture.is(x, y, first_curve))
+                {
+                  sum += y;
+                  ++n;
+                }
+          return n > 0 ? sum / n : std::nan("");
+        };
+        const double left = mean_row(picture.width / 5, picture.width * 2 / 5),
+                     right = mean_row(picture.width * 3 / 5, picture.width * 4 / 5);
+        std::printf("downward %d: curve at row %.0f on the left, %.0f on the right\n", downward, left, right);
+        ASSERT_TRUE(std::isfinite(left) && std::isfinite(right));
+        if (downward)
+          EXPECT_LT(left + 50, right);
+        else
+          EXPECT_GT(left, right + 50);
+      }
+  }
 } // namespace fickcast::post
