@@ -46,9 +46,12 @@ namespace fickcast::post
       // The body to scale inside the room left of the colour bar (page 1000 x 640 px).
       const double x0 = map.x.front(), x1 = map.x.back(), y0 = map.y.front(), y1 = map.y.back();
       const double room_left = 0.12, room_right = 0.80, room_bottom = 0.13, room_top = 0.89;
-      const double scale =
-        std::min((room_right - room_left) * 1000 / (x1 - x0), (room_top - room_bottom) * 640 / (y1 - y0));
-      const double width = (x1 - x0) * scale / 1000, height = (y1 - y0) * scale / 640;
+      // A slender body: its narrow side stretched (map_stretch; the caption says so).
+      const double stretch = map_stretch(map);
+      const double sx = (x1 - x0) * (x1 - x0 < y1 - y0 ? stretch : 1.0),
+                   sy = (y1 - y0) * (y1 - y0 <= x1 - x0 ? stretch : 1.0);
+      const double scale = std::min((room_right - room_left) * 1000 / sx, (room_top - room_bottom) * 640 / sy);
+      const double width = sx * scale / 1000, height = sy * scale / 640;
       const double left = room_left + 0.5 * (room_right - room_left - width);
       const double bottom = room_bottom + 0.5 * (room_top - room_bottom - height);
       plvpor(left, left + width, bottom, bottom + height);
@@ -69,7 +72,18 @@ namespace fickcast::post
                nullptr);
       plcol0(1);
       plwidth(1);
-      plbox("bcnsti", 0, 0, "bcnstvi", 0, 0);
+      plsxax(6, 0);
+      plsyax(6, 0);
+      // About one labelled tick per 120 px of the side (a stretched narrow side gets few).
+      auto step = [](const double span, const double pixels) {
+        const double raw = span / std::max(2.0, std::floor(pixels / 120));
+        const double decade = std::pow(10.0, std::floor(std::log10(raw)));
+        for (const double m : {1.0, 2.0, 5.0, 10.0})
+          if (m * decade >= raw)
+            return m * decade;
+        return 10 * decade;
+      };
+      plbox("bcnsti", step(x1 - x0, width * 1000), 0, "bcnstvi", step(y1 - y0, height * 640), 0);
       plmtex("b", 3.2, 0.5, 0.5, map.x_label.c_str());
       plmtex("l", 4.2, 0.5, 0.5, map.y_label.c_str());
       const std::string title = map.subject.empty() ? map.title : map.title + "  \u2013  " + map.subject;
@@ -97,6 +111,15 @@ namespace fickcast::post
       plsstrm(previous);
     }
   } // namespace
+
+  double map_stretch(const FieldMap &map)
+  {
+    if (map.x.size() < 2 || map.y.size() < 2)
+      return 1;
+    const double w = std::abs(map.x.back() - map.x.front()), h = std::abs(map.y.back() - map.y.front());
+    const double ratio = std::min(w, h) / std::max(w, h);
+    return ratio > 0 && ratio < 0.125 ? 0.25 / ratio : 1.0;
+  }
 
   bool write_field_map(const FieldMap &map, const std::string &stem, const PlotFormats &formats)
   {

@@ -24,9 +24,16 @@ namespace fickcast::post
   };
 
   /**
+   * How much the narrow side of @p map is stretched when drawn: 1 (to scale) unless it is less
+   * than an eighth of the long side, then enough to make it a quarter of it (a slender column
+   * drawn to scale would be a line). The caption must say so when it is not 1.
+   */
+  double map_stretch(const FieldMap &map);
+
+  /**
    * Writes @p map as STEM.png and/or STEM.svg: the field in twelve filled bands of a sequential
    * colour ramp of our own (pale sand to deep blue, lighter meaning less), the body drawn to scale
-   * (equal lengths on both axes), points outside it left white, and a colour bar with the band
+   * (equal lengths on both axes) but for map_stretch(), points outside it left white, and a colour bar with the band
    * edges on the right. Returns false (writing nothing) if the map has fewer than two distinct
    * finite values. PostIoError as write_plot.
    */

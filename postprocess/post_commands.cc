@@ -383,13 +383,24 @@ namespace fickcast::post
       return formats;
     }
 
+    /// The --map-time values, joined into one list.
+    std::string map_times_of(const Flags &flags)
+    {
+      std::string times;
+      for (const auto &value : flags.all("--map-time"))
+        times += (times.empty() ? "" : ", ") + value;
+      return times;
+    }
+
     int command_plots(const std::vector<std::string> &args)
     {
-      const Flags flags = parse_flags(args, {"--output"}, {"--sqrt-time", "--png-only", "--svg-only"}, 1, "plots");
+      const Flags flags =
+        parse_flags(args, {"--output", "--map-time"}, {"--sqrt-time", "--png-only", "--svg-only"}, 1, "plots");
       const ResultsFolder results = open_results(flags.positional[0]);
       RunPlotOptions options;
       options.formats = formats_of(flags);
       options.sqrt_time = flags.has("--sqrt-time");
+      options.map_times = map_times_of(flags);
       const std::string folder = flags.get("--output", flags.positional[0] + "/plots");
       const auto plots = make_run_plots(results, folder, options);
       for (const auto &plot : plots)
@@ -400,12 +411,14 @@ namespace fickcast::post
 
     int command_report(const std::vector<std::string> &args)
     {
-      const Flags flags = parse_flags(args, {"--output", "--verification"}, {"--sqrt-time", "--no-svg"}, 1, "report");
+      const Flags flags =
+        parse_flags(args, {"--output", "--verification", "--map-time"}, {"--sqrt-time", "--no-svg"}, 1, "report");
       ReportOptions options;
       options.output_folder = flags.get("--output", "");
       options.verification_report = flags.get("--verification", "");
       options.sqrt_time = flags.has("--sqrt-time");
       options.formats.svg = !flags.has("--no-svg");
+      options.map_times = map_times_of(flags);
       const std::string &folder = flags.positional[0];
       const ReportOutcome outcome = make_any_report(folder, options);
       std::cout << outcome.html << '\n';
@@ -436,11 +449,13 @@ namespace fickcast::post
       {"compare", "usage: fickcast-post compare A B [--field NAME[,NAME]] [--tolerance REL] [--output FILE.csv]\n"
                   "  Largest difference per field and output time between results folders A and B, and relative to\n"
                   "  the largest magnitude in A. Exit 1 if a relative difference exceeds --tolerance.\n"},
-      {"plots", "usage: fickcast-post plots RESULTS [--output DIR] [--sqrt-time] [--png-only|--svg-only]\n"
-                "  Profiles, point histories, depths, released fraction and amounts as PNG and SVG (default\n"
-                "  RESULTS/plots).\n"},
+      {"plots", "usage: fickcast-post plots RESULTS [--output DIR] [--sqrt-time] [--png-only|--svg-only] [--map-time "
+                "T[,T...]]\n"
+                "  Profiles, point histories, depths, released fraction, amounts, rates per face and (2-D, 3-D)\n"
+                "  field maps as PNG and SVG (default RESULTS/plots). --map-time: when to draw the field maps\n"
+                "  (any time within the stored states; default the middle and the last one).\n"},
       {"report", "usage: fickcast-post report RESULTS|STUDY [--output DIR] [--verification FILE] [--sqrt-time] "
-                 "[--no-svg]\n"
+                 "[--no-svg] [--map-time T[,T...]]\n"
                  "  Plots and a self-contained HTML report, RESULTS/report/index.html by default. A folder with\n"
                  "  sweep.csv gets a study report.\n"}};
     if (!command.empty() && commands.count(command))

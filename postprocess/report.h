@@ -18,6 +18,8 @@ namespace fickcast::post
     std::string verification_report;
     /// Also plot release and amounts against the square root of time.
     bool sqrt_time = false;
+    /// Times of the field maps of a 2-D or 3-D run (see RunPlotOptions::map_times).
+    std::string map_times;
     /// Image files to write (the report embeds the PNGs; the SVGs are written beside them).
     PlotFormats formats;
   };

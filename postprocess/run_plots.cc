@@ -1,11 +1,12 @@
 #include "run_plots.h"
 
-#include "field_map.h"
+#include "field_map_plots.h"
 
 #include "field_sampler.h"
 #include "output_file.h"
 #include "plot_marks.h"
 #include "time_units.h"
+#include "timed_samples.h"
 
 #include <algorithm>
 #include <cmath>
@@ -505,70 +506,6 @@ namespace fickcast::post
         }
     }
 
-    /// A 2-D run: the concentration over the section at the middle and the last output time,
-    /// sampled from the written fields on a grid of at most 160 points along the longer side.
-    void field_maps(Context &context)
-    {
-      const RunSummary &summary = context.results.summary;
-      if (summary.dimension != 2 || !context.results.fields || context.results.fields->times().empty())
-        return;
-      const FieldSeries &series = *context.results.fields;
-      const auto last = series.load(series.times().size() - 1);
-      double bounds[6];
-      last->GetBounds(bounds);
-      const double wide = bounds[1] - bounds[0], tall = bounds[3] - bounds[2];
-      if (!(wide > 0) || !(tall > 0))
-        return;
-      const DisplayUnit length = length_display(std::max(wide, tall));
-      const std::size_t longest = 160;
-      const std::size_t nx = std::max<std::size_t>(2, static_cast<std::size_t>(longest * wide / std::max(wide, tall)));
-      const std::size_t ny = std::max<std::size_t>(2, static_cast<std::size_t>(longest * tall / std::max(wide, tall)));
-      std::vector<Point> points;
-      FieldMap map;
-      for (std::size_t i = 0; i < nx; ++i)
-        map.x.push_back((bounds[0] + wide * static_cast<double>(i) / static_cast<double>(nx - 1)) / length.si_per_unit);
-      for (std::size_t j = 0; j < ny; ++j)
-        map.y.push_back((bounds[2] + tall * static_cast<double>(j) / static_cast<double>(ny - 1)) / length.si_per_unit);
-      for (std::size_t i = 0; i < nx; ++i)
-        for (std::size_t j = 0; j < ny; ++j)
-          points.push_back({map.x[i] * length.si_per_unit, map.y[j] * length.si_per_unit, 0.0});
-      const bool axisymmetric = summary.coordinates == "axisymmetric";
-      map.x_label = std::string(axisymmetric ? "r" : "x") + bracket(length.symbol);
-      // Built-in layers stack from the top face (y = 0) inward: drawn downward, as a section is.
-      map.downward = std::any_of(summary.settings.begin(), summary.settings.end(),
-                                 [](const EchoedSetting &s) { return s.key == "geometry.layers"; });
-      map.y_label = std::string(axisymmetric   ? "z"
-                                : map.downward ? "depth y from the top face"
-                                               : "y") +
-                    bracket(length.symbol);
-      map.value_label = std::string(context.log_profiles() ? "log#d10#u concentration" : "concentration") +
-                        bracket(context.concentration.symbol);
-      map.log_values = context.log_profiles();
-      map.subject = summary.title;
-      std::vector<std::size_t> chosen{series.times().size() - 1};
-      if (series.times().size() > 2)
-        chosen.insert(chosen.begin(), series.times().size() / 2);
-      for (const std::size_t k : chosen)
-        {
-          const auto grid = k + 1 == series.times().size() ? last : series.load(k);
-          const Samples samples =
-            sample_fields(grid, points, {"concentration"}, 2, summary.degree, series.times()[k].file);
-          map.values = samples.values[0];
-          for (double &v : map.values)
-            v /= context.concentration.si_per_unit;
-          map.title = "Concentration at t = " + format_time(series.times()[k].time);
-          const std::string stem = "field_map_" + std::to_string(k);
-          if (write_field_map(map, context.folder + "/" + stem, context.options.formats))
-            context.written.push_back(
-              {stem, map.title,
-               "Concentration over the section at t = " + format_time(series.times()[k].time) +
-                 ", the finite-element field of that output time sampled on a " + std::to_string(nx) + " x " +
-                 std::to_string(ny) + " grid, drawn to scale in twelve equal bands" +
-                 (map.log_values ? " of log10 concentration, over six decades below the largest value" : "") +
-                 "; white: outside the body" + (map.log_values ? " or below the lowest band" : "") + "."});
-        }
-    }
-
     void depths(Context &context)
     {
       const Json::Value &results = context.results.summary.results;
@@ -634,6 +571,11 @@ namespace fickcast::post
   std::vector<PlotFile> make_run_plots(const ResultsFolder &results, const std::string &folder,
                                        const RunPlotOptions &options)
   {
+    if (!options.map_times.empty() && results.fields)
+      {
+        std::vector<std::string> notes;
+        requested_times(*results.fields, options.map_times, notes); // PostInputError before anything is written
+      }
     make_folder(folder);
     std::vector<PlotFile> written;
     const double span = std::max(results.summary.reached_time, results.summary.end_time);
@@ -650,7 +592,7 @@ namespace fickcast::post
     release(context, false);
     amounts(context, false);
     face_fluxes(context);
-    field_maps(context);
+    write_field_maps(results, folder, options, context.concentration, context.log_profiles(), written);
     if (options.sqrt_time)
       {
         release(context, true);

@@ -24,6 +24,8 @@ namespace fickcast::post
     bool sqrt_time = false;       ///< release and amounts against the square root of time
     unsigned int max_times = 8;   ///< at most this many output times per profile plot
     unsigned int n_samples = 241; ///< points per sampled line when there is no profiles.csv
+    /// Times of the 2-D and 3-D field maps (`5 yr, 10 yr`, `last`, `all`); empty: middle and last state.
+    std::string map_times;
   };
 
   /**

@@ -257,6 +257,7 @@ namespace fickcast::post
     plot_options.formats = options.formats;
     plot_options.formats.png = true; // the report embeds PNGs
     plot_options.sqrt_time = options.sqrt_time;
+    plot_options.map_times = options.map_times;
     const auto plots = make_run_plots(results, folder, plot_options);
     const DisplayUnit c = concentration_display(s);
 

@@ -2,6 +2,7 @@
 // results with their crossings, stage changes on plots against time, the reference-phase
 // profile where partitions make the phase concentration jump.
 #include "plot_marks.h"
+#include "post_error.h"
 #include "results_folder.h"
 #include "run_plots.h"
 
@@ -96,5 +97,52 @@ depth.front = 1 mg/L
     summary.stages.pop_back();
     EXPECT_FALSE(add_stage_marks(spec, summary, 3600)); // one stage: nothing to mark
     EXPECT_EQ(spec.curves.size(), 2u);
+  }
+
+  // A 3-D run: maps of two mid-planes (x-z at the middle of y, and at the last time y-z at the
+  // middle of x), at a time asked for that lies between stored states (interpolated, said so).
+  TEST(PlotMarks, ThreeDimensionalRunHasMidPlaneMapsAtChosenTimes)
+  {
+    const char *box = R"(
+[case]
+title = Marks check: 3-D box (invented numbers)
+dimension = 3
+[geometry]
+width = 0.3 m
+length = 0.2 m
+layers = soil 0.5 m
+cell_size = 0.05 m
+[region.soil]
+diffusivity = 1e-3 m2/s
+[boundary.top]
+type = concentration
+value = 1 mol/m3
+[time]
+end = 20 s
+[numerics]
+linear_solver = direct
+[output]
+fields_every = 10 s
+)";
+    const CaseDescription description = testing::describe(box, "post_plot_maps_3d");
+    ASSERT_EQ(testing::run(description).status, "completed");
+    const ResultsFolder results = open_results(description.output.folder);
+    RunPlotOptions options;
+    options.formats = {true, false};
+    options.map_times = "15 s";
+    const auto plots = make_run_plots(results, description.output.folder + "/plots", options);
+    const PlotFile *across = find(plots, "field_map_0_y"), *along = find(plots, "field_map_0_x");
+    ASSERT_NE(across, nullptr);
+    ASSERT_NE(along, nullptr);
+    EXPECT_NE(across->title.find("t = 15 s on the plane y = 0.1 m"), std::string::npos) << across->title;
+    EXPECT_NE(along->title.find("on the plane x = 0.15 m"), std::string::npos) << along->title;
+    EXPECT_NE(across->caption.find("interpolated linearly in time between 10 s and 20 s"), std::string::npos)
+      << across->caption;
+    EXPECT_NE(across->caption.find("drawn to scale"), std::string::npos) << across->caption;
+
+    // A time outside the stored states is refused before anything is written.
+    options.map_times = "30 s";
+    EXPECT_THROW(make_run_plots(results, description.output.folder + "/plots_refused", options), PostInputError);
+    EXPECT_FALSE(std::filesystem::exists(description.output.folder + "/plots_refused"));
   }
 } // namespace fickcast::post
