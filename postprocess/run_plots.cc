@@ -334,12 +334,22 @@ namespace fickcast::post
                                {level, level}};
                 line.reference = true;
                 spec.curves.push_back(line);
+                if (threshold["value"].isNumeric() && std::isfinite(threshold["value"].asDouble()))
+                  {
+                    const double when = threshold["value"].asDouble() / context.time_unit.seconds;
+                    PlotCurve crossing{"threshold." + name + " reached at " +
+                                         format_time(threshold["value"].asDouble()),
+                                       {when},
+                                       {level}};
+                    crossing.markers_only = true;
+                    spec.curves.push_back(crossing);
+                  }
               }
           }
       const bool stages = add_stage_marks(spec, context.results.summary, context.time_unit.seconds);
       context.emit(spec, "points",
                    "Concentration at each named point against time, from series.csv; dashed grey "
-                   "lines are the threshold levels of summary.json" +
+                   "lines are the threshold levels of summary.json, a mark where each is reached" +
                      std::string(stages ? " and the vertical ones the stage changes." : "."));
     }
 
