@@ -2,6 +2,7 @@
 
 #include "case/case_reader.h"
 #include "case/key_schema.h"
+#include "numerics/linear_solver.h"
 #include "numerics/mesh_statistics.h"
 #include "numerics/run_size.h"
 #include "studies/result_names.h"
@@ -106,6 +107,15 @@ namespace fickcast
               << "mesh: " << mesh.cells << " cells, " << mesh.unknowns << " unknowns (degree "
               << description.numerics.degree << "), cell sizes " << mesh.smallest_cell << " to " << mesh.largest_cell
               << " m\n";
+    {
+      int ranks = 1;
+      MPI_Comm_size(communicator, &ranks);
+      std::cout << "linear solver: "
+                << linear_solver_plan(choose_direct_solver(description.numerics.linear_solver, description.dimension,
+                                                           mesh.unknowns, ranks == 1),
+                                      description.numerics.linear_solver)
+                << "\n";
+    }
     if (!mesh.refinement_note.empty())
       std::cout << "mesh near open faces: " << mesh.refinement_note << "\n";
     if (!mesh.refinement_warning.empty())

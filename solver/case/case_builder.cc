@@ -45,6 +45,8 @@ namespace fickcast
       const std::string solver = reader.text("numerics", "linear_solver");
       c.numerics.linear_solver = solver == "direct"      ? LinearSolverKind::direct
                                  : solver == "iterative" ? LinearSolverKind::iterative
+                                 : solver == "diagonal"  ? LinearSolverKind::diagonal
+                                 : solver == "multigrid" ? LinearSolverKind::multigrid
                                                          : LinearSolverKind::automatic;
       c.numerics.solver_tolerance = reader.quantity("numerics", "solver_tolerance", 1e-12);
       c.numerics.newton = reader.text("numerics", "nonlinear_solver") == "newton";

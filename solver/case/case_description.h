@@ -225,7 +225,9 @@ namespace fickcast
   {
     automatic,
     direct,
-    iterative
+    iterative, ///< CG, preconditioned after the step matrix (the diagonal or multigrid)
+    diagonal,  ///< CG with the diagonal always (for checking one against the other)
+    multigrid  ///< CG with algebraic multigrid always
   };
 
   struct NumericsSpec

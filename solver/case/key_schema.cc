@@ -216,8 +216,9 @@ namespace fickcast
         make("numerics", "degree", K::integer, Dim::none, "2", "polynomial degree of the Lagrange elements: 1 or 2"), 1,
         false, 2, false));
       s.push_back(choices(make("numerics", "linear_solver", K::choice, Dim::none, "auto",
-                               "auto, direct (sparse LU) or iterative (CG with algebraic multigrid)"),
-                          {"auto", "direct", "iterative"}));
+                               "auto, direct (sparse LU), iterative (CG with the diagonal or algebraic multigrid, "
+                               "after the step matrix), or CG with one of them always: diagonal or multigrid"),
+                          {"auto", "direct", "iterative", "diagonal", "multigrid"}));
       s.push_back(bounded(make("numerics", "solver_tolerance", K::quantity, Dim::dimensionless, "1e-12",
                                "relative residual reduction of the iterative solver"),
                           0, true, 1e-3, false));

@@ -54,6 +54,12 @@ namespace fickcast
   }
 
   template <int dim>
+  std::string DiffusionProblem<dim>::linear_solver_description() const
+  {
+    return solver_ ? solver_->description() : std::string("none");
+  }
+
+  template <int dim>
   void DiffusionProblem<dim>::make_mesh()
   {
     if constexpr (dim == 1)
@@ -169,23 +175,11 @@ namespace fickcast
       reinit(dynamic_matrices_);
 
     const bool serial = Utilities::MPI::n_mpi_processes(communicator_) == 1;
-    bool direct = false;
-    switch (description_.numerics.linear_solver)
-      {
-        case LinearSolverKind::direct:
-          direct = true;
-          break;
-        case LinearSolverKind::iterative:
-          direct = false;
-          break;
-        case LinearSolverKind::automatic:
-          // Sparse LU pays off only for small 2-D and tiny 3-D systems (fill-in grows fast).
-          direct = serial && (dim == 1 || (dim == 2 && n_dofs() <= 5000) || (dim == 3 && n_dofs() <= 1000));
-          break;
-      }
+    const bool direct = choose_direct_solver(description_.numerics.linear_solver, dim, n_dofs(), serial);
     if (solver_)
       setups_before_ += solver_->n_setups();
-    solver_ = std::make_unique<LinearSolver>(direct, description_.numerics.solver_tolerance, fe_.degree > 1);
+    solver_ = std::make_unique<LinearSolver>(direct, description_.numerics.solver_tolerance, fe_.degree > 1,
+                                             description_.numerics.linear_solver);
   }
 
   template <int dim>
@@ -688,7 +682,7 @@ namespace fickcast
     if (!key.empty() && dynamic_matrices_.full.m() == 0 && key.back() == 0.0 && key.size() == units + 3)
       {
         compose_system(key);
-        solver_->set_matrix(system_, 0, true);
+        solver_->set_matrix(system_, 0, true, diffusion_number(key[0]));
         hierarchy_key_ = key;
         system_key_ = key;
       }

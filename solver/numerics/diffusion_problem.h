@@ -138,6 +138,8 @@ namespace fickcast
     dealii::types::global_dof_index n_dofs() const { return dof_handler_.n_dofs(); }
     unsigned int degree() const { return fe_.degree; }
     bool uses_direct_solver() const;
+    /// The linear solver and preconditioners used so far and why (summary.json, printout).
+    std::string linear_solver_description() const;
     PhaseTimer &timer() const { return timer_; }
     unsigned int n_matrix_setups() const { return (solver_ ? solver_->n_setups() : 0) + setups_before_; }
 
@@ -295,6 +297,9 @@ namespace fickcast
     void build_system(const StepPlan &plan, bool jacobian);
     /// system_ = key[0] M + key[1] L_static + key[2 + j] L_unit_j (the key build_system makes).
     void compose_system(const std::vector<double> &key);
+    /// The diffusion number of system_ composed with mass weight @p mass_weight: the largest
+    /// ratio, over unconstrained rows, of the diagonal's stiffness part to its mass part.
+    double diffusion_number(double mass_weight) const;
     void apply_frozen(double t, const Vector &x, Vector &out) const;
     void solve_fixed(const StepPlan &plan, const Vector &rhs, Vector &u1, Vector &rhs_used, StepResult &result);
     void newton(const StepPlan &plan, const Vector &rhs, Vector &u1, StepResult &result);

@@ -5,31 +5,54 @@
 #include <deal.II/lac/solver_cg.h>
 #include <deal.II/lac/solver_gmres.h>
 
+#include <cstdio>
+#include <limits>
+
 namespace fickcast
 {
-  LinearSolver::LinearSolver(const bool direct, const double tolerance, const bool higher_order_elements)
+  bool choose_direct_solver(const LinearSolverKind kind, const unsigned int dimension, const unsigned long n_unknowns,
+                            const bool serial)
+  {
+    if (kind == LinearSolverKind::direct)
+      return true;
+    if (kind != LinearSolverKind::automatic)
+      return false;
+    return serial &&
+           (dimension == 1 || (dimension == 2 && n_unknowns <= 5000) || (dimension == 3 && n_unknowns <= 1000));
+  }
+
+  std::string linear_solver_plan(const bool direct, const LinearSolverKind kind)
+  {
+    if (direct)
+      return "direct (sparse LU, KLU), factorised when the step size changes";
+    if (kind == LinearSolverKind::diagonal)
+      return "CG preconditioned by the diagonal (numerics.linear_solver = diagonal)";
+    if (kind == LinearSolverKind::multigrid)
+      return "CG preconditioned by algebraic multigrid (numerics.linear_solver = multigrid)";
+    char limit[32];
+    std::snprintf(limit, sizeof(limit), "%.3g", LinearSolver::initial_jacobi_limit);
+    return std::string("CG, preconditioned by the diagonal while the mass term dominates the step matrix (diffusion "
+                       "number up to ") +
+           limit + ", no set-up cost), else by algebraic multigrid (kept across steps)";
+  }
+
+  LinearSolver::LinearSolver(const bool direct, const double tolerance, const bool higher_order_elements,
+                             const LinearSolverKind kind)
     : direct_(direct)
     , tolerance_(tolerance)
     , higher_order_(higher_order_elements)
     , direct_control_(1, 0)
   {
+    if (kind == LinearSolverKind::diagonal || kind == LinearSolverKind::multigrid)
+      {
+        adapt_limit_ = false;
+        jacobi_limit_ = kind == LinearSolverKind::diagonal ? std::numeric_limits<double>::infinity() : -1.0;
+      }
   }
 
-  void LinearSolver::set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix, const double change,
-                                const bool symmetric)
+  void LinearSolver::build_multigrid(const dealii::TrilinosWrappers::SparseMatrix &matrix)
   {
-    matrix_ = &matrix;
-    symmetric_ = symmetric;
-    if (!direct_ && multigrid_ && change > 0 && change < 3.0 && change > 1.0 / 3.0)
-      return; // keep the hierarchy of a nearby matrix
     ++n_setups_;
-    if (direct_)
-      {
-        direct_solver_ = std::make_unique<dealii::TrilinosWrappers::SolverDirect>(
-          direct_control_, dealii::TrilinosWrappers::SolverDirect::AdditionalData(false, "Amesos_Klu"));
-        direct_solver_->initialize(matrix);
-        return;
-      }
     dealii::TrilinosWrappers::PreconditionAMG::AdditionalData data;
     data.elliptic = true;
     data.higher_order_elements = higher_order_;
@@ -40,20 +63,37 @@ namespace fickcast
     multigrid_->initialize(multigrid_matrix_, data);
   }
 
-  unsigned int LinearSolver::solve(dealii::TrilinosWrappers::MPI::Vector &x,
-                                   const dealii::TrilinosWrappers::MPI::Vector &b)
+  void LinearSolver::set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix, const double change,
+                                const bool symmetric, const double diffusion_number)
   {
+    matrix_ = &matrix;
+    symmetric_ = symmetric;
+    diffusion_number_ = diffusion_number;
+    jacobi_.reset();
     if (direct_)
       {
-        direct_solver_->solve(x, b);
-        return 1;
+        ++n_setups_;
+        direct_solver_ = std::make_unique<dealii::TrilinosWrappers::SolverDirect>(
+          direct_control_, dealii::TrilinosWrappers::SolverDirect::AdditionalData(false, "Amesos_Klu"));
+        direct_solver_->initialize(matrix);
+        return;
       }
-    const double norm = b.l2_norm();
-    if (norm == 0)
+    if (symmetric && diffusion_number >= 0 && diffusion_number <= jacobi_limit_)
       {
-        x = 0;
-        return 0;
+        jacobi_ = std::make_unique<dealii::TrilinosWrappers::PreconditionJacobi>();
+        jacobi_->initialize(matrix);
+        return;
       }
+    if (multigrid_ && change > 0 && change < 3.0 && change > 1.0 / 3.0)
+      return; // keep the hierarchy of a nearby matrix
+    build_multigrid(matrix);
+  }
+
+  unsigned int LinearSolver::solve_with_multigrid(dealii::TrilinosWrappers::MPI::Vector &x,
+                                                  const dealii::TrilinosWrappers::MPI::Vector &b, const double norm)
+  {
+    if (!multigrid_)
+      build_multigrid(*matrix_);
     dealii::SolverControl control(5000, tolerance_ * norm, false, false);
     try
       {
@@ -75,6 +115,55 @@ namespace fickcast
                          std::to_string(failure.last_residual) + " after " + std::to_string(failure.last_step) +
                          " iterations (target " + std::to_string(tolerance_ * norm) + ")");
       }
+    ++multigrid_solves_;
+    multigrid_iterations_ += control.last_step();
+    if (diffusion_number_ >= 0 && (smallest_multigrid_number_ < 0 || diffusion_number_ < smallest_multigrid_number_))
+      smallest_multigrid_number_ = diffusion_number_;
+    return control.last_step();
+  }
+
+  unsigned int LinearSolver::solve(dealii::TrilinosWrappers::MPI::Vector &x,
+                                   const dealii::TrilinosWrappers::MPI::Vector &b)
+  {
+    if (direct_)
+      {
+        direct_solver_->solve(x, b);
+        return 1;
+      }
+    const double norm = b.l2_norm();
+    if (norm == 0)
+      {
+        x = 0;
+        return 0;
+      }
+    if (!jacobi_)
+      return solve_with_multigrid(x, b, norm);
+
+    // The diagonal: a budget of four times the slow count; beyond it, multigrid from where it got
+    // (a case that asked for the diagonal alone gets a budget like multigrid's).
+    dealii::SolverControl control(adapt_limit_ ? 4 * slow_jacobi_iterations : 20000, tolerance_ * norm, false, false);
+    try
+      {
+        dealii::SolverCG<dealii::TrilinosWrappers::MPI::Vector> cg(control);
+        cg.solve(*matrix_, x, b, *jacobi_);
+      }
+    catch (const dealii::SolverControl::NoConvergence &failure)
+      {
+        if (!adapt_limit_)
+          throw RunFailure("the linear solver (CG with the diagonal, numerics.linear_solver = diagonal) did not "
+                           "converge: residual " +
+                           std::to_string(failure.last_residual) + " after " + std::to_string(failure.last_step) +
+                           " iterations (use iterative or multigrid)");
+        ++jacobi_fallbacks_;
+        jacobi_limit_ = 0.5 * diffusion_number_;
+        jacobi_.reset();
+        return control.last_step() + solve_with_multigrid(x, b, norm);
+      }
+    ++jacobi_solves_;
+    jacobi_iterations_ += control.last_step();
+    largest_jacobi_number_ = std::max(largest_jacobi_number_, diffusion_number_);
+    if (adapt_limit_ && control.last_step() > slow_jacobi_iterations)
+      jacobi_limit_ = std::min(jacobi_limit_, 0.7 * diffusion_number_); // stiffer steps: multigrid
     return control.last_step();
   }
 
@@ -96,6 +185,8 @@ namespace fickcast
         x = 0;
         return 0;
       }
+    if (!multigrid_)
+      build_multigrid(*matrix_);
     dealii::SolverControl control(5000, tolerance_ * norm, false, false);
     dealii::SolverGMRES<dealii::TrilinosWrappers::MPI::Vector> gmres(
       control, dealii::SolverGMRES<dealii::TrilinosWrappers::MPI::Vector>::AdditionalData(50));
@@ -110,5 +201,35 @@ namespace fickcast
                          " iterations");
       }
     return control.last_step();
+  }
+
+  std::string LinearSolver::description() const
+  {
+    if (direct_)
+      return "direct (KLU)";
+    auto number = [](const double v) {
+      char buffer[32];
+      std::snprintf(buffer, sizeof(buffer), "%.3g", v);
+      return std::string(buffer);
+    };
+    std::string text;
+    if (jacobi_solves_ > 0)
+      text += "CG with the diagonal for " + std::to_string(jacobi_solves_) + " solves (" +
+              (adapt_limit_ ? "the mass term dominates" : "as the case asks") + ": diffusion number up to " +
+              number(largest_jacobi_number_) + ", " +
+              number(static_cast<double>(jacobi_iterations_) / static_cast<double>(jacobi_solves_)) +
+              " iterations each)";
+    std::string why;
+    if (!adapt_limit_)
+      why = " (as the case asks)";
+    else if (smallest_multigrid_number_ >= 0)
+      why = " (diffusion number from " + number(smallest_multigrid_number_) + ", above the diagonal's limit " +
+            number(jacobi_limit_) + ")";
+    if (multigrid_solves_ > 0 || jacobi_solves_ == 0)
+      text += std::string(text.empty() ? "" : "; ") + "CG with algebraic multigrid" +
+              (multigrid_solves_ > 0 ? " for " + std::to_string(multigrid_solves_) + " solves" : std::string()) + why;
+    if (jacobi_fallbacks_ > 0)
+      text += "; " + std::to_string(jacobi_fallbacks_) + " diagonal solves fell back to multigrid";
+    return text;
   }
 } // namespace fickcast

@@ -1,5 +1,8 @@
-// Solving the step systems: sparse direct (small, serial) or CG with algebraic multigrid.
+// Solving the step systems: sparse direct (small, serial), or CG preconditioned by the diagonal
+// where the mass term dominates, else by algebraic multigrid.
 #pragma once
+
+#include "case/case_description.h"
 
 #include <deal.II/lac/solver_control.h>
 #include <deal.II/lac/trilinos_precondition.h>
@@ -8,20 +11,42 @@
 #include <deal.II/lac/trilinos_vector.h>
 
 #include <memory>
+#include <string>
 
 namespace fickcast
 {
   /**
+   * Whether a step system of @p n_unknowns unknowns in @p dimension is solved by sparse LU:
+   * @p kind direct or iterative decides; automatic takes LU only on one rank for 1-D, 2-D up to
+   * 5000 and 3-D up to 1000 unknowns (fill-in grows fast beyond).
+   */
+  bool choose_direct_solver(LinearSolverKind kind, unsigned int dimension, unsigned long n_unknowns, bool serial);
+
+  /// What `fickcast check` says of the linear solver a run of that size will use, and why.
+  std::string linear_solver_plan(bool direct, LinearSolverKind kind);
+
+  /**
    * One linear solver for a symmetric positive definite step matrix that changes only now and
    * then (when the step size changes). set_matrix() factorises (direct: KLU through Trilinos
-   * Amesos) or builds the multigrid hierarchy (iterative: Trilinos ML smoothed aggregation
-   * preconditioning deal.II's CG); solve() reuses it.
+   * Amesos) or prepares CG's preconditioner; solve() reuses it. The preconditioner follows the
+   * operator's character: where the mass term dominates the step matrix (its diffusion number,
+   * the largest ratio of the stiffness to the mass part of a diagonal entry, is at most
+   * jacobi_limit()), the diagonal (Jacobi), which costs nothing to set up and one pass over the
+   * matrix per iteration; otherwise Trilinos ML smoothed-aggregation multigrid, whose set-up costs
+   * several solves and whose cycle several matrix products, but whose iteration count does not
+   * grow with the diffusion number. If a diagonal solve needs many iterations (more than
+   * slow_jacobi_iterations) the limit drops below that diffusion number, so stiffer steps get
+   * multigrid from then on; if it fails to converge in its budget, the step is solved again
+   * with multigrid.
    */
   class LinearSolver
   {
   public:
-    /// @p direct chooses KLU; otherwise CG to the relative residual @p tolerance.
-    LinearSolver(bool direct, double tolerance, bool higher_order_elements);
+    /// @p direct chooses KLU; otherwise CG to the relative residual @p tolerance, its
+    /// preconditioner after the step matrix (@p kind iterative or automatic), or always the
+    /// diagonal (diagonal) or multigrid (multigrid).
+    LinearSolver(bool direct, double tolerance, bool higher_order_elements,
+                 LinearSolverKind kind = LinearSolverKind::automatic);
 
     /**
      * Prepares for @p matrix, which must stay alive until the next call. The direct solver
@@ -31,7 +56,9 @@ namespace fickcast
      * one still converges (both are symmetric positive definite), and a set-up costs several
      * solves. The hierarchy is rebuilt when the step changed by more than a factor of 3.
      */
-    void set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix, double change = 0, bool symmetric = true);
+    /// @p diffusion_number: of @p matrix (see above), negative if unknown (multigrid then).
+    void set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix, double change = 0, bool symmetric = true,
+                    double diffusion_number = -1);
 
     /// Solves matrix x = b; @p x is the initial guess on entry. Returns the iteration count
     /// (1 for the direct solver). Throws RunFailure if CG does not converge.
@@ -45,6 +72,17 @@ namespace fickcast
     bool is_direct() const { return direct_; }
     /// Number of factorisations or multigrid set-ups so far.
     unsigned int n_setups() const { return n_setups_; }
+    /// Whether the current matrix is solved with the diagonal preconditioner.
+    bool uses_jacobi() const { return jacobi_ != nullptr; }
+    double jacobi_limit() const { return jacobi_limit_; }
+
+    /// Which solver and preconditioners the solves used and why, for people (summary.json).
+    std::string description() const;
+
+    /// The diffusion number up to which the diagonal preconditioner is chosen at first.
+    static constexpr double initial_jacobi_limit = 100.0;
+    /// A diagonal-preconditioned solve with more iterations than this lowers the limit.
+    static constexpr unsigned int slow_jacobi_iterations = 120;
 
   private:
     bool direct_;
@@ -57,5 +95,17 @@ namespace fickcast
     std::unique_ptr<dealii::TrilinosWrappers::PreconditionAMG> multigrid_;
     dealii::TrilinosWrappers::SparseMatrix multigrid_matrix_; ///< the matrix the hierarchy was built on
     unsigned int n_setups_ = 0;
+    std::unique_ptr<dealii::TrilinosWrappers::PreconditionJacobi> jacobi_;
+    double jacobi_limit_ = initial_jacobi_limit;
+    bool adapt_limit_ = true; ///< false when the case fixed the preconditioner
+    double diffusion_number_ = -1;
+    double largest_jacobi_number_ = -1;     ///< largest diffusion number solved with the diagonal
+    double smallest_multigrid_number_ = -1; ///< smallest known diffusion number solved with multigrid
+    unsigned long jacobi_solves_ = 0, jacobi_iterations_ = 0, multigrid_solves_ = 0, multigrid_iterations_ = 0;
+    unsigned int jacobi_fallbacks_ = 0;
+
+    unsigned int solve_with_multigrid(dealii::TrilinosWrappers::MPI::Vector &x,
+                                      const dealii::TrilinosWrappers::MPI::Vector &b, double norm);
+    void build_multigrid(const dealii::TrilinosWrappers::SparseMatrix &matrix);
   };
 } // namespace fickcast

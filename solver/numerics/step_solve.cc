@@ -54,10 +54,26 @@ namespace fickcast
           }
       }
     const unsigned int before = solver_->n_setups();
-    solver_->set_matrix(system_, change, !jacobian);
+    solver_->set_matrix(system_, change, !jacobian, jacobian ? -1.0 : diffusion_number(key[0]));
     if (solver_->n_setups() != before)
       hierarchy_key_ = key;
     system_key_ = key;
+  }
+
+  template <int dim>
+  double DiffusionProblem<dim>::diffusion_number(const double mass_weight) const
+  {
+    double largest = 0;
+    if (mass_weight > 0)
+      for (const auto i : dof_handler_.locally_owned_dofs())
+        {
+          if (constraints_.is_constrained(i))
+            continue;
+          const double mass = mass_weight * mass_.constrained.diag_element(i);
+          if (mass > 0)
+            largest = std::max(largest, (system_.diag_element(i) - mass) / mass);
+        }
+    return Utilities::MPI::max(largest, communicator_);
   }
 
   template <int dim>

@@ -112,7 +112,7 @@ namespace fickcast
     record.unknowns = problem.n_dofs();
     record.degree = problem.degree();
     record.ranks = Utilities::MPI::n_mpi_processes(communicator);
-    record.linear_solver = problem.uses_direct_solver() ? "direct (KLU)" : "CG with algebraic multigrid";
+    record.linear_solver = problem.linear_solver_description();
     record.regions = problem.names().regions;
     record.boundaries = problem.names().boundaries;
     const unsigned int n_boundaries = record.boundaries.size();
@@ -746,11 +746,11 @@ namespace fickcast
       if (bath_boundary[b])
         record.bath_final[b] = problem.bath_concentration(b);
     remeshing.report(record);
+    record.linear_solver = problem.linear_solver_description();
     if (remeshing.active())
       {
         record.cells = problem.n_cells();
         record.unknowns = problem.n_dofs();
-        record.linear_solver = problem.uses_direct_solver() ? "direct (KLU)" : "CG with algebraic multigrid";
       }
     record.source_total = source_total;
     record.decayed_total = decayed_total;
