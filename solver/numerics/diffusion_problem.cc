@@ -651,6 +651,9 @@ namespace fickcast
       state.reserve.assign(reserve_.begin(), reserve_.end());
     state.preconditioner_key = hierarchy_key_;
     state.matrix_setups = n_matrix_setups();
+    state.system_key = system_key_;
+    if (solver_)
+      state.solver_statistics = solver_->statistics();
     return state;
   }
 
@@ -679,12 +682,37 @@ namespace fickcast
     std::size_t units = 0;
     for (const int index : unit_index_)
       units += index >= 0 ? 1 : 0;
-    if (!key.empty() && dynamic_matrices_.full.m() == 0 && key.back() == 0.0 && key.size() == units + 3)
+    auto reusable = [&](const std::vector<double> &k) {
+      return !k.empty() && dynamic_matrices_.full.m() == 0 && k.back() == 0.0 && k.size() == units + 3;
+    };
+    solver_->restore_statistics(state.solver_statistics);
+    if (solver_->is_direct())
       {
-        compose_system(key);
-        solver_->set_matrix(system_, 0, true, diffusion_number(key[0]));
-        hierarchy_key_ = key;
-        system_key_ = key;
+        if (reusable(key))
+          {
+            compose_system(key);
+            solver_->set_matrix(system_, 0, true);
+            hierarchy_key_ = key;
+            system_key_ = key;
+          }
+      }
+    else
+      {
+        // Multigrid on the matrix it was built on, then the step matrix in use with the
+        // preconditioner it had (the diagonal, or that multigrid kept).
+        if (reusable(key))
+          {
+            compose_system(key);
+            solver_->rebuild_multigrid(system_);
+            hierarchy_key_ = key;
+            system_key_ = key;
+          }
+        if (reusable(state.system_key))
+          {
+            compose_system(state.system_key);
+            solver_->set_matrix(system_, 1.0, true, diffusion_number(state.system_key[0]));
+            system_key_ = state.system_key;
+          }
       }
     const unsigned int now = solver_->n_setups();
     setups_before_ = state.matrix_setups > now ? state.matrix_setups - now : 0;

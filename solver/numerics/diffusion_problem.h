@@ -88,6 +88,8 @@ namespace fickcast
     std::vector<double> reserve;                                 ///< owned entries of the reserve
     std::vector<double> preconditioner_key; ///< coefficients of the matrix the preconditioner was built on
     unsigned int matrix_setups = 0;
+    std::vector<double> system_key;        ///< coefficients of the step matrix in use
+    std::vector<double> solver_statistics; ///< LinearSolver::statistics()
   };
 
   /**

@@ -203,6 +203,34 @@ namespace fickcast
     return control.last_step();
   }
 
+  std::vector<double> LinearSolver::statistics() const
+  {
+    return {jacobi_limit_,
+            largest_jacobi_number_,
+            smallest_multigrid_number_,
+            static_cast<double>(jacobi_solves_),
+            static_cast<double>(jacobi_iterations_),
+            static_cast<double>(multigrid_solves_),
+            static_cast<double>(multigrid_iterations_),
+            static_cast<double>(jacobi_fallbacks_)};
+  }
+
+  void LinearSolver::restore_statistics(const std::vector<double> &values)
+  {
+    if (values.empty())
+      return;
+    if (values.size() != 8)
+      throw IoError("the checkpoint's linear-solver state does not fit this version of fickcast");
+    jacobi_limit_ = values[0];
+    largest_jacobi_number_ = values[1];
+    smallest_multigrid_number_ = values[2];
+    jacobi_solves_ = static_cast<unsigned long>(values[3]);
+    jacobi_iterations_ = static_cast<unsigned long>(values[4]);
+    multigrid_solves_ = static_cast<unsigned long>(values[5]);
+    multigrid_iterations_ = static_cast<unsigned long>(values[6]);
+    jacobi_fallbacks_ = static_cast<unsigned int>(values[7]);
+  }
+
   std::string LinearSolver::description() const
   {
     if (direct_)

@@ -12,6 +12,7 @@
 
 #include <memory>
 #include <string>
+#include <vector>
 
 namespace fickcast
 {
@@ -78,6 +79,14 @@ namespace fickcast
 
     /// Which solver and preconditioners the solves used and why, for people (summary.json).
     std::string description() const;
+
+    /// The counts and limits behind description() and the choice, for a checkpoint.
+    std::vector<double> statistics() const;
+    /// Continues from statistics() of an interrupted run (empty: nothing to restore; IoError if
+    /// malformed).
+    void restore_statistics(const std::vector<double> &values);
+    /// Builds the multigrid hierarchy on @p matrix (a resumed run: the matrix it was built on).
+    void rebuild_multigrid(const dealii::TrilinosWrappers::SparseMatrix &matrix) { build_multigrid(matrix); }
 
     /// The diffusion number up to which the diagonal preconditioner is chosen at first.
     static constexpr double initial_jacobi_limit = 100.0;

@@ -362,6 +362,8 @@ namespace fickcast
     archive.put(state.reserve);
     archive.put(state.preconditioner_key);
     archive.put_count(state.matrix_setups);
+    archive.put(state.system_key);
+    archive.put(state.solver_statistics);
   }
 
   void get(StateArchive &archive, ProblemState &state)
@@ -373,6 +375,8 @@ namespace fickcast
     state.reserve = archive.get_values();
     state.preconditioner_key = archive.get_values();
     state.matrix_setups = static_cast<unsigned int>(archive.get_count());
+    state.system_key = archive.get_values();
+    state.solver_statistics = archive.get_values();
   }
 
   void put(StateArchive &archive, const ObserverState &state)

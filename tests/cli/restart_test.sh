@@ -123,7 +123,10 @@ tolerance=(--relative 1e-12)
 # --- SIGTERM: exit 4, "interrupted at t = ...", no results and no numbers; --resume continues it.
 case_file="$source/cases/pipe_penetration.ini"
 single=(--set "numerics.accuracy=off")
-"$fickcast" run "$case_file" "${single[@]}" --output term >term.out 2>term.err &
+# Fixed steps of 0.005 yr (2000 steps, several seconds): long enough to be interrupted mid-run on
+# any machine speed.
+long=("${single[@]}" --set "time.step=0.005 yr")
+"$fickcast" run "$case_file" "${long[@]}" --output term >term.out 2>term.err &
 pid=$!
 for _ in $(seq 1 3000); do
   [ -n "$(ls term.partial-*/series.csv 2>/dev/null)" ] && break
@@ -139,8 +142,8 @@ grep -q "^fickcast: interrupted at t = .*(step [0-9]*); no results written" term
 grep -q "point\.\|threshold\.\|mass balance" term.out && fail "SIGTERM: headline numbers printed for an interrupted run"
 [ -e term ] && fail "SIGTERM: the results folder was committed"
 ls term.partial-*/summary.json >/dev/null 2>&1 && fail "SIGTERM: the kept state holds a summary.json"
-"$fickcast" run "$case_file" "${single[@]}" --output term --resume --quiet || fail "SIGTERM: --resume failed"
-"$fickcast" run "$case_file" "${single[@]}" --output term.reference --quiet
+"$fickcast" run "$case_file" "${long[@]}" --output term --resume --quiet || fail "SIGTERM: --resume failed"
+"$fickcast" run "$case_file" "${long[@]}" --output term.reference --quiet
 python3 "$compare" term.reference term --relative 1e-12 >term.compare 2>&1 ||
   fail "SIGTERM: the resumed run differs: $(tail -n 5 term.compare)"
 

@@ -29,7 +29,8 @@ dimension = 2
 [geometry]
 layers = medium 2 m
 width = 2 m
-cell_size = )" + cell + R"(
+cell_size = )" +
+             cell + R"(
 [region.medium]
 diffusivity = 1 m2/s
 [initial]
