@@ -2,6 +2,8 @@
 
 #include "study_table.h"
 
+#include "results/csv_writer.h"
+
 #include <cmath>
 #include <cstdio>
 
@@ -45,9 +47,9 @@ namespace fickcast::post
           choice[c] = {"", 1.0};
         convert[c] = choice[c].si_per_unit != 1.0 || choice[c].symbol != unit;
         event[c] = event_columns && is_event_result(name);
-        csv += (c ? "," : "") + quote_csv_cell(name + (choice[c].symbol.empty() || choice[c].symbol == "1"
-                                                         ? std::string()
-                                                         : " [" + choice[c].symbol + "]"));
+        csv += (c ? "," : "") +
+               csv_field(name + (choice[c].symbol.empty() || choice[c].symbol == "1" ? std::string()
+                                                                                     : " [" + choice[c].symbol + "]"));
       }
     csv += "\n";
     for (const auto &row : table.rows())
@@ -61,7 +63,7 @@ namespace fickcast::post
               cell = "not reached";
             else if (convert[c] && parse_number(cell, value) && std::isfinite(value))
               cell = number_text(value / choice[c].si_per_unit);
-            csv += (c ? "," : "") + quote_csv_cell(cell);
+            csv += (c ? "," : "") + csv_field(cell);
           }
         csv += "\n";
       }

@@ -66,16 +66,6 @@ namespace fickcast::post
     return end == begin + text.size();
   }
 
-  std::string quote_csv_cell(const std::string &text)
-  {
-    if (text.find_first_of(",\"\n") == std::string::npos)
-      return text;
-    std::string out = "\"";
-    for (const char c : text)
-      out += c == '"' ? std::string("\"\"") : std::string(1, c);
-    return out + "\"";
-  }
-
   CsvTable CsvTable::read(const std::string &path)
   {
     return parse(read_file(path, "a CSV table"), path);

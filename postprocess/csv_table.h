@@ -53,9 +53,6 @@ namespace fickcast::post
   /// Splits one CSV line into cells (double quotes group, `""` inside quotes is a quote).
   std::vector<std::string> split_csv_line(const std::string &line);
 
-  /// @p text as one CSV cell: quoted (quotes doubled) if it holds a comma, a quote or a line break.
-  std::string quote_csv_cell(const std::string &text);
-
   /// Parses @p text as a whole number in C locale; false if it is not one (or is empty).
   bool parse_number(const std::string &text, double &value);
 } // namespace fickcast::post

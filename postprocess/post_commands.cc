@@ -11,6 +11,8 @@
 #include "results_folder.h"
 #include "run_plots.h"
 #include "study_table.h"
+
+#include "results/csv_writer.h"
 #include "time_units.h"
 #include "timed_samples.h"
 
@@ -316,8 +318,8 @@ namespace fickcast::post
           double measure = 0;
           for (std::size_t r = 0; r < integrals.regions.size(); ++r)
             {
-              csv += cell(series.times()[k].time) + "," + quote_csv_cell(integrals.regions[r]) + "," +
-                     cell(integrals.measure[r]);
+              csv +=
+                cell(series.times()[k].time) + "," + csv_field(integrals.regions[r]) + "," + cell(integrals.measure[r]);
               measure += integrals.measure[r];
               for (std::size_t f = 0; f < fields.size(); ++f)
                 {

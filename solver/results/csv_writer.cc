@@ -11,6 +11,16 @@
 
 namespace fickcast
 {
+  std::string csv_field(const std::string &text)
+  {
+    if (text.find_first_of(",\"\n") == std::string::npos)
+      return text;
+    std::string out = "\"";
+    for (const char c : text)
+      out += c == '"' ? std::string("\"\"") : std::string(1, c);
+    return out + "\"";
+  }
+
   void CsvWriter::open(const std::string &path, const std::vector<Column> &columns)
   {
     path_ = path;

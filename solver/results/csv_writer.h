@@ -8,6 +8,9 @@
 
 namespace fickcast
 {
+  /// @p text as one CSV cell: quoted (quotes doubled) if it holds a comma, a quote or a line break.
+  std::string csv_field(const std::string &text);
+
   /// One column: name and SI unit (printed as `name [unit]`; no brackets for pure numbers).
   struct Column
   {

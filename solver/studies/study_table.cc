@@ -2,6 +2,7 @@
 #include "case/input_error.h"
 #include "case/quantity_text.h"
 #include "case/units.h"
+#include "results/csv_writer.h"
 #include "results/json_file.h"
 #include "results/summary.h"
 #include "studies/case_summary.h"
@@ -18,16 +19,6 @@ namespace fickcast
 {
   namespace
   {
-    std::string csv_field(const std::string &text)
-    {
-      if (text.find_first_of(",\"\n") == std::string::npos)
-        return text;
-      std::string out = "\"";
-      for (const char c : text)
-        out += c == '"' ? std::string("\"\"") : std::string(1, c);
-      return out + "\"";
-    }
-
     std::string number(const double value)
     {
       if (!std::isfinite(value))
