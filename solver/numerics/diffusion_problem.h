@@ -209,6 +209,10 @@ namespace fickcast
     /// @p e0 (and @p e_prev for BDF2). Fixed unknowns (concentration and bath faces, saturated
     /// reserve) carry no error. @p e1 holds an initial guess. Returns the linear iterations.
     unsigned int propagate_error(const StepPlan &plan, const Vector &e0, const Vector *e_prev, Vector &e1);
+    /// The rate du/dt at @p t of the free unknowns, M^-1 (F - L u) (0 at fixed unknowns; hanging
+    /// nodes from their parents): CG with the diagonal on the mass matrix. Not with an undissolved
+    /// reserve (its saturated nodes are not free). Collective.
+    Vector rate_of_change(const Vector &u, double t) const;
     /// Makes the last step's bath values and reserves the current ones.
     void accept_step();
     /// The stage, baths, reserve and preconditioner basis after the last accepted step.

@@ -11,9 +11,10 @@ namespace fickcast
     , min_step_(duration * 1e-14)
     , fixed_(spec.step)
     , initial_given_(spec.initial_step > 0)
+    , cautious_start_(std::min(max_step_, duration * 1e-8))
   {
     if (adaptive_)
-      proposal_ = spec.initial_step > 0 ? spec.initial_step : std::min(max_step_, duration * 1e-8);
+      proposal_ = spec.initial_step > 0 ? spec.initial_step : cautious_start_;
     else
       proposal_ = fixed_;
     proposal_ = std::min(proposal_, duration);
@@ -64,6 +65,12 @@ namespace fickcast
     floor_ = std::min(floor, max_step_);
     if (!initial_given_)
       proposal_ = std::max(proposal_, floor_);
+  }
+
+  void StepController::propose_start(const double step)
+  {
+    if (adaptive_ && step > 0 && !initial_given_)
+      proposal_ = std::min(std::max(step, floor_), max_step_);
   }
 
   void StepController::accept_unjudged(const double dt, const bool shortened)

@@ -38,6 +38,13 @@ namespace fickcast
     /// estimate is too large is accepted all the same (its error is then reported, not hidden).
     /// Starts there unless time.initial_step is given.
     void set_floor(double floor);
+    /// The first step of the run from an estimate of what the initial state allows
+    /// (starting_step), unless time.initial_step is given; kept within the floor and the largest
+    /// step. (A later stage keeps the proposal it reached, as before: a shorter restart there
+    /// cost the staged restart case 300 more steps of 619.)
+    void propose_start(double step);
+    /// The start before any estimate: a hundred-millionth of the run.
+    double cautious_start() const { return cautious_start_; }
 
   private:
     bool adaptive_;
@@ -47,5 +54,6 @@ namespace fickcast
     double fixed_;
     double floor_ = 0;
     bool initial_given_;
+    double cautious_start_;
   };
 } // namespace fickcast

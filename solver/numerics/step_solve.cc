@@ -7,6 +7,8 @@
 
 #include <deal.II/base/mpi.h>
 #include <deal.II/lac/full_matrix.h>
+#include <deal.II/lac/solver_cg.h>
+#include <deal.II/lac/trilinos_precondition.h>
 #include <deal.II/lac/vector.h>
 
 #include <algorithm>
@@ -193,10 +195,13 @@ namespace fickcast
             matrix = &modified_;
           }
 
-        Vector lifted_image = make_vector(), b = make_vector();
-        apply_system(lifted, lifted_image);
-        b = rhs_used;
-        b -= lifted_image;
+        Vector b = rhs_used;
+        if (Utilities::MPI::sum(fixed_dofs_.size() + active.size(), communicator_) > 0)
+          {
+            Vector lifted_image = make_vector();
+            apply_system(lifted, lifted_image);
+            b -= lifted_image;
+          }
         zero_rows(b, held);
         Vector w = u1;
         w -= lifted;
@@ -397,14 +402,16 @@ namespace fickcast
           }
       }
 
-    // Reactions: residual of the unconstrained equations at the fixed unknowns.
+    // Reactions: residual of the unconstrained equations at the fixed unknowns (none: a sealed body).
+    result.reactions.assign(boundaries_.size(), 0.0);
+    if (Utilities::MPI::sum(fixed_dofs_.size(), communicator_) == 0)
+      return result;
     Vector residual = make_vector();
     mass_.full.vmult(residual, u1);
     residual *= plan.a0;
     apply_operator(plan.t1, u1, tmp);
     residual.add(plan.w1, tmp);
     residual -= rhs_used;
-    result.reactions.assign(boundaries_.size(), 0.0);
     for (const auto &[dof, boundary] : fixed_dofs_)
       result.reactions[boundary] += residual[dof];
     Utilities::MPI::sum(result.reactions, communicator_, result.reactions);
@@ -458,6 +465,36 @@ namespace fickcast
     return result.linear_iterations;
   }
 
+  template <int dim>
+  typename DiffusionProblem<dim>::Vector DiffusionProblem<dim>::rate_of_change(const Vector &u, const double t) const
+  {
+    Vector residual = make_vector(), image = make_vector(), rate = make_vector();
+    forcing(t, residual);
+    apply_operator(t, u, image);
+    residual -= image;
+    zero_fixed(residual);
+    zero_hanging(residual);
+    const double size = residual.l2_norm();
+    if (size > 0)
+      {
+        // The mass matrix is well conditioned under its diagonal (a few tens of iterations).
+        SolverControl control(1000, 1e-10 * size);
+        SolverCG<Vector> cg(control);
+        TrilinosWrappers::PreconditionJacobi diagonal;
+        diagonal.initialize(mass_.constrained);
+        cg.solve(mass_.constrained, rate, residual, diagonal);
+      }
+    zero_fixed(rate);
+    distribute(rate);
+    return rate;
+  }
+
+  template DiffusionProblem<1>::Vector DiffusionProblem<1>::rate_of_change(const DiffusionProblem<1>::Vector &,
+                                                                           double) const;
+  template DiffusionProblem<2>::Vector DiffusionProblem<2>::rate_of_change(const DiffusionProblem<2>::Vector &,
+                                                                           double) const;
+  template DiffusionProblem<3>::Vector DiffusionProblem<3>::rate_of_change(const DiffusionProblem<3>::Vector &,
+                                                                           double) const;
   template unsigned int DiffusionProblem<1>::propagate_error(const StepPlan &, const DiffusionProblem<1>::Vector &,
                                                              const DiffusionProblem<1>::Vector *,
                                                              DiffusionProblem<1>::Vector &);

@@ -15,6 +15,7 @@
 #include "run/landing_times.h"
 #include "run/run_remeshing.h"
 #include "run/series_layout.h"
+#include "run/starting_step.h"
 #include "run/step_error.h"
 
 #include <deal.II/base/mpi.h>
@@ -286,11 +287,10 @@ namespace fickcast
     };
 
     // The named points' step error, each relative to its own value but to no less than a floor:
-    // time.error_floor (the accuracy check sets it from the points' values of the solve before),
-    // else, in the check's first solve, a millionth of the scale (the 1-D tail of the wafer demo,
-    // 7.8e-6 of its scale, came out 15 % high when only the field was judged: the late steps grew
-    // to 57 s); without the check they are not judged. The field's measure keeps a floor of 1e-3
-    // of the scale (a deeper one everywhere costs many steps in 3-D).
+    // time.error_floor (set by the accuracy check from the solve before), else in the check's
+    // first solve 1e-6 of the scale (the wafer demo's 1-D tail, 7.8e-6 of the scale, came out 15 %
+    // high when only the field was judged); without the check they are not judged. The field's
+    // measure keeps a floor of 1e-3 of the scale (deeper costs many steps in 3-D).
     const double point_floor =
       c.time.error_floor > 0 ? c.time.error_floor : (c.numerics.accuracy > 0 ? 1e-6 * scale : 0.0);
     const auto point_step_error = [&](const Vector &difference) {
@@ -302,6 +302,15 @@ namespace fickcast
       for (std::size_t k = 0; k < errors.size(); ++k)
         worst = std::max(worst, std::abs(errors[k]) / std::max(std::abs(values[k]), point_floor));
       return worst;
+    };
+
+    // The first step of the run: what the initial state allows (starting_step.h).
+    const auto measure = [&](const Vector &v) { return std::max(step_norm(v), point_step_error(v)); };
+    const auto propose_start = [&]() {
+      u_new = u;
+      if (!dispersed)
+        controller.propose_start(starting_step<dim>(problem, u, t, clock.rate(t), controller.cautious_start(),
+                                                    clock_end, c.time.tolerance, measure));
     };
 
     // Everything the loop carries from step to step, in one order for writing and reading.
@@ -447,6 +456,7 @@ namespace fickcast
                 initial_rates[b] = not_a_number; // undefined at the instant the condition starts
             write_row(0.0, 0, 0.0, u, initial_rates);
             output_fields(0.0, u);
+            propose_start();
           }
         while (next_hard < hard.size())
           {
