@@ -38,7 +38,9 @@ namespace fickcast::post
   std::string html_table(const std::vector<std::string> &header, const std::vector<std::vector<std::string>> &rows,
                          const std::string &css_class)
   {
-    std::string out = css_class.empty() ? "<table>\n" : "<table class=\"" + css_class + "\">\n";
+    // A table wider than the page (a study's per-case table) scrolls in its own box, not the page.
+    std::string out = "<div class=\"table-box\">";
+    out += css_class.empty() ? "<table>\n" : "<table class=\"" + css_class + "\">\n";
     if (!header.empty())
       {
         out += "<thead><tr>";
@@ -54,7 +56,7 @@ namespace fickcast::post
           out += "<td>" + html_escape(cell) + "</td>";
         out += "</tr>\n";
       }
-    return out + "</tbody></table>\n";
+    return out + "</tbody></table></div>\n";
   }
 
   std::string html_embedded_png(const std::string &png_path, const std::string &alt)
@@ -91,6 +93,7 @@ h1 { font-size: 1.6em; margin-bottom: 0.2em; }
 h2 { font-size: 1.2em; border-bottom: 1px solid #999; padding-bottom: 0.15em; margin-top: 1.8em; }
 p.meta { color: #444; margin-top: 0; }
 table { border-collapse: collapse; margin: 0.6em 0; font-size: 0.92em; }
+div.table-box { max-width: 100%; overflow-x: auto; }
 th, td { border: 1px solid #bbb; padding: 0.25em 0.6em; text-align: left; vertical-align: top; }
 th { background: #eee; }
 td.number { text-align: right; font-variant-numeric: tabular-nums; }
@@ -104,6 +107,7 @@ figcaption { font-size: 0.9em; color: #333; }
 code { font-family: "DejaVu Sans Mono", monospace; font-size: 0.92em; }
 @media print {
   body { margin: 0; max-width: none; font-size: 10pt; }
+  div.table-box { overflow: visible; }
   h2 { page-break-after: avoid; break-after: avoid; }
   a { color: #000; text-decoration: none; }
   figure img { border: none; }
