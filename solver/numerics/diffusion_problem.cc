@@ -230,6 +230,7 @@ namespace fickcast
   template <int dim>
   void DiffusionProblem<dim>::reinit(MatrixPair &pair)
   {
+    rows_next_to_fixed_valid_ = false;
     DynamicSparsityPattern pattern(relevant_);
     DoFTools::make_sparsity_pattern(dof_handler_, pattern, hanging_, true);
     SparsityTools::distribute_sparsity_pattern(pattern, owned_, communicator_, relevant_);
@@ -273,6 +274,7 @@ namespace fickcast
   void DiffusionProblem<dim>::setup_fixed_unknowns()
   {
     // Fixed unknowns: concentration boundaries and baths; the first boundary (by id) wins at corners.
+    rows_next_to_fixed_valid_ = false;
     constraints_.clear();
     constraints_.reinit(relevant_);
     DoFTools::make_hanging_node_constraints(dof_handler_, constraints_);

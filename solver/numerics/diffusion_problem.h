@@ -307,6 +307,14 @@ namespace fickcast
     /// ratio, over unconstrained rows, of the diagonal's stiffness part to its mass part.
     double diffusion_number(double mass_weight) const;
     void apply_frozen(double t, const Vector &x, Vector &out) const;
+    /// The assembled matrices whose weighted sum is the step's a0 M + w1 L, with their weights:
+    /// with @p frozen the coefficients as last assembled (apply_frozen), else the operator at t1
+    /// (apply_operator), empty when that is not assembled (nonlinear, or reassembled at t1).
+    std::vector<std::pair<const dealii::TrilinosWrappers::SparseMatrix *, double>> operator_terms(const StepPlan &plan,
+                                                                                                  bool frozen) const;
+    /// The owned rows that couple to a fixed unknown (found on first use after the fixed unknowns
+    /// or the operators were made).
+    const std::vector<dealii::types::global_dof_index> &rows_next_to_fixed();
     void solve_fixed(const StepPlan &plan, const Vector &rhs, Vector &u1, Vector &rhs_used, StepResult &result);
     void newton(const StepPlan &plan, const Vector &rhs, Vector &u1, StepResult &result);
     void solve_linear(const dealii::TrilinosWrappers::SparseMatrix *modified, Vector &x, const Vector &b,
@@ -347,6 +355,8 @@ namespace fickcast
     double dynamic_time_ = -1;
     bool dynamic_valid_ = false;
     bool dynamic_is_jacobian_ = false;
+    std::vector<dealii::types::global_dof_index> rows_next_to_fixed_;
+    bool rows_next_to_fixed_valid_ = false;
     unsigned long dynamic_version_ = 0;
     std::vector<Vector> region_mass_; ///< M_r 1 per region
     std::vector<Vector> region_load_; ///< int phi w per region

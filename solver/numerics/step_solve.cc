@@ -11,6 +11,8 @@
 #include <deal.II/lac/trilinos_precondition.h>
 
 #include <Epetra_CrsMatrix.h>
+#include <Epetra_Import.h>
+#include <Epetra_Vector.h>
 #include <deal.II/lac/vector.h>
 
 #include <algorithm>
@@ -19,6 +21,106 @@
 namespace fickcast
 {
   using namespace dealii;
+
+  namespace
+  {
+    /// @p owned in the column numbering of @p matrix (its owned and ghost columns): what a row
+    /// of it multiplies, read without a look-up per entry.
+    Epetra_Vector in_columns(const TrilinosWrappers::SparseMatrix &matrix, const TrilinosWrappers::MPI::Vector &owned)
+    {
+      const Epetra_CrsMatrix &m = matrix.trilinos_matrix();
+      const Epetra_MultiVector &source = owned.trilinos_vector();
+      Epetra_Vector columns(m.ColMap(), false);
+      if (m.Importer() != nullptr)
+        columns.Import(source, *m.Importer(), Insert);
+      else
+        for (int k = 0; k < columns.MyLength(); ++k)
+          columns[k] = source[0][k];
+      return columns;
+    }
+
+    /// Owned row @p row of @p matrix times @p columns (in_columns of the same matrix).
+    double row_product(const TrilinosWrappers::SparseMatrix &matrix, const types::global_dof_index row,
+                       const Epetra_Vector &columns)
+    {
+      const Epetra_CrsMatrix &m = matrix.trilinos_matrix();
+      int n = 0;
+      double *values = nullptr;
+      int *indices = nullptr;
+      m.ExtractMyRowView(m.LRID(static_cast<TrilinosWrappers::types::int_type>(row)), n, values, indices);
+      double sum = 0;
+      for (int k = 0; k < n; ++k)
+        sum += values[k] * columns[indices[k]];
+      return sum;
+    }
+
+    /// sum_j weight_j (A_j x)_row over @p rows, for the matrices and weights of @p terms.
+    std::vector<double> rows_of_sum(const std::vector<std::pair<const TrilinosWrappers::SparseMatrix *, double>> &terms,
+                                    const std::vector<types::global_dof_index> &rows,
+                                    const TrilinosWrappers::MPI::Vector &x)
+    {
+      std::vector<double> out(rows.size(), 0.0);
+      for (const auto &[matrix, weight] : terms)
+        {
+          const Epetra_Vector columns = in_columns(*matrix, x);
+          for (std::size_t i = 0; i < rows.size(); ++i)
+            out[i] += weight * row_product(*matrix, rows[i], columns);
+        }
+      return out;
+    }
+  } // namespace
+
+  template <int dim>
+  std::vector<std::pair<const TrilinosWrappers::SparseMatrix *, double>>
+  DiffusionProblem<dim>::operator_terms(const StepPlan &plan, const bool frozen) const
+  {
+    const bool dynamic = dynamic_matrices_.full.m() != 0;
+    const bool dynamic_usable = dynamic && dynamic_valid_ && !dynamic_is_jacobian_;
+    if (!frozen && (nonlinear_ || (dynamic && !(dynamic_usable && dynamic_time_ == plan.t1))))
+      return {};
+    std::vector<std::pair<const TrilinosWrappers::SparseMatrix *, double>> terms{{&mass_.full, plan.a0},
+                                                                                 {&static_.full, plan.w1}};
+    for (unsigned int r = 0; r < unit_index_.size(); ++r)
+      if (unit_index_[r] >= 0)
+        terms.emplace_back(&unit_[static_cast<std::size_t>(unit_index_[r])].full,
+                           plan.w1 * materials_[r].diffusivity(0, 0, 0, plan.t1, 0));
+    if (dynamic_usable)
+      terms.emplace_back(&dynamic_matrices_.full, plan.w1);
+    return terms;
+  }
+
+  template <int dim>
+  const std::vector<types::global_dof_index> &DiffusionProblem<dim>::rows_next_to_fixed()
+  {
+    if (rows_next_to_fixed_valid_)
+      return rows_next_to_fixed_;
+    Vector marks = make_vector();
+    for (const auto &[dof, b] : fixed_dofs_)
+      {
+        (void)b;
+        marks[dof] = 1.0;
+      }
+    marks.compress(VectorOperation::insert);
+    // By the pattern (a row whose entries at fixed columns cancel still couples to them).
+    const Epetra_Vector columns = in_columns(mass_.full, marks);
+    const Epetra_CrsMatrix &m = mass_.full.trilinos_matrix();
+    rows_next_to_fixed_.clear();
+    for (const auto row : owned_)
+      {
+        int n = 0;
+        double *values = nullptr;
+        int *indices = nullptr;
+        m.ExtractMyRowView(m.LRID(static_cast<TrilinosWrappers::types::int_type>(row)), n, values, indices);
+        for (int k = 0; k < n; ++k)
+          if (columns[indices[k]] != 0)
+            {
+              rows_next_to_fixed_.push_back(row);
+              break;
+            }
+      }
+    rows_next_to_fixed_valid_ = true;
+    return rows_next_to_fixed_;
+  }
 
   template <int dim>
   void DiffusionProblem<dim>::build_system(const StepPlan &plan, const bool jacobian)
@@ -198,7 +300,18 @@ namespace fickcast
           }
 
         Vector b = rhs_used;
-        if (Utilities::MPI::sum(fixed_dofs_.size() + active.size(), communicator_) > 0)
+        const auto n_active = Utilities::MPI::sum(active.size(), communicator_);
+        if (n_active == 0 && Utilities::MPI::sum(fixed_dofs_.size(), communicator_) > 0)
+          {
+            // The known values sit on the fixed unknowns only: their image lies on the rows next to
+            // them (the pattern of every operator matrix is the mass matrix's).
+            const auto &rows = rows_next_to_fixed();
+            const std::vector<double> image = rows_of_sum(operator_terms(plan, true), rows, lifted);
+            for (std::size_t i = 0; i < rows.size(); ++i)
+              b[rows[i]] -= image[i];
+            b.compress(VectorOperation::insert);
+          }
+        else if (n_active > 0)
           {
             Vector lifted_image = make_vector();
             apply_system(lifted, lifted_image);
@@ -410,36 +523,15 @@ namespace fickcast
       return result;
     // Where the operator is a sum of assembled matrices, only the rows of the fixed unknowns are
     // needed (a few hundred rows instead of two or three products with every row).
-    const bool by_rows = !nonlinear_ && (dynamic_matrices_.full.m() == 0 ||
-                                         (dynamic_valid_ && !dynamic_is_jacobian_ && dynamic_time_ == plan.t1));
-    if (by_rows)
+    const auto terms = operator_terms(plan, false);
+    if (!terms.empty())
       {
-        std::vector<std::pair<const TrilinosWrappers::SparseMatrix *, double>> terms{{&mass_.full, plan.a0},
-                                                                                     {&static_.full, plan.w1}};
-        for (unsigned int r = 0; r < unit_index_.size(); ++r)
-          if (unit_index_[r] >= 0)
-            terms.emplace_back(&unit_[static_cast<std::size_t>(unit_index_[r])].full,
-                               plan.w1 * materials_[r].diffusivity(0, 0, 0, plan.t1, 0));
-        if (dynamic_matrices_.full.m() != 0)
-          terms.emplace_back(&dynamic_matrices_.full, plan.w1);
-        const Vector ghosted = make_ghosted(u1);
+        std::vector<types::global_dof_index> rows;
         for (const auto &[dof, boundary] : fixed_dofs_)
-          {
-            double row_sum = -rhs_used[dof];
-            for (const auto &[matrix, weight] : terms)
-              {
-                const Epetra_CrsMatrix &m = matrix->trilinos_matrix();
-                int n = 0;
-                double *values = nullptr;
-                int *columns = nullptr;
-                m.ExtractMyRowView(m.LRID(static_cast<TrilinosWrappers::types::int_type>(dof)), n, values, columns);
-                double sum = 0;
-                for (int k = 0; k < n; ++k)
-                  sum += values[k] * ghosted[static_cast<types::global_dof_index>(m.GCID(columns[k]))];
-                row_sum += weight * sum;
-              }
-            result.reactions[boundary] += row_sum;
-          }
+          rows.push_back(dof);
+        const std::vector<double> products = rows_of_sum(terms, rows, u1);
+        for (std::size_t i = 0; i < rows.size(); ++i)
+          result.reactions[fixed_dofs_[i].second] += products[i] - rhs_used[rows[i]];
       }
     else
       {
