@@ -231,6 +231,7 @@ namespace fickcast
   void DiffusionProblem<dim>::reinit(MatrixPair &pair)
   {
     rows_next_to_fixed_valid_ = false;
+    part_diagonals_.clear();
     DynamicSparsityPattern pattern(relevant_);
     DoFTools::make_sparsity_pattern(dof_handler_, pattern, hanging_, true);
     SparsityTools::distribute_sparsity_pattern(pattern, owned_, communicator_, relevant_);
@@ -712,7 +713,7 @@ namespace fickcast
         if (reusable(state.system_key))
           {
             compose_system(state.system_key);
-            solver_->set_matrix(system_, 1.0, true, diffusion_number(state.system_key[0]));
+            solver_->set_matrix(system_, 1.0, true, diffusion_number(state.system_key));
             system_key_ = state.system_key;
           }
       }

@@ -303,9 +303,10 @@ namespace fickcast
     void build_system(const StepPlan &plan, bool jacobian);
     /// system_ = key[0] M + key[1] L_static + key[2 + j] L_unit_j (the key build_system makes).
     void compose_system(const std::vector<double> &key);
-    /// The diffusion number of system_ composed with mass weight @p mass_weight: the largest
-    /// ratio, over unconstrained rows, of the diagonal's stiffness part to its mass part.
-    double diffusion_number(double mass_weight) const;
+    /// The diffusion number of system_ composed with @p key: the largest ratio, over
+    /// unconstrained rows, of the diagonal's stiffness part to its mass part. From the diagonals
+    /// of the parts (kept until they are assembled again), or of system_ with a dynamic part.
+    double diffusion_number(const std::vector<double> &key);
     void apply_frozen(double t, const Vector &x, Vector &out) const;
     /// The assembled matrices whose weighted sum is the step's a0 M + w1 L, with their weights:
     /// with @p frozen the coefficients as last assembled (apply_frozen), else the operator at t1
@@ -355,6 +356,7 @@ namespace fickcast
     double dynamic_time_ = -1;
     bool dynamic_valid_ = false;
     bool dynamic_is_jacobian_ = false;
+    std::vector<std::vector<double>> part_diagonals_; ///< of M, L_static, L_unit_j (owned rows), or empty
     std::vector<dealii::types::global_dof_index> rows_next_to_fixed_;
     bool rows_next_to_fixed_valid_ = false;
     unsigned long dynamic_version_ = 0;

@@ -26,6 +26,7 @@ namespace fickcast
   void DiffusionProblem<dim>::assemble_constant_parts()
   {
     PhaseTimer::Scope scope(timer_, "assembly");
+    part_diagonals_.clear();
     const unsigned int n_regions = names_.regions.size();
     const unsigned int n_boundaries = names_.boundaries.size();
     region_mass_.assign(n_regions, make_vector());

@@ -160,38 +160,120 @@ namespace fickcast
           }
       }
     const unsigned int before = solver_->n_setups();
-    solver_->set_matrix(system_, change, !jacobian, jacobian ? -1.0 : diffusion_number(key[0]));
+    solver_->set_matrix(system_, change, !jacobian, jacobian ? -1.0 : diffusion_number(key));
     if (solver_->n_setups() != before)
       hierarchy_key_ = key;
     system_key_ = key;
   }
 
   template <int dim>
-  double DiffusionProblem<dim>::diffusion_number(const double mass_weight) const
+  double DiffusionProblem<dim>::diffusion_number(const std::vector<double> &key)
   {
+    const auto diagonal_of = [](const TrilinosWrappers::SparseMatrix &matrix) {
+      const Epetra_CrsMatrix &m = matrix.trilinos_matrix();
+      Epetra_Vector d(m.RowMap());
+      m.ExtractDiagonalCopy(d);
+      return std::vector<double>(d.Values(), d.Values() + d.MyLength());
+    };
+    const double mass_weight = key[0];
     double largest = 0;
     if (mass_weight > 0)
-      for (const auto i : dof_handler_.locally_owned_dofs())
-        {
-          if (constraints_.is_constrained(i))
-            continue;
-          const double mass = mass_weight * mass_.constrained.diag_element(i);
-          if (mass > 0)
-            largest = std::max(largest, (system_.diag_element(i) - mass) / mass);
-        }
+      {
+        // The system's diagonal as compose_system sums it (same order), from the parts' diagonals.
+        const bool dynamic = dynamic_matrices_.full.m() != 0;
+        std::vector<double> system_diagonal;
+        if (dynamic)
+          system_diagonal = diagonal_of(system_);
+        if (part_diagonals_.empty())
+          {
+            part_diagonals_.push_back(diagonal_of(mass_.constrained));
+            part_diagonals_.push_back(diagonal_of(static_.constrained));
+            for (unsigned int r = 0; r < unit_index_.size(); ++r)
+              if (unit_index_[r] >= 0)
+                part_diagonals_.push_back(diagonal_of(unit_[static_cast<std::size_t>(unit_index_[r])].constrained));
+          }
+        const std::vector<double> &mass = part_diagonals_[0];
+        const Epetra_Map &rows = mass_.constrained.trilinos_matrix().RowMap();
+        for (std::size_t i = 0; i < mass.size(); ++i)
+          {
+            if (constraints_.is_constrained(static_cast<types::global_dof_index>(rows.GID(static_cast<int>(i)))))
+              continue;
+            double system = 0;
+            if (dynamic)
+              system = system_diagonal[i];
+            else
+              {
+                system = mass[i] * key[0];
+                for (std::size_t p = 1; p < part_diagonals_.size(); ++p)
+                  system += key[p] * part_diagonals_[p][i];
+              }
+            const double m = mass_weight * mass[i];
+            if (m > 0)
+              largest = std::max(largest, (system - m) / m);
+          }
+      }
     return Utilities::MPI::max(largest, communicator_);
   }
 
   template <int dim>
   void DiffusionProblem<dim>::compose_system(const std::vector<double> &key)
   {
-    system_.copy_from(mass_.constrained);
-    system_ *= key[0];
-    system_.add(key[1], static_.constrained);
+    std::vector<std::pair<const TrilinosWrappers::SparseMatrix *, double>> parts{{&mass_.constrained, key[0]},
+                                                                                 {&static_.constrained, key[1]}};
     std::size_t next = 2;
     for (unsigned int r = 0; r < unit_index_.size(); ++r)
       if (unit_index_[r] >= 0)
-        system_.add(key[next++], unit_[static_cast<std::size_t>(unit_index_[r])].constrained);
+        parts.emplace_back(&unit_[static_cast<std::size_t>(unit_index_[r])].constrained, key[next++]);
+
+    // Every part is made from one sparsity pattern, so once system_ has it the sum is one pass
+    // over the entries (the same arithmetic, in the same order, as copy, scale and add).
+    bool same_layout = system_.m() == mass_.constrained.m() && system_.m() != 0;
+    if (same_layout)
+      {
+        const Epetra_CrsMatrix &out = system_.trilinos_matrix();
+        for (const auto &part : parts)
+          same_layout = same_layout && part.first->trilinos_matrix().NumMyNonzeros() == out.NumMyNonzeros() &&
+                        part.first->trilinos_matrix().RowMap().SameAs(out.RowMap()) &&
+                        part.first->trilinos_matrix().ColMap().SameAs(out.ColMap());
+      }
+    if (same_layout)
+      {
+        // Values are written in place (the wrapper keeps no copy of them).
+        auto &out = const_cast<Epetra_CrsMatrix &>(system_.trilinos_matrix());
+        std::vector<const Epetra_CrsMatrix *> inputs;
+        for (const auto &part : parts)
+          inputs.push_back(&part.first->trilinos_matrix());
+        for (int row = 0; row < out.NumMyRows() && same_layout; ++row)
+          {
+            int n = 0;
+            double *values = nullptr;
+            int *indices = nullptr;
+            out.ExtractMyRowView(row, n, values, indices);
+            std::vector<double *> in_values(parts.size());
+            for (std::size_t p = 0; p < parts.size() && same_layout; ++p)
+              {
+                int m = 0;
+                int *in_indices = nullptr;
+                inputs[p]->ExtractMyRowView(row, m, in_values[p], in_indices);
+                same_layout = m == n && std::equal(indices, indices + n, in_indices);
+              }
+            if (!same_layout)
+              break;
+            for (int k = 0; k < n; ++k)
+              {
+                double v = in_values[0][k] * parts[0].second;
+                for (std::size_t p = 1; p < parts.size(); ++p)
+                  v += parts[p].second * in_values[p][k];
+                values[k] = v;
+              }
+          }
+        if (same_layout)
+          return;
+      }
+    system_.copy_from(mass_.constrained);
+    system_ *= key[0];
+    for (std::size_t p = 1; p < parts.size(); ++p)
+      system_.add(parts[p].second, *parts[p].first);
   }
 
   template <int dim>
