@@ -39,18 +39,29 @@ namespace fickcast
       return columns;
     }
 
+    /// The stored entries of local row @p local of @p m, read in place.
+    struct RowView
+    {
+      RowView(const Epetra_CrsMatrix &m, const int local) { m.ExtractMyRowView(local, n, values, indices); }
+      int n = 0;
+      double *values = nullptr;
+      int *indices = nullptr; ///< local column indices
+    };
+
+    /// Local row of the owned global row @p row of @p m.
+    int local_row(const Epetra_CrsMatrix &m, const types::global_dof_index row)
+    {
+      return m.LRID(static_cast<TrilinosWrappers::types::int_type>(row));
+    }
+
     /// Owned row @p row of @p matrix times @p columns (in_columns of the same matrix).
     double row_product(const TrilinosWrappers::SparseMatrix &matrix, const types::global_dof_index row,
                        const Epetra_Vector &columns)
     {
-      const Epetra_CrsMatrix &m = matrix.trilinos_matrix();
-      int n = 0;
-      double *values = nullptr;
-      int *indices = nullptr;
-      m.ExtractMyRowView(m.LRID(static_cast<TrilinosWrappers::types::int_type>(row)), n, values, indices);
+      const RowView r(matrix.trilinos_matrix(), local_row(matrix.trilinos_matrix(), row));
       double sum = 0;
-      for (int k = 0; k < n; ++k)
-        sum += values[k] * columns[indices[k]];
+      for (int k = 0; k < r.n; ++k)
+        sum += r.values[k] * columns[r.indices[k]];
       return sum;
     }
 
@@ -107,16 +118,9 @@ namespace fickcast
     rows_next_to_fixed_.clear();
     for (const auto row : owned_)
       {
-        int n = 0;
-        double *values = nullptr;
-        int *indices = nullptr;
-        m.ExtractMyRowView(m.LRID(static_cast<TrilinosWrappers::types::int_type>(row)), n, values, indices);
-        for (int k = 0; k < n; ++k)
-          if (columns[indices[k]] != 0)
-            {
-              rows_next_to_fixed_.push_back(row);
-              break;
-            }
+        const RowView r(m, local_row(m, row));
+        if (std::any_of(r.indices, r.indices + r.n, [&](const int k) { return columns[k] != 0; }))
+          rows_next_to_fixed_.push_back(row);
       }
     rows_next_to_fixed_valid_ = true;
     return rows_next_to_fixed_;
@@ -245,26 +249,22 @@ namespace fickcast
           inputs.push_back(&part.first->trilinos_matrix());
         for (int row = 0; row < out.NumMyRows() && same_layout; ++row)
           {
-            int n = 0;
-            double *values = nullptr;
-            int *indices = nullptr;
-            out.ExtractMyRowView(row, n, values, indices);
-            std::vector<double *> in_values(parts.size());
+            const RowView target(out, row);
+            std::vector<const double *> in_values(parts.size());
             for (std::size_t p = 0; p < parts.size() && same_layout; ++p)
               {
-                int m = 0;
-                int *in_indices = nullptr;
-                inputs[p]->ExtractMyRowView(row, m, in_values[p], in_indices);
-                same_layout = m == n && std::equal(indices, indices + n, in_indices);
+                const RowView in(*inputs[p], row);
+                in_values[p] = in.values;
+                same_layout = in.n == target.n && std::equal(target.indices, target.indices + target.n, in.indices);
               }
             if (!same_layout)
               break;
-            for (int k = 0; k < n; ++k)
+            for (int k = 0; k < target.n; ++k)
               {
                 double v = in_values[0][k] * parts[0].second;
                 for (std::size_t p = 1; p < parts.size(); ++p)
                   v += parts[p].second * in_values[p][k];
-                values[k] = v;
+                target.values[k] = v;
               }
           }
         if (same_layout)

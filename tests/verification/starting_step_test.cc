@@ -5,6 +5,7 @@
 // scale instead of a hundred-millionth of the run, at no cost in accuracy; a sudden surface value
 // keeps the cautious start.
 #include "case_runner.h"
+#include "csv_table.h"
 
 #include <boost/math/special_functions/erf.hpp>
 
@@ -12,8 +13,6 @@
 
 #include <cmath>
 #include <cstdio>
-#include <fstream>
-#include <sstream>
 #include <string>
 #include <vector>
 
@@ -21,21 +20,12 @@ namespace fickcast::testing
 {
   namespace
   {
-    /// The dt column of the first step in a results folder's series.csv.
+    /// The first step of a run: the dt of the row after t = 0 in its folder's series.csv.
     double first_step(const std::string &folder)
     {
-      std::ifstream in(folder + "/series.csv");
-      std::string header, initial, first;
-      std::getline(in, header);
-      std::getline(in, initial);
-      std::getline(in, first);
-      std::stringstream row(first);
-      std::string time, step, dt;
-      std::getline(row, time, ',');
-      std::getline(row, step, ',');
-      std::getline(row, dt, ',');
-      EXPECT_EQ(header.rfind("time [s],step,dt [s]", 0), 0u) << header;
-      return std::stod(dt);
+      const CsvTable series = read_csv(folder + "/series.csv");
+      EXPECT_GE(series.rows(), 2u);
+      return series.column("dt").at(1);
     }
 
     const double depths[] = {0.0, 0.5, 1.0, 2.0, 3.0};
