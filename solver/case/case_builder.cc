@@ -49,6 +49,7 @@ namespace fickcast
                                  : solver == "multigrid" ? LinearSolverKind::multigrid
                                                          : LinearSolverKind::automatic;
       c.numerics.solver_tolerance = reader.quantity("numerics", "solver_tolerance", 1e-12);
+      c.numerics.matrix_free = reader.text("numerics", "matrix_free") != "off";
       c.numerics.newton = reader.text("numerics", "nonlinear_solver") == "newton";
       c.numerics.nonlinear_tolerance = reader.quantity("numerics", "nonlinear_tolerance", 1e-8);
       c.numerics.max_nonlinear_iterations =

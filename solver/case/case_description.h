@@ -234,7 +234,9 @@ namespace fickcast
   {
     unsigned int degree = 2;
     LinearSolverKind linear_solver = LinearSolverKind::automatic;
-    double solver_tolerance = 1e-12;   ///< relative residual of the iterative solver
+    double solver_tolerance = 1e-12; ///< relative residual of the iterative solver
+    /// Apply the step operator without its matrix where that works (numerics.matrix_free).
+    bool matrix_free = true;
     bool newton = true;                ///< Newton (else Picard) for concentration-dependent D
     double nonlinear_tolerance = 1e-8; ///< change per iteration relative to the concentration scale
     unsigned int max_nonlinear_iterations = 30;

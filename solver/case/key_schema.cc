@@ -213,12 +213,19 @@ namespace fickcast
         make("time", "max_step", K::quantity, Dim::time, "", "largest step of an adaptive run; auto: end / 20"))));
       // [numerics]
       s.push_back(bounded(
-        make("numerics", "degree", K::integer, Dim::none, "2", "polynomial degree of the Lagrange elements: 1 or 2"), 1,
-        false, 2, false));
+        make("numerics", "degree", K::integer, Dim::none, "2",
+             "polynomial degree of the Lagrange elements: 1 to 4 (3 and 4 pay in 2-D and 3-D with the matrix-free "
+             "operator, on smooth fields)"),
+        1, false, 4, false));
       s.push_back(choices(make("numerics", "linear_solver", K::choice, Dim::none, "auto",
                                "auto, direct (sparse LU), iterative (CG with the diagonal or algebraic multigrid, "
                                "after the step matrix), or CG with one of them always: diagonal or multigrid"),
                           {"auto", "direct", "iterative", "diagonal", "multigrid"}));
+      s.push_back(choices(make("numerics", "matrix_free", K::choice, Dim::none, "auto",
+                               "auto: 2-D and 3-D linear steps solved with the diagonal apply the step operator "
+                               "cell by cell without assembling its matrix; off: always the assembled matrix "
+                               "(for checking one against the other)"),
+                          {"auto", "off"}));
       s.push_back(bounded(make("numerics", "solver_tolerance", K::quantity, Dim::dimensionless, "1e-12",
                                "relative residual reduction of the iterative solver"),
                           0, true, 1e-3, false));

@@ -1,6 +1,7 @@
 // DiffusionProblem: set-up, stages, fixed unknowns, state and observables. Assembly lives in
 // operator_assembly.cc, the step in step_solve.cc.
 #include "numerics/diffusion_problem.h"
+#include "numerics/matrix_free_step.h"
 
 #include "case/input_error.h"
 #include "geometry/mesh_import.h"
@@ -167,19 +168,30 @@ namespace fickcast
     system_.clear();
     modified_.clear();
     unit_.resize(static_cast<std::size_t>(n_unit_));
-    reinit(mass_);
-    reinit(static_);
-    for (auto &pair : unit_)
-      reinit(pair);
-    if (std::any_of(dynamic_.begin(), dynamic_.end(), [](bool d) { return d; }))
-      reinit(dynamic_matrices_);
-
     const bool serial = Utilities::MPI::n_mpi_processes(communicator_) == 1;
     const bool direct = choose_direct_solver(description_.numerics.linear_solver, dim, n_dofs(), serial);
     if (solver_)
       setups_before_ += solver_->n_setups();
     solver_ = std::make_unique<LinearSolver>(direct, description_.numerics.solver_tolerance, fe_.degree > 1,
                                              description_.numerics.linear_solver);
+    // Without matrices where the products can do without them (sized on first need).
+    matrices_sized_ = false;
+    matrices_ready_ = false;
+    matrix_free_.reset();
+    if (!matrix_free_applies())
+      size_matrices();
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::size_matrices()
+  {
+    reinit(mass_);
+    reinit(static_);
+    for (auto &pair : unit_)
+      reinit(pair);
+    if (std::any_of(dynamic_.begin(), dynamic_.end(), [](bool d) { return d; }))
+      reinit(dynamic_matrices_);
+    matrices_sized_ = true;
   }
 
   template <int dim>
@@ -712,8 +724,11 @@ namespace fickcast
           }
         if (reusable(state.system_key))
           {
-            compose_system(state.system_key);
-            solver_->set_matrix(system_, 1.0, true, diffusion_number(state.system_key));
+            if (!use_matrix_free(state.system_key))
+              {
+                compose_system(state.system_key);
+                solver_->set_matrix(system_, 1.0, true, diffusion_number(state.system_key));
+              }
             system_key_ = state.system_key;
           }
       }

@@ -23,6 +23,9 @@
 
 namespace fickcast
 {
+  template <int dim>
+  class MatrixFreeStep;
+
   /**
    * One step written as
    *
@@ -291,7 +294,10 @@ namespace fickcast
 
     // Assembly (operator_assembly.cc).
     unsigned int quadrature_points_per_axis() const;
+    /// The constant parts (assemble_parts), then the matrix-free operator where it applies.
     void assemble_constant_parts();
+    /// Mass, static and unit parts (the matrices only where they are sized), loads and weights.
+    void assemble_parts();
     void assemble_dynamic(double t, const Vector *u_ghosted, bool with_jacobian);
     void apply_operator(double t, const Vector &u, Vector &out) const;
     void apply_dynamic(double t, const Vector &u_ghosted, Vector &out) const;
@@ -320,6 +326,38 @@ namespace fickcast
     void newton(const StepPlan &plan, const Vector &rhs, Vector &u1, StepResult &result);
     void solve_linear(const dealii::TrilinosWrappers::SparseMatrix *modified, Vector &x, const Vector &b,
                       StepResult &result);
+    // The step operator without a matrix (matrix_free_use.cc).
+    /// Whether the steps can be solved without assembling the step matrix: 2-D or 3-D, linear
+    /// (no concentration- or position-and-time-dependent diffusivity, no undissolved reserve), an
+    /// iterative solver that may use the diagonal, and numerics.matrix_free not off.
+    bool matrix_free_applies() const;
+    /// Sets up the matrix-free step operator for the current space, stage and coefficients (or
+    /// drops it where it does not apply). After assemble_constant_parts().
+    void make_matrix_free();
+    /// Hands the solver the matrix-free operator for @p key if it takes it (CG with the diagonal
+    /// at this diffusion number); false: compose the matrix.
+    bool use_matrix_free(const std::vector<double> &key);
+    /// Whether the operators' products are evaluated without matrices (then the matrices are
+    /// assembled only when a step needs multigrid: ensure_matrices()).
+    bool products_without_matrix() const;
+    /// The key of the unconstrained sum a M + w L(t) (unit parts at D(t)), in build_system's order.
+    std::vector<double> operator_key(double a, double w, double t) const;
+    /// out = (sum of the parts with @p key) x without a matrix, unconstrained or constrained.
+    void product_without_matrix(const std::vector<double> &key, const Vector &x, Vector &out, bool constrained) const;
+    /// 1 / the diagonal of the constrained sum with @p key, without a matrix.
+    void inverse_diagonal_without_matrix(const std::vector<double> &key, Vector &out) const;
+    /// out = M x (unconstrained), from the matrix or without it.
+    void mass_product(const Vector &x, Vector &out) const;
+    /// Rows @p rows (owned) of the unconstrained sum with @p key times @p x, without a matrix.
+    std::vector<double> rows_of_product(const std::vector<double> &key,
+                                        const std::vector<dealii::types::global_dof_index> &rows,
+                                        const Vector &x) const;
+    /// The owned rows coupled to a held unknown, from the cells (no matrix pattern).
+    std::vector<dealii::types::global_dof_index> rows_next_to_fixed_by_cells() const;
+    /// Sizes the operator matrices (their sparsity) for the current unknowns.
+    void size_matrices();
+    /// Sizes and assembles the operator matrices if a matrix-free run has not yet.
+    void ensure_matrices();
 
     const CaseDescription &description_;
     MPI_Comm communicator_;
@@ -381,6 +419,9 @@ namespace fickcast
     std::vector<dealii::types::global_dof_index> depleted_; ///< reserve ran out in the last step
 
     std::unique_ptr<LinearSolver> solver_;
+    std::unique_ptr<MatrixFreeStep<dim>> matrix_free_;
+    bool matrices_sized_ = false;    ///< the operator matrices have their sparsity (else left empty)
+    bool matrices_ready_ = false;    ///< and hold the current stage's parts
     unsigned int setups_before_ = 0; ///< matrix setups of the run before a resume
     mutable std::string bad_coefficient_;
     mutable std::string non_finite_;        ///< first non-finite expression value (Material, BoundaryCondition)

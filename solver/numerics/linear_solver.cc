@@ -21,19 +21,24 @@ namespace fickcast
            (dimension == 1 || (dimension == 2 && n_unknowns <= 5000) || (dimension == 3 && n_unknowns <= 1000));
   }
 
-  std::string linear_solver_plan(const bool direct, const LinearSolverKind kind)
+  std::string linear_solver_plan(const bool direct, const LinearSolverKind kind, const bool matrix_free)
   {
     if (direct)
       return "direct (sparse LU, KLU), factorised when the step size changes";
+    const std::string without_matrix =
+      matrix_free && kind != LinearSolverKind::multigrid
+        ? "; with the diagonal, linear steps (no concentration- or position-and-time-dependent diffusivity, no "
+          "undissolved content) apply the step operator cell by cell without assembling its matrix"
+        : "";
     if (kind == LinearSolverKind::diagonal)
-      return "CG preconditioned by the diagonal (numerics.linear_solver = diagonal)";
+      return "CG preconditioned by the diagonal (numerics.linear_solver = diagonal)" + without_matrix;
     if (kind == LinearSolverKind::multigrid)
       return "CG preconditioned by algebraic multigrid (numerics.linear_solver = multigrid)";
     char limit[32];
     std::snprintf(limit, sizeof(limit), "%.3g", LinearSolver::initial_jacobi_limit);
     return std::string("CG, preconditioned by the diagonal while the mass term dominates the step matrix (diffusion "
                        "number up to ") +
-           limit + ", no set-up cost), else by algebraic multigrid (kept across steps)";
+           limit + ", no set-up cost), else by algebraic multigrid (kept across steps)" + without_matrix;
   }
 
   LinearSolver::LinearSolver(const bool direct, const double tolerance, const bool higher_order_elements,
@@ -67,6 +72,8 @@ namespace fickcast
                                 const bool symmetric, const double diffusion_number)
   {
     matrix_ = &matrix;
+    operator_ = nullptr;
+    needs_matrix_ = false;
     symmetric_ = symmetric;
     diffusion_number_ = diffusion_number;
     jacobi_.reset();
@@ -89,11 +96,28 @@ namespace fickcast
     build_multigrid(matrix);
   }
 
+  bool LinearSolver::set_operator(const OperatorWithoutMatrix &op, const double diffusion_number)
+  {
+    if (direct_ || !(diffusion_number >= 0 && diffusion_number <= jacobi_limit_))
+      return false;
+    operator_ = &op;
+    matrix_ = nullptr;
+    needs_matrix_ = false;
+    symmetric_ = true;
+    diffusion_number_ = diffusion_number;
+    jacobi_.reset();
+    return true;
+  }
+
   unsigned int LinearSolver::solve_with_multigrid(dealii::TrilinosWrappers::MPI::Vector &x,
                                                   const dealii::TrilinosWrappers::MPI::Vector &b, const double norm)
   {
     if (!multigrid_)
-      build_multigrid(*matrix_);
+      {
+        if (matrix_ == nullptr)
+          throw RunFailure("internal: a modified step matrix was solved without the step matrix's multigrid");
+        build_multigrid(*matrix_);
+      }
     dealii::SolverControl control(5000, tolerance_ * norm, false, false);
     try
       {
@@ -136,6 +160,8 @@ namespace fickcast
         x = 0;
         return 0;
       }
+    if (operator_)
+      return solve_with_operator(x, b, norm);
     if (!jacobi_)
       return solve_with_multigrid(x, b, norm);
 
@@ -167,6 +193,49 @@ namespace fickcast
     return control.last_step();
   }
 
+  unsigned int LinearSolver::solve_with_operator(dealii::TrilinosWrappers::MPI::Vector &x,
+                                                 const dealii::TrilinosWrappers::MPI::Vector &b, const double norm)
+  {
+    // As the diagonal with the matrix (solve()), but a failed solve hands back to the caller,
+    // which assembles the matrix for multigrid.
+    struct Diagonal
+    {
+      const dealii::TrilinosWrappers::MPI::Vector &inverse;
+      void vmult(dealii::TrilinosWrappers::MPI::Vector &dst, const dealii::TrilinosWrappers::MPI::Vector &src) const
+      {
+        dst = src;
+        dst.scale(inverse);
+      }
+    };
+    const Diagonal diagonal{operator_->inverse_diagonal()};
+    dealii::SolverControl control(adapt_limit_ ? 4 * slow_jacobi_iterations : 20000, tolerance_ * norm, false, false);
+    try
+      {
+        dealii::SolverCG<dealii::TrilinosWrappers::MPI::Vector> cg(control);
+        cg.solve(*operator_, x, b, diagonal);
+      }
+    catch (const dealii::SolverControl::NoConvergence &failure)
+      {
+        if (!adapt_limit_)
+          throw RunFailure("the linear solver (CG with the diagonal, numerics.linear_solver = diagonal) did not "
+                           "converge: residual " +
+                           std::to_string(failure.last_residual) + " after " + std::to_string(failure.last_step) +
+                           " iterations (use iterative or multigrid)");
+        ++jacobi_fallbacks_;
+        jacobi_limit_ = 0.5 * diffusion_number_;
+        operator_ = nullptr;
+        needs_matrix_ = true;
+        return control.last_step();
+      }
+    ++jacobi_solves_;
+    ++operator_solves_;
+    jacobi_iterations_ += control.last_step();
+    largest_jacobi_number_ = std::max(largest_jacobi_number_, diffusion_number_);
+    if (adapt_limit_ && control.last_step() > slow_jacobi_iterations)
+      jacobi_limit_ = std::min(jacobi_limit_, 0.7 * diffusion_number_); // stiffer steps: multigrid
+    return control.last_step();
+  }
+
   unsigned int LinearSolver::solve_other(const dealii::TrilinosWrappers::SparseMatrix &matrix,
                                          dealii::TrilinosWrappers::MPI::Vector &x,
                                          const dealii::TrilinosWrappers::MPI::Vector &b)
@@ -186,7 +255,11 @@ namespace fickcast
         return 0;
       }
     if (!multigrid_)
-      build_multigrid(*matrix_);
+      {
+        if (matrix_ == nullptr)
+          throw RunFailure("internal: a modified step matrix was solved without the step matrix's multigrid");
+        build_multigrid(*matrix_);
+      }
     dealii::SolverControl control(5000, tolerance_ * norm, false, false);
     dealii::SolverGMRES<dealii::TrilinosWrappers::MPI::Vector> gmres(
       control, dealii::SolverGMRES<dealii::TrilinosWrappers::MPI::Vector>::AdditionalData(50));
@@ -212,14 +285,15 @@ namespace fickcast
             static_cast<double>(jacobi_iterations_),
             static_cast<double>(multigrid_solves_),
             static_cast<double>(multigrid_iterations_),
-            static_cast<double>(jacobi_fallbacks_)};
+            static_cast<double>(jacobi_fallbacks_),
+            static_cast<double>(operator_solves_)};
   }
 
   void LinearSolver::restore_statistics(const std::vector<double> &values)
   {
     if (values.empty())
       return;
-    if (values.size() != 8)
+    if (values.size() != 8 && values.size() != 9)
       throw IoError("the checkpoint's linear-solver state does not fit this version of fickcast");
     jacobi_limit_ = values[0];
     largest_jacobi_number_ = values[1];
@@ -229,6 +303,7 @@ namespace fickcast
     multigrid_solves_ = static_cast<unsigned long>(values[5]);
     multigrid_iterations_ = static_cast<unsigned long>(values[6]);
     jacobi_fallbacks_ = static_cast<unsigned int>(values[7]);
+    operator_solves_ = values.size() > 8 ? static_cast<unsigned long>(values[8]) : 0;
   }
 
   std::string LinearSolver::description() const
@@ -242,11 +317,15 @@ namespace fickcast
     };
     std::string text;
     if (jacobi_solves_ > 0)
-      text += "CG with the diagonal for " + std::to_string(jacobi_solves_) + " solves (" +
-              (adapt_limit_ ? "the mass term dominates" : "as the case asks") + ": diffusion number up to " +
-              number(largest_jacobi_number_) + ", " +
-              number(static_cast<double>(jacobi_iterations_) / static_cast<double>(jacobi_solves_)) +
-              " iterations each)";
+      text +=
+        "CG with the diagonal for " + std::to_string(jacobi_solves_) + " solves (" +
+        (adapt_limit_ ? "the mass term dominates" : "as the case asks") + ": diffusion number up to " +
+        number(largest_jacobi_number_) + ", " +
+        number(static_cast<double>(jacobi_iterations_) / static_cast<double>(jacobi_solves_)) + " iterations each" +
+        (operator_solves_ == 0                ? std::string()
+         : operator_solves_ == jacobi_solves_ ? std::string(", the step operator applied without a matrix")
+                                              : "; " + std::to_string(operator_solves_) + " of them without a matrix") +
+        ")";
     std::string why;
     if (!adapt_limit_)
       why = " (as the case asks)";

@@ -24,7 +24,19 @@ namespace fickcast
   bool choose_direct_solver(LinearSolverKind kind, unsigned int dimension, unsigned long n_unknowns, bool serial);
 
   /// What `fickcast check` says of the linear solver a run of that size will use, and why.
-  std::string linear_solver_plan(bool direct, LinearSolverKind kind);
+  /// @p matrix_free: 2-D or 3-D with numerics.matrix_free not off.
+  std::string linear_solver_plan(bool direct, LinearSolverKind kind, bool matrix_free = false);
+
+  /// A step operator applied without a matrix: its products, and 1 / the diagonal of the matrix it
+  /// stands for (the diagonal preconditioner).
+  class OperatorWithoutMatrix
+  {
+  public:
+    virtual ~OperatorWithoutMatrix() = default;
+    virtual void vmult(dealii::TrilinosWrappers::MPI::Vector &dst,
+                       const dealii::TrilinosWrappers::MPI::Vector &src) const = 0;
+    virtual const dealii::TrilinosWrappers::MPI::Vector &inverse_diagonal() const = 0;
+  };
 
   /**
    * One linear solver for a symmetric positive definite step matrix that changes only now and
@@ -61,6 +73,18 @@ namespace fickcast
     void set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix, double change = 0, bool symmetric = true,
                     double diffusion_number = -1);
 
+    /**
+     * Prepares CG with the diagonal on @p op (which must stay alive until the next call), where
+     * the solver is iterative and @p diffusion_number lies within the diagonal's range; returns
+     * false otherwise, and the caller assembles the step matrix and calls set_matrix(). Multigrid
+     * needs the matrix, so a diagonal solve that does not converge leaves needs_matrix() set.
+     */
+    bool set_operator(const OperatorWithoutMatrix &op, double diffusion_number);
+    /// After solve(): the operator's diagonal solve failed; set_matrix() and solve again from x.
+    bool needs_matrix() const { return needs_matrix_; }
+    /// Whether the current step operator is applied without a matrix.
+    bool uses_operator() const { return operator_ != nullptr; }
+
     /// Solves matrix x = b; @p x is the initial guess on entry. Returns the iteration count
     /// (1 for the direct solver). Throws RunFailure if CG does not converge.
     unsigned int solve(dealii::TrilinosWrappers::MPI::Vector &x, const dealii::TrilinosWrappers::MPI::Vector &b);
@@ -74,7 +98,7 @@ namespace fickcast
     /// Number of factorisations or multigrid set-ups so far.
     unsigned int n_setups() const { return n_setups_; }
     /// Whether the current matrix is solved with the diagonal preconditioner.
-    bool uses_jacobi() const { return jacobi_ != nullptr; }
+    bool uses_jacobi() const { return jacobi_ != nullptr || operator_ != nullptr; }
     double jacobi_limit() const { return jacobi_limit_; }
 
     /// Which solver and preconditioners the solves used and why, for people (summary.json).
@@ -99,6 +123,9 @@ namespace fickcast
     double tolerance_;
     bool higher_order_;
     const dealii::TrilinosWrappers::SparseMatrix *matrix_ = nullptr;
+    const OperatorWithoutMatrix *operator_ = nullptr;
+    bool needs_matrix_ = false;
+    unsigned long operator_solves_ = 0; ///< diagonal solves without a matrix
     dealii::SolverControl direct_control_;
     std::unique_ptr<dealii::TrilinosWrappers::SolverDirect> direct_solver_;
     std::unique_ptr<dealii::TrilinosWrappers::PreconditionAMG> multigrid_;
@@ -113,6 +140,8 @@ namespace fickcast
     unsigned long jacobi_solves_ = 0, jacobi_iterations_ = 0, multigrid_solves_ = 0, multigrid_iterations_ = 0;
     unsigned int jacobi_fallbacks_ = 0;
 
+    unsigned int solve_with_operator(dealii::TrilinosWrappers::MPI::Vector &x,
+                                     const dealii::TrilinosWrappers::MPI::Vector &b, double norm);
     unsigned int solve_with_multigrid(dealii::TrilinosWrappers::MPI::Vector &x,
                                       const dealii::TrilinosWrappers::MPI::Vector &b, double norm);
     void build_multigrid(const dealii::TrilinosWrappers::SparseMatrix &matrix);

@@ -25,23 +25,38 @@ namespace fickcast
   template <int dim>
   void DiffusionProblem<dim>::assemble_constant_parts()
   {
+    assemble_parts();
     PhaseTimer::Scope scope(timer_, "assembly");
+    make_matrix_free();
+  }
+
+  template <int dim>
+  void DiffusionProblem<dim>::assemble_parts()
+  {
+    PhaseTimer::Scope scope(timer_, "assembly");
+    const bool matrices = matrices_sized_;
     part_diagonals_.clear();
     const unsigned int n_regions = names_.regions.size();
     const unsigned int n_boundaries = names_.boundaries.size();
-    region_mass_.assign(n_regions, make_vector());
-    region_load_.assign(n_regions, make_vector());
-    transfer_rowsum_.assign(n_boundaries, make_vector());
-    boundary_load_.assign(n_boundaries, make_vector());
+    // Fresh vectors (an assignment to the old ones would keep their last write mode).
+    for (auto *list : {&region_mass_, &region_load_, &transfer_rowsum_, &boundary_load_})
+      list->clear();
+    region_mass_.resize(n_regions, make_vector());
+    region_load_.resize(n_regions, make_vector());
+    transfer_rowsum_.resize(n_boundaries, make_vector());
+    boundary_load_.resize(n_boundaries, make_vector());
     decay_weights_ = make_vector();
-    mass_.full = 0;
-    mass_.constrained = 0;
-    static_.full = 0;
-    static_.constrained = 0;
-    for (auto &pair : unit_)
+    if (matrices)
       {
-        pair.full = 0;
-        pair.constrained = 0;
+        mass_.full = 0;
+        mass_.constrained = 0;
+        static_.full = 0;
+        static_.constrained = 0;
+        for (auto &pair : unit_)
+          {
+            pair.full = 0;
+            pair.constrained = 0;
+          }
       }
 
     const QGauss<dim> quadrature(quadrature_points_per_axis());
@@ -83,6 +98,12 @@ namespace fickcast
                 const double phi_i = fe_values.shape_value(i, q);
                 const auto &grad_i = fe_values.shape_grad(i, q);
                 local_load(i) += phi_i * w;
+                if (!matrices)
+                  {
+                    // The mass row sum: the shape functions sum to 1.
+                    local_mass(i, i) += c * phi_i * w;
+                    continue;
+                  }
                 for (unsigned int j = 0; j < n; ++j)
                   {
                     const double phi_j = fe_values.shape_value(j, q);
@@ -121,7 +142,7 @@ namespace fickcast
                 for (unsigned int i = 0; i < n; ++i)
                   {
                     face_load(i) += h * fe_face_values.shape_value(i, q) * w;
-                    if (kind == BoundaryKind::transfer)
+                    if (kind == BoundaryKind::transfer && matrices)
                       for (unsigned int j = 0; j < n; ++j)
                         local_static(i, j) +=
                           h * fe_face_values.shape_value(i, q) * fe_face_values.shape_value(j, q) * w;
@@ -132,6 +153,13 @@ namespace fickcast
               hanging_.distribute_local_to_global(face_load, dofs, transfer_rowsum_[b]); // boundary mass row sums
           }
 
+        if (!matrices)
+          {
+            hanging_.distribute_local_to_global(local_rowsum, dofs, region_mass_[region]);
+            hanging_.distribute_local_to_global(local_load, dofs, region_load_[region]);
+            hanging_.distribute_local_to_global(local_decay, dofs, decay_weights_);
+            continue;
+          }
         hanging_.distribute_local_to_global(local_mass, dofs, mass_.full);
         constraints_.distribute_local_to_global(local_mass, dofs, mass_.constrained);
         hanging_.distribute_local_to_global(local_static, dofs, static_.full);
@@ -146,16 +174,20 @@ namespace fickcast
         hanging_.distribute_local_to_global(local_load, dofs, region_load_[region]);
         hanging_.distribute_local_to_global(local_decay, dofs, decay_weights_);
       }
-    for (MatrixPair *pair : {&mass_, &static_})
+    if (matrices)
       {
-        pair->full.compress(VectorOperation::add);
-        pair->constrained.compress(VectorOperation::add);
+        for (MatrixPair *pair : {&mass_, &static_})
+          {
+            pair->full.compress(VectorOperation::add);
+            pair->constrained.compress(VectorOperation::add);
+          }
+        for (auto &pair : unit_)
+          {
+            pair.full.compress(VectorOperation::add);
+            pair.constrained.compress(VectorOperation::add);
+          }
       }
-    for (auto &pair : unit_)
-      {
-        pair.full.compress(VectorOperation::add);
-        pair.constrained.compress(VectorOperation::add);
-      }
+    matrices_ready_ = matrices;
     for (auto *list : {&region_mass_, &region_load_, &transfer_rowsum_, &boundary_load_})
       for (auto &v : *list)
         v.compress(VectorOperation::add);
@@ -271,6 +303,11 @@ namespace fickcast
   template <int dim>
   void DiffusionProblem<dim>::apply_operator(const double t, const Vector &u, Vector &out) const
   {
+    if (products_without_matrix())
+      {
+        product_without_matrix(operator_key(0, 1, t), u, out, false);
+        return;
+      }
     static_.full.vmult(out, u);
     if (!unit_.empty())
       {
@@ -390,6 +427,7 @@ namespace fickcast
 
   template unsigned int DiffusionProblem<1>::quadrature_points_per_axis() const;
   template void DiffusionProblem<1>::assemble_constant_parts();
+  template void DiffusionProblem<1>::assemble_parts();
   template void DiffusionProblem<1>::assemble_dynamic(double, const DiffusionProblem<1>::Vector *, bool);
   template void DiffusionProblem<1>::apply_dynamic(double, const DiffusionProblem<1>::Vector &,
                                                    DiffusionProblem<1>::Vector &) const;
@@ -400,6 +438,7 @@ namespace fickcast
   template void DiffusionProblem<1>::sources(double, DiffusionProblem<1>::Vector &) const;
   template unsigned int DiffusionProblem<2>::quadrature_points_per_axis() const;
   template void DiffusionProblem<2>::assemble_constant_parts();
+  template void DiffusionProblem<2>::assemble_parts();
   template void DiffusionProblem<2>::assemble_dynamic(double, const DiffusionProblem<2>::Vector *, bool);
   template void DiffusionProblem<2>::apply_dynamic(double, const DiffusionProblem<2>::Vector &,
                                                    DiffusionProblem<2>::Vector &) const;
@@ -410,6 +449,7 @@ namespace fickcast
   template void DiffusionProblem<2>::sources(double, DiffusionProblem<2>::Vector &) const;
   template unsigned int DiffusionProblem<3>::quadrature_points_per_axis() const;
   template void DiffusionProblem<3>::assemble_constant_parts();
+  template void DiffusionProblem<3>::assemble_parts();
   template void DiffusionProblem<3>::assemble_dynamic(double, const DiffusionProblem<3>::Vector *, bool);
   template void DiffusionProblem<3>::apply_dynamic(double, const DiffusionProblem<3>::Vector &,
                                                    DiffusionProblem<3>::Vector &) const;

@@ -105,6 +105,12 @@ namespace fickcast
   {
     if (rows_next_to_fixed_valid_)
       return rows_next_to_fixed_;
+    if (!matrices_sized_)
+      {
+        rows_next_to_fixed_ = rows_next_to_fixed_by_cells();
+        rows_next_to_fixed_valid_ = true;
+        return rows_next_to_fixed_;
+      }
     Vector marks = make_vector();
     for (const auto &[dof, b] : fixed_dofs_)
       {
@@ -139,6 +145,11 @@ namespace fickcast
     if (key == system_key_)
       return;
     PhaseTimer::Scope scope(timer_, "matrix setup");
+    if (!jacobian && use_matrix_free(key))
+      {
+        system_key_ = key;
+        return;
+      }
     compose_system(key);
     if (dynamic_matrices_.full.m() != 0)
       system_.add(plan.w1, dynamic_matrices_.constrained);
@@ -197,10 +208,9 @@ namespace fickcast
                 part_diagonals_.push_back(diagonal_of(unit_[static_cast<std::size_t>(unit_index_[r])].constrained));
           }
         const std::vector<double> &mass = part_diagonals_[0];
-        const Epetra_Map &rows = mass_.constrained.trilinos_matrix().RowMap();
         for (std::size_t i = 0; i < mass.size(); ++i)
           {
-            if (constraints_.is_constrained(static_cast<types::global_dof_index>(rows.GID(static_cast<int>(i)))))
+            if (constraints_.is_constrained(owned_.nth_index_in_set(i)))
               continue;
             double system = 0;
             if (dynamic)
@@ -222,6 +232,7 @@ namespace fickcast
   template <int dim>
   void DiffusionProblem<dim>::compose_system(const std::vector<double> &key)
   {
+    ensure_matrices();
     std::vector<std::pair<const TrilinosWrappers::SparseMatrix *, double>> parts{{&mass_.constrained, key[0]},
                                                                                  {&static_.constrained, key[1]}};
     std::size_t next = 2;
@@ -280,6 +291,11 @@ namespace fickcast
   void DiffusionProblem<dim>::apply_frozen(const double t, const Vector &x, Vector &out) const
   {
     // The operator with coefficients as last assembled (linear in x).
+    if (products_without_matrix())
+      {
+        product_without_matrix(operator_key(0, 1, t), x, out, false);
+        return;
+      }
     static_.full.vmult(out, x);
     Vector tmp = make_vector();
     for (unsigned int r = 0; r < unit_index_.size(); ++r)
@@ -301,6 +317,15 @@ namespace fickcast
   {
     PhaseTimer::Scope scope(timer_, "linear solve");
     result.linear_iterations += modified ? solver_->solve_other(*modified, x, b) : solver_->solve(x, b);
+    if (!modified && solver_->needs_matrix())
+      {
+        // The diagonal did not converge without a matrix: assemble it for multigrid and go on
+        // from where CG got.
+        compose_system(system_key_);
+        solver_->set_matrix(system_, 0, true, diffusion_number(system_key_));
+        hierarchy_key_ = system_key_;
+        result.linear_iterations += solver_->solve(x, b);
+      }
   }
 
   template <int dim>
@@ -308,6 +333,11 @@ namespace fickcast
                                           StepResult &result)
   {
     auto apply_system = [&](const Vector &x, Vector &out) {
+      if (products_without_matrix())
+        {
+          product_without_matrix(operator_key(plan.a0, plan.w1, plan.t1), x, out, false);
+          return;
+        }
       mass_.full.vmult(out, x);
       out *= plan.a0;
       Vector tmp = make_vector();
@@ -388,7 +418,9 @@ namespace fickcast
             // The known values sit on the fixed unknowns only: their image lies on the rows next to
             // them (the pattern of every operator matrix is the mass matrix's).
             const auto &rows = rows_next_to_fixed();
-            const std::vector<double> image = rows_of_sum(operator_terms(plan, true), rows, lifted);
+            const std::vector<double> image = products_without_matrix()
+                                                ? rows_of_product(operator_key(plan.a0, plan.w1, plan.t1), rows, lifted)
+                                                : rows_of_sum(operator_terms(plan, true), rows, lifted);
             for (std::size_t i = 0; i < rows.size(); ++i)
               b[rows[i]] -= image[i];
             b.compress(VectorOperation::insert);
@@ -516,7 +548,7 @@ namespace fickcast
         assemble_dynamic(plan.t1, &ghosted, true);
         build_system(plan, true);
         Vector residual = make_vector(), tmp = make_vector();
-        mass_.full.vmult(residual, u1);
+        mass_product(u1, residual);
         residual *= plan.a0;
         apply_operator(plan.t1, u1, tmp);
         residual.add(plan.w1, tmp);
@@ -550,7 +582,7 @@ namespace fickcast
         Assert(u_prev != nullptr, ExcMessage("BDF2 needs the previous state"));
         tmp.add(plan.a2, *u_prev);
       }
-    mass_.full.vmult(rhs, tmp);
+    mass_product(tmp, rhs);
     rhs *= -1.0;
     forcing(plan.t1, f);
     rhs.add(plan.w1, f);
@@ -605,8 +637,19 @@ namespace fickcast
       return result;
     // Where the operator is a sum of assembled matrices, only the rows of the fixed unknowns are
     // needed (a few hundred rows instead of two or three products with every row).
-    const auto terms = operator_terms(plan, false);
-    if (!terms.empty())
+    const auto terms = products_without_matrix()
+                         ? std::vector<std::pair<const TrilinosWrappers::SparseMatrix *, double>>()
+                         : operator_terms(plan, false);
+    if (products_without_matrix())
+      {
+        std::vector<types::global_dof_index> rows;
+        for (const auto &[dof, boundary] : fixed_dofs_)
+          rows.push_back(dof);
+        const std::vector<double> products = rows_of_product(operator_key(plan.a0, plan.w1, plan.t1), rows, u1);
+        for (std::size_t i = 0; i < rows.size(); ++i)
+          result.reactions[fixed_dofs_[i].second] += products[i] - rhs_used[rows[i]];
+      }
+    else if (!terms.empty())
       {
         std::vector<types::global_dof_index> rows;
         for (const auto &[dof, boundary] : fixed_dofs_)
@@ -618,7 +661,7 @@ namespace fickcast
     else
       {
         Vector residual = make_vector();
-        mass_.full.vmult(residual, u1);
+        mass_product(u1, residual);
         residual *= plan.a0;
         apply_operator(plan.t1, u1, tmp);
         residual.add(plan.w1, tmp);
@@ -639,7 +682,7 @@ namespace fickcast
     tmp.equ(plan.a1, e0);
     if (plan.a2 != 0 && e_prev != nullptr)
       tmp.add(plan.a2, *e_prev);
-    mass_.full.vmult(rhs, tmp);
+    mass_product(tmp, rhs);
     rhs *= -1.0;
     if (plan.w0 != 0)
       {
@@ -677,36 +720,6 @@ namespace fickcast
     return result.linear_iterations;
   }
 
-  template <int dim>
-  typename DiffusionProblem<dim>::Vector DiffusionProblem<dim>::rate_of_change(const Vector &u, const double t) const
-  {
-    Vector residual = make_vector(), image = make_vector(), rate = make_vector();
-    forcing(t, residual);
-    apply_operator(t, u, image);
-    residual -= image;
-    zero_fixed(residual);
-    zero_hanging(residual);
-    const double size = residual.l2_norm();
-    if (size > 0)
-      {
-        // The mass matrix is well conditioned under its diagonal (a few tens of iterations).
-        SolverControl control(1000, 1e-10 * size);
-        SolverCG<Vector> cg(control);
-        TrilinosWrappers::PreconditionJacobi diagonal;
-        diagonal.initialize(mass_.constrained);
-        cg.solve(mass_.constrained, rate, residual, diagonal);
-      }
-    zero_fixed(rate);
-    distribute(rate);
-    return rate;
-  }
-
-  template DiffusionProblem<1>::Vector DiffusionProblem<1>::rate_of_change(const DiffusionProblem<1>::Vector &,
-                                                                           double) const;
-  template DiffusionProblem<2>::Vector DiffusionProblem<2>::rate_of_change(const DiffusionProblem<2>::Vector &,
-                                                                           double) const;
-  template DiffusionProblem<3>::Vector DiffusionProblem<3>::rate_of_change(const DiffusionProblem<3>::Vector &,
-                                                                           double) const;
   template unsigned int DiffusionProblem<1>::propagate_error(const StepPlan &, const DiffusionProblem<1>::Vector &,
                                                              const DiffusionProblem<1>::Vector *,
                                                              DiffusionProblem<1>::Vector &);

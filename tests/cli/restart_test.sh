@@ -168,7 +168,8 @@ expect_refusal "resume and overwrite" "found both" \
 ls -d mismatch.partial-*/checkpoint/step-*/complete >/dev/null 2>&1 || fail "a refused resume removed the checkpoint"
 # A damaged checkpoint file: exit 3 naming it, never a wrong start.
 file=$(ls mismatch.partial-*/checkpoint/step-*/rank-0001.bin | head -1)
-printf '\x55' | dd of="$file" bs=1 seek=200 conv=notrunc status=none
+byte=$(od -An -tu1 -j200 -N1 "$file" | tr -d ' ')
+printf "\\x$(printf %02x $((byte ^ 255)))" | dd of="$file" bs=1 seek=200 conv=notrunc status=none # a changed byte
 on_ranks 2 run "$case_file" --set "output.checkpoint_every=0 s" "${single[@]}" --output mismatch --resume >damaged.out 2>damaged.err
 code=$?
 [ "$code" -eq 3 ] || fail "damaged checkpoint: expected exit 3, found $code ($(head -c 300 damaged.err))"
