@@ -114,7 +114,8 @@ namespace fickcast
                 << linear_solver_plan(choose_direct_solver(description.numerics.linear_solver, description.dimension,
                                                            mesh.unknowns, ranks == 1),
                                       description.numerics.linear_solver,
-                                      description.dimension > 1 && description.numerics.matrix_free)
+                                      description.dimension > 1 && description.numerics.degree > 1 &&
+                                        description.numerics.matrix_free)
                 << "\n";
     }
     if (!mesh.refinement_note.empty())

@@ -221,11 +221,12 @@ namespace fickcast
                                "auto, direct (sparse LU), iterative (CG with the diagonal or algebraic multigrid, "
                                "after the step matrix), or CG with one of them always: diagonal or multigrid"),
                           {"auto", "direct", "iterative", "diagonal", "multigrid"}));
-      s.push_back(choices(make("numerics", "matrix_free", K::choice, Dim::none, "auto",
-                               "auto: 2-D and 3-D linear steps solved with the diagonal apply the step operator "
-                               "cell by cell without assembling its matrix; off: always the assembled matrix "
-                               "(for checking one against the other)"),
-                          {"auto", "off"}));
+      s.push_back(choices(
+        make("numerics", "matrix_free", K::choice, Dim::none, "auto",
+             "auto: 2-D and 3-D linear steps of degree 2 or more solved with the diagonal apply the step operator "
+             "cell by cell without assembling its matrix; off: always the assembled matrix "
+             "(for checking one against the other)"),
+        {"auto", "off"}));
       s.push_back(bounded(make("numerics", "solver_tolerance", K::quantity, Dim::dimensionless, "1e-12",
                                "relative residual reduction of the iterative solver"),
                           0, true, 1e-3, false));

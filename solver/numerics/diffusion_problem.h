@@ -327,7 +327,8 @@ namespace fickcast
     void solve_linear(const dealii::TrilinosWrappers::SparseMatrix *modified, Vector &x, const Vector &b,
                       StepResult &result);
     // The step operator without a matrix (matrix_free_use.cc).
-    /// Whether the steps can be solved without assembling the step matrix: 2-D or 3-D, linear
+    /// Whether the steps can be solved without assembling the step matrix: 2-D or 3-D, degree 2
+    /// or more, linear
     /// (no concentration- or position-and-time-dependent diffusivity, no undissolved reserve), an
     /// iterative solver that may use the diagonal, and numerics.matrix_free not off.
     bool matrix_free_applies() const;

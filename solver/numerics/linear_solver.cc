@@ -27,8 +27,8 @@ namespace fickcast
       return "direct (sparse LU, KLU), factorised when the step size changes";
     const std::string without_matrix =
       matrix_free && kind != LinearSolverKind::multigrid
-        ? "; with the diagonal, linear steps (no concentration- or position-and-time-dependent diffusivity, no "
-          "undissolved content) apply the step operator cell by cell without assembling its matrix"
+        ? "; with the diagonal, linear steps of degree 2 or more (no concentration- or position-and-time-dependent "
+          "diffusivity, no undissolved content) apply the step operator cell by cell without assembling its matrix"
         : "";
     if (kind == LinearSolverKind::diagonal)
       return "CG preconditioned by the diagonal (numerics.linear_solver = diagonal)" + without_matrix;
