@@ -160,59 +160,43 @@ namespace fickcast
         x = 0;
         return 0;
       }
-    if (operator_)
-      return solve_with_operator(x, b, norm);
-    if (!jacobi_)
+    if (!jacobi_ && !operator_)
       return solve_with_multigrid(x, b, norm);
 
-    // The diagonal: a budget of four times the slow count; beyond it, multigrid from where it got
-    // (a case that asked for the diagonal alone gets a budget like multigrid's).
-    dealii::SolverControl control(adapt_limit_ ? 4 * slow_jacobi_iterations : 20000, tolerance_ * norm, false, false);
-    try
+    unsigned int iterations = 0;
+    if (operator_)
       {
-        dealii::SolverCG<dealii::TrilinosWrappers::MPI::Vector> cg(control);
-        cg.solve(*matrix_, x, b, *jacobi_);
+        // Without a matrix, multigrid needs the caller to assemble one (needs_matrix()).
+        if (!solve_with_diagonal(*operator_, InverseDiagonal{operator_->inverse_diagonal()}, x, b, norm, iterations))
+          {
+            operator_ = nullptr;
+            needs_matrix_ = true;
+          }
+        else
+          ++operator_solves_;
+        return iterations;
       }
-    catch (const dealii::SolverControl::NoConvergence &failure)
+    if (!solve_with_diagonal(*matrix_, *jacobi_, x, b, norm, iterations))
       {
-        if (!adapt_limit_)
-          throw RunFailure("the linear solver (CG with the diagonal, numerics.linear_solver = diagonal) did not "
-                           "converge: residual " +
-                           std::to_string(failure.last_residual) + " after " + std::to_string(failure.last_step) +
-                           " iterations (use iterative or multigrid)");
-        ++jacobi_fallbacks_;
-        jacobi_limit_ = 0.5 * diffusion_number_;
         jacobi_.reset();
-        return control.last_step() + solve_with_multigrid(x, b, norm);
+        return iterations + solve_with_multigrid(x, b, norm); // from where the diagonal got
       }
-    ++jacobi_solves_;
-    jacobi_iterations_ += control.last_step();
-    largest_jacobi_number_ = std::max(largest_jacobi_number_, diffusion_number_);
-    if (adapt_limit_ && control.last_step() > slow_jacobi_iterations)
-      jacobi_limit_ = std::min(jacobi_limit_, 0.7 * diffusion_number_); // stiffer steps: multigrid
-    return control.last_step();
+    return iterations;
   }
 
-  unsigned int LinearSolver::solve_with_operator(dealii::TrilinosWrappers::MPI::Vector &x,
-                                                 const dealii::TrilinosWrappers::MPI::Vector &b, const double norm)
+  template <typename Operator, typename Preconditioner>
+  bool LinearSolver::solve_with_diagonal(const Operator &op, const Preconditioner &diagonal,
+                                         dealii::TrilinosWrappers::MPI::Vector &x,
+                                         const dealii::TrilinosWrappers::MPI::Vector &b, const double norm,
+                                         unsigned int &iterations)
   {
-    // As the diagonal with the matrix (solve()), but a failed solve hands back to the caller,
-    // which assembles the matrix for multigrid.
-    struct Diagonal
-    {
-      const dealii::TrilinosWrappers::MPI::Vector &inverse;
-      void vmult(dealii::TrilinosWrappers::MPI::Vector &dst, const dealii::TrilinosWrappers::MPI::Vector &src) const
-      {
-        dst = src;
-        dst.scale(inverse);
-      }
-    };
-    const Diagonal diagonal{operator_->inverse_diagonal()};
+    // A budget of four times the slow count (a case that asked for the diagonal alone gets a
+    // budget like multigrid's).
     dealii::SolverControl control(adapt_limit_ ? 4 * slow_jacobi_iterations : 20000, tolerance_ * norm, false, false);
     try
       {
         dealii::SolverCG<dealii::TrilinosWrappers::MPI::Vector> cg(control);
-        cg.solve(*operator_, x, b, diagonal);
+        cg.solve(op, x, b, diagonal);
       }
     catch (const dealii::SolverControl::NoConvergence &failure)
       {
@@ -223,17 +207,16 @@ namespace fickcast
                            " iterations (use iterative or multigrid)");
         ++jacobi_fallbacks_;
         jacobi_limit_ = 0.5 * diffusion_number_;
-        operator_ = nullptr;
-        needs_matrix_ = true;
-        return control.last_step();
+        iterations = control.last_step();
+        return false;
       }
     ++jacobi_solves_;
-    ++operator_solves_;
     jacobi_iterations_ += control.last_step();
     largest_jacobi_number_ = std::max(largest_jacobi_number_, diffusion_number_);
     if (adapt_limit_ && control.last_step() > slow_jacobi_iterations)
       jacobi_limit_ = std::min(jacobi_limit_, 0.7 * diffusion_number_); // stiffer steps: multigrid
-    return control.last_step();
+    iterations = control.last_step();
+    return true;
   }
 
   unsigned int LinearSolver::solve_other(const dealii::TrilinosWrappers::SparseMatrix &matrix,

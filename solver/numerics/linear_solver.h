@@ -38,6 +38,17 @@ namespace fickcast
     virtual const dealii::TrilinosWrappers::MPI::Vector &inverse_diagonal() const = 0;
   };
 
+  /// The diagonal preconditioner from the inverse of a diagonal: dst = inverse .* src.
+  struct InverseDiagonal
+  {
+    const dealii::TrilinosWrappers::MPI::Vector &inverse;
+    void vmult(dealii::TrilinosWrappers::MPI::Vector &dst, const dealii::TrilinosWrappers::MPI::Vector &src) const
+    {
+      dst = src;
+      dst.scale(inverse);
+    }
+  };
+
   /**
    * One linear solver for a symmetric positive definite step matrix that changes only now and
    * then (when the step size changes). set_matrix() factorises (direct: KLU through Trilinos
@@ -140,8 +151,13 @@ namespace fickcast
     unsigned long jacobi_solves_ = 0, jacobi_iterations_ = 0, multigrid_solves_ = 0, multigrid_iterations_ = 0;
     unsigned int jacobi_fallbacks_ = 0;
 
-    unsigned int solve_with_operator(dealii::TrilinosWrappers::MPI::Vector &x,
-                                     const dealii::TrilinosWrappers::MPI::Vector &b, double norm);
+    /// CG with a diagonal preconditioner on @p op (the matrix or the operator without one), with
+    /// the diagonal's budget and bookkeeping; false (iterations in @p iterations) if it did not
+    /// converge and the case lets multigrid take over (the limit is then lowered).
+    template <typename Operator, typename Preconditioner>
+    bool solve_with_diagonal(const Operator &op, const Preconditioner &diagonal,
+                             dealii::TrilinosWrappers::MPI::Vector &x, const dealii::TrilinosWrappers::MPI::Vector &b,
+                             double norm, unsigned int &iterations);
     unsigned int solve_with_multigrid(dealii::TrilinosWrappers::MPI::Vector &x,
                                       const dealii::TrilinosWrappers::MPI::Vector &b, double norm);
     void build_multigrid(const dealii::TrilinosWrappers::SparseMatrix &matrix);

@@ -32,19 +32,10 @@ namespace fickcast
               std::vector<double> key;
               void vmult(Vector &dst, const Vector &src) const { problem.product_without_matrix(key, src, dst, true); }
             };
-            struct Diagonal
-            {
-              Vector inverse;
-              void vmult(Vector &dst, const Vector &src) const
-              {
-                dst = src;
-                dst.scale(inverse);
-              }
-            };
             const Mass mass{*this, operator_key(1, 0, t)};
-            Diagonal diagonal{make_vector()};
-            inverse_diagonal_without_matrix(mass.key, diagonal.inverse);
-            cg.solve(mass, rate, residual, diagonal);
+            Vector inverse = make_vector();
+            inverse_diagonal_without_matrix(mass.key, inverse);
+            cg.solve(mass, rate, residual, InverseDiagonal{inverse});
             zero_fixed(rate);
             distribute(rate);
             return rate;
