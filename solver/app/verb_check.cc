@@ -82,7 +82,8 @@ namespace fickcast
     CaseDescription description = read_case(invocation.case_file, invocation.overrides);
     if (!invocation.output.empty())
       description.output.folder = invocation.output;
-    check_run_size(description, estimate_run_size(description), installed_memory());
+    const RunSize size = estimate_run_size(description);
+    check_run_size(description, size, installed_memory());
     const MeshStatistics mesh = count_mesh(description, communicator);
     const std::string study = check_study(description, invocation);
     if (!root || invocation.quiet)
@@ -107,6 +108,23 @@ namespace fickcast
               << "mesh: " << mesh.cells << " cells, " << mesh.unknowns << " unknowns (degree "
               << description.numerics.degree << "), cell sizes " << mesh.smallest_cell << " to " << mesh.largest_cell
               << " m\n";
+    if (size.memory > 0 && size.unknowns > 0)
+      {
+        // Per unknown as estimated, for the unknowns the mesh really has (refinement next to
+        // open faces included).
+        const double bytes = size.memory / size.unknowns * static_cast<double>(mesh.unknowns);
+        const double gib = 1073741824.0;
+        char memory[112];
+        if (bytes < gib)
+          std::snprintf(memory, sizeof(memory),
+                        "memory: about %.3g MiB for the solve (estimate; this machine has %.3g GiB)\n",
+                        bytes / 1048576.0, installed_memory() / gib);
+        else
+          std::snprintf(memory, sizeof(memory),
+                        "memory: about %.3g GiB for the solve (estimate; this machine has %.3g GiB)\n", bytes / gib,
+                        installed_memory() / gib);
+        std::cout << memory;
+      }
     {
       int ranks = 1;
       MPI_Comm_size(communicator, &ranks);

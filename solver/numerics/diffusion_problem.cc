@@ -1,7 +1,7 @@
 // DiffusionProblem: set-up, stages, fixed unknowns, state and observables. Assembly lives in
 // operator_assembly.cc, the step in step_solve.cc.
 #include "numerics/diffusion_problem.h"
-#include "numerics/matrix_free_step.h"
+#include "numerics/step_multigrid.h"
 
 #include "case/input_error.h"
 #include "geometry/mesh_import.h"

@@ -25,6 +25,8 @@ namespace fickcast
 {
   template <int dim>
   class MatrixFreeStep;
+  template <int dim>
+  class StepMultigrid;
 
   /**
    * One step written as
@@ -335,8 +337,9 @@ namespace fickcast
     /// Sets up the matrix-free step operator for the current space, stage and coefficients (or
     /// drops it where it does not apply). After assemble_constant_parts().
     void make_matrix_free();
-    /// Hands the solver the matrix-free operator for @p key if it takes it (CG with the diagonal
-    /// at this diffusion number); false: compose the matrix.
+    /// Hands the solver the matrix-free operator for @p key if it takes it: CG with the diagonal
+    /// at this diffusion number, else with geometric multigrid where the mesh has coarser meshes
+    /// (built on first need); false: compose the matrix.
     bool use_matrix_free(const std::vector<double> &key);
     /// Whether the operators' products are evaluated without matrices (then the matrices are
     /// assembled only when a step needs multigrid: ensure_matrices()).
@@ -421,6 +424,8 @@ namespace fickcast
 
     std::unique_ptr<LinearSolver> solver_;
     std::unique_ptr<MatrixFreeStep<dim>> matrix_free_;
+    std::unique_ptr<StepMultigrid<dim>> step_multigrid_; ///< for stiff steps without a matrix, built on need
+    bool step_multigrid_failed_ = false;                 ///< this mesh has no usable hierarchy
     bool matrices_sized_ = false;    ///< the operator matrices have their sparsity (else left empty)
     bool matrices_ready_ = false;    ///< and hold the current stage's parts
     unsigned int setups_before_ = 0; ///< matrix setups of the run before a resume

@@ -27,8 +27,10 @@ namespace fickcast
       return "direct (sparse LU, KLU), factorised when the step size changes";
     const std::string without_matrix =
       matrix_free && kind != LinearSolverKind::multigrid
-        ? "; with the diagonal, linear steps of degree 2 or more (no concentration- or position-and-time-dependent "
-          "diffusivity, no undissolved content) apply the step operator cell by cell without assembling its matrix"
+        ? "; linear steps of degree 2 or more (no concentration- or position-and-time-dependent diffusivity, no "
+          "undissolved content) apply the step operator cell by cell without assembling its matrix, with the "
+          "diagonal or, for stiffer steps, geometric multigrid (the run's mesh, the coarser ones it was refined "
+          "from, the linear element on the coarse mesh)"
         : "";
     if (kind == LinearSolverKind::diagonal)
       return "CG preconditioned by the diagonal (numerics.linear_solver = diagonal)" + without_matrix;
@@ -73,6 +75,7 @@ namespace fickcast
   {
     matrix_ = &matrix;
     operator_ = nullptr;
+    geometric_ = nullptr;
     needs_matrix_ = false;
     symmetric_ = symmetric;
     diffusion_number_ = diffusion_number;
@@ -101,12 +104,52 @@ namespace fickcast
     if (direct_ || !(diffusion_number >= 0 && diffusion_number <= jacobi_limit_))
       return false;
     operator_ = &op;
+    geometric_ = nullptr;
     matrix_ = nullptr;
     needs_matrix_ = false;
     symmetric_ = true;
     diffusion_number_ = diffusion_number;
     jacobi_.reset();
     return true;
+  }
+
+  void LinearSolver::set_operator_multigrid(const OperatorWithoutMatrix &op,
+                                            const PreconditionerWithoutMatrix &multigrid, const unsigned int n_meshes,
+                                            const double diffusion_number)
+  {
+    operator_ = &op;
+    geometric_ = &multigrid;
+    geometric_meshes_ = n_meshes;
+    matrix_ = nullptr;
+    needs_matrix_ = false;
+    symmetric_ = true;
+    diffusion_number_ = diffusion_number;
+    jacobi_.reset();
+  }
+
+  unsigned int LinearSolver::solve_with_geometric(dealii::TrilinosWrappers::MPI::Vector &x,
+                                                  const dealii::TrilinosWrappers::MPI::Vector &b, const double norm)
+  {
+    dealii::SolverControl control(500, tolerance_ * norm, false, false);
+    try
+      {
+        dealii::SolverCG<dealii::TrilinosWrappers::MPI::Vector> cg(control);
+        cg.solve(*operator_, x, b, *geometric_);
+      }
+    catch (const dealii::SolverControl::NoConvergence &)
+      {
+        // Not seen in the tests; algebraic multigrid on the assembled matrix takes over.
+        geometric_usable_ = false;
+        operator_ = nullptr;
+        geometric_ = nullptr;
+        needs_matrix_ = true;
+        return control.last_step();
+      }
+    ++geometric_solves_;
+    geometric_iterations_ += control.last_step();
+    if (diffusion_number_ >= 0 && (smallest_multigrid_number_ < 0 || diffusion_number_ < smallest_multigrid_number_))
+      smallest_multigrid_number_ = diffusion_number_;
+    return control.last_step();
   }
 
   unsigned int LinearSolver::solve_with_multigrid(dealii::TrilinosWrappers::MPI::Vector &x,
@@ -164,6 +207,8 @@ namespace fickcast
       return solve_with_multigrid(x, b, norm);
 
     unsigned int iterations = 0;
+    if (operator_ && geometric_)
+      return solve_with_geometric(x, b, norm);
     if (operator_)
       {
         // Without a matrix, multigrid needs the caller to assemble one (needs_matrix()).
@@ -269,14 +314,18 @@ namespace fickcast
             static_cast<double>(multigrid_solves_),
             static_cast<double>(multigrid_iterations_),
             static_cast<double>(jacobi_fallbacks_),
-            static_cast<double>(operator_solves_)};
+            static_cast<double>(operator_solves_),
+            static_cast<double>(geometric_solves_),
+            static_cast<double>(geometric_iterations_),
+            static_cast<double>(geometric_meshes_),
+            geometric_usable_ ? 1.0 : 0.0};
   }
 
   void LinearSolver::restore_statistics(const std::vector<double> &values)
   {
     if (values.empty())
       return;
-    if (values.size() != 8 && values.size() != 9)
+    if (values.size() != 8 && values.size() != 9 && values.size() != 13)
       throw IoError("the checkpoint's linear-solver state does not fit this version of fickcast");
     jacobi_limit_ = values[0];
     largest_jacobi_number_ = values[1];
@@ -287,6 +336,13 @@ namespace fickcast
     multigrid_iterations_ = static_cast<unsigned long>(values[6]);
     jacobi_fallbacks_ = static_cast<unsigned int>(values[7]);
     operator_solves_ = values.size() > 8 ? static_cast<unsigned long>(values[8]) : 0;
+    if (values.size() > 12)
+      {
+        geometric_solves_ = static_cast<unsigned long>(values[9]);
+        geometric_iterations_ = static_cast<unsigned long>(values[10]);
+        geometric_meshes_ = static_cast<unsigned int>(values[11]);
+        geometric_usable_ = values[12] != 0;
+      }
   }
 
   std::string LinearSolver::description() const
@@ -315,7 +371,16 @@ namespace fickcast
     else if (smallest_multigrid_number_ >= 0)
       why = " (diffusion number from " + number(smallest_multigrid_number_) + ", above the diagonal's limit " +
             number(jacobi_limit_) + ")";
-    if (multigrid_solves_ > 0 || jacobi_solves_ == 0)
+    if (geometric_solves_ > 0)
+      text += std::string(text.empty() ? "" : "; ") + "CG with geometric multigrid for " +
+              std::to_string(geometric_solves_) + " solves (" +
+              number(static_cast<double>(geometric_iterations_) / static_cast<double>(geometric_solves_)) +
+              " iterations each; the step operator without a matrix on " + std::to_string(geometric_meshes_) +
+              (geometric_meshes_ > 2 ? " levels: the run's mesh, coarser meshes down to its coarse mesh, the linear "
+                                       "element there)"
+                                     : " levels: the run's mesh, and the linear element on it)") +
+              why;
+    if (multigrid_solves_ > 0 || (jacobi_solves_ == 0 && geometric_solves_ == 0))
       text += std::string(text.empty() ? "" : "; ") + "CG with algebraic multigrid" +
               (multigrid_solves_ > 0 ? " for " + std::to_string(multigrid_solves_) + " solves" : std::string()) + why;
     if (jacobi_fallbacks_ > 0)

@@ -38,6 +38,15 @@ namespace fickcast
     virtual const dealii::TrilinosWrappers::MPI::Vector &inverse_diagonal() const = 0;
   };
 
+  /// A preconditioner of an OperatorWithoutMatrix (geometric multigrid).
+  class PreconditionerWithoutMatrix
+  {
+  public:
+    virtual ~PreconditionerWithoutMatrix() = default;
+    virtual void vmult(dealii::TrilinosWrappers::MPI::Vector &dst,
+                       const dealii::TrilinosWrappers::MPI::Vector &src) const = 0;
+  };
+
   /// The diagonal preconditioner from the inverse of a diagonal: dst = inverse .* src.
   struct InverseDiagonal
   {
@@ -91,6 +100,20 @@ namespace fickcast
      * needs the matrix, so a diagonal solve that does not converge leaves needs_matrix() set.
      */
     bool set_operator(const OperatorWithoutMatrix &op, double diffusion_number);
+    /// Whether set_operator() would take the diagonal for @p diffusion_number.
+    bool diagonal_suffices(double diffusion_number) const
+    {
+      return !direct_ && diffusion_number >= 0 && diffusion_number <= jacobi_limit_;
+    }
+    /// Whether geometric multigrid on an operator without matrix may be used (not after it failed).
+    bool geometric_usable() const { return !direct_ && geometric_usable_; }
+    /**
+     * Prepares CG with @p multigrid (geometric, on meshes coarsened from the run's) on @p op, for
+     * steps beyond the diagonal's range; both must stay alive until the next call. If CG does not
+     * converge in its budget, needs_matrix() is set and geometric multigrid is not offered again.
+     */
+    void set_operator_multigrid(const OperatorWithoutMatrix &op, const PreconditionerWithoutMatrix &multigrid,
+                                unsigned int n_meshes, double diffusion_number);
     /// After solve(): the operator's diagonal solve failed; set_matrix() and solve again from x.
     bool needs_matrix() const { return needs_matrix_; }
     /// Whether the current step operator is applied without a matrix.
@@ -109,7 +132,7 @@ namespace fickcast
     /// Number of factorisations or multigrid set-ups so far.
     unsigned int n_setups() const { return n_setups_; }
     /// Whether the current matrix is solved with the diagonal preconditioner.
-    bool uses_jacobi() const { return jacobi_ != nullptr || operator_ != nullptr; }
+    bool uses_jacobi() const { return jacobi_ != nullptr || (operator_ != nullptr && geometric_ == nullptr); }
     double jacobi_limit() const { return jacobi_limit_; }
 
     /// Which solver and preconditioners the solves used and why, for people (summary.json).
@@ -135,6 +158,10 @@ namespace fickcast
     bool higher_order_;
     const dealii::TrilinosWrappers::SparseMatrix *matrix_ = nullptr;
     const OperatorWithoutMatrix *operator_ = nullptr;
+    const PreconditionerWithoutMatrix *geometric_ = nullptr; ///< with operator_: geometric multigrid
+    bool geometric_usable_ = true;
+    unsigned int geometric_meshes_ = 0;
+    unsigned long geometric_solves_ = 0, geometric_iterations_ = 0;
     bool needs_matrix_ = false;
     unsigned long operator_solves_ = 0; ///< diagonal solves without a matrix
     dealii::SolverControl direct_control_;
@@ -158,6 +185,8 @@ namespace fickcast
     bool solve_with_diagonal(const Operator &op, const Preconditioner &diagonal,
                              dealii::TrilinosWrappers::MPI::Vector &x, const dealii::TrilinosWrappers::MPI::Vector &b,
                              double norm, unsigned int &iterations);
+    unsigned int solve_with_geometric(dealii::TrilinosWrappers::MPI::Vector &x,
+                                      const dealii::TrilinosWrappers::MPI::Vector &b, double norm);
     unsigned int solve_with_multigrid(dealii::TrilinosWrappers::MPI::Vector &x,
                                       const dealii::TrilinosWrappers::MPI::Vector &b, double norm);
     void build_multigrid(const dealii::TrilinosWrappers::SparseMatrix &matrix);

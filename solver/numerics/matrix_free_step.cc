@@ -2,6 +2,7 @@
 #include "numerics/matrix_free_step.h"
 
 #include <deal.II/base/quadrature_lib.h>
+#include <deal.II/lac/full_matrix.h>
 #include <deal.II/matrix_free/fe_evaluation.h>
 #include <deal.II/matrix_free/tools.h>
 
@@ -150,6 +151,67 @@ namespace fickcast
   }
 
   template <int dim>
+  void MatrixFreeStep<dim>::cell_integrand(const Weights &w, FEEvaluation<dim, -1, 0, 1, double> &phi) const
+  {
+    const std::size_t start = static_cast<std::size_t>(phi.get_current_cell_index()) * n_q_;
+    phi.evaluate(EvaluationFlags::values | EvaluationFlags::gradients);
+    for (unsigned int q = 0; q < n_q_; ++q)
+      {
+        phi.submit_value(w.value[start + q] * phi.get_value(q), q);
+        phi.submit_gradient(w.gradient[start + q] * phi.get_gradient(q), q);
+      }
+    phi.integrate(EvaluationFlags::values | EvaluationFlags::gradients);
+  }
+
+  template <int dim>
+  void MatrixFreeStep<dim>::assemble(const std::vector<double> &key, const AffineConstraints<double> &constraints,
+                                     TrilinosWrappers::SparseMatrix &matrix) const
+  {
+    const Weights &w = weights_of(key);
+    matrix = 0;
+    const std::function<void(FEEvaluation<dim, -1, 0, 1, double> &)> local =
+      [&](FEEvaluation<dim, -1, 0, 1, double> &phi) { cell_integrand(w, phi); };
+    MatrixFreeTools::compute_matrix<dim, -1, 0, 1, double, Number>(data_, constraints, matrix, local);
+    if (with_faces_)
+      {
+        // The transfer term face by face, column by column (FEFaceEvaluation numbers the cell's
+        // unknowns lexicographically).
+        FEFaceEvaluation<dim, -1, 0, 1, double> phi(data_, true);
+        const unsigned int first = data_.n_inner_face_batches();
+        const auto &lexicographic = data_.get_shape_info().lexicographic_numbering;
+        const unsigned int n = phi.dofs_per_cell;
+        FullMatrix<double> local_matrix(n, n);
+        std::vector<types::global_dof_index> indices(n), ordered(n);
+        for (unsigned int f = 0; f < face_batch_active_.size(); ++f)
+          {
+            if (!face_batch_active_[f])
+              continue;
+            phi.reinit(first + f);
+            for (unsigned int v = 0; v < data_.n_active_entries_per_face_batch(first + f); ++v)
+              {
+                for (unsigned int j = 0; j < n; ++j)
+                  {
+                    for (unsigned int i = 0; i < n; ++i)
+                      phi.begin_dof_values()[i] = Number(i == j ? 1.0 : 0.0);
+                    phi.evaluate(EvaluationFlags::values);
+                    for (unsigned int q = 0; q < n_face_q_; ++q)
+                      phi.submit_value(w.face[static_cast<std::size_t>(f) * n_face_q_ + q] * phi.get_value(q), q);
+                    phi.integrate(EvaluationFlags::values);
+                    for (unsigned int i = 0; i < n; ++i)
+                      local_matrix(i, j) = phi.begin_dof_values()[i][v];
+                  }
+                const auto cell = data_.get_face_iterator(first + f, v, true).first;
+                cell->get_dof_indices(indices);
+                for (unsigned int i = 0; i < n; ++i)
+                  ordered[i] = indices[lexicographic[i]];
+                constraints.distribute_local_to_global(local_matrix, ordered, matrix);
+              }
+          }
+        matrix.compress(VectorOperation::add);
+      }
+  }
+
+  template <int dim>
   void MatrixFreeStep<dim>::compute_part_diagonals(const unsigned int n_slots)
   {
     part_diagonals_.assign(n_slots, std::vector<double>());
@@ -162,16 +224,7 @@ namespace fickcast
         current_ = &weights_of(unit_key);
         const Weights &w = *current_;
         const std::function<void(FEEvaluation<dim, -1, 0, 1, double> &)> local =
-          [&](FEEvaluation<dim, -1, 0, 1, double> &phi) {
-            const std::size_t start = static_cast<std::size_t>(phi.get_current_cell_index()) * n_q_;
-            phi.evaluate(EvaluationFlags::values | EvaluationFlags::gradients);
-            for (unsigned int q = 0; q < n_q_; ++q)
-              {
-                phi.submit_value(w.value[start + q] * phi.get_value(q), q);
-                phi.submit_gradient(w.gradient[start + q] * phi.get_gradient(q), q);
-              }
-            phi.integrate(EvaluationFlags::values | EvaluationFlags::gradients);
-          };
+          [&](FEEvaluation<dim, -1, 0, 1, double> &phi) { cell_integrand(w, phi); };
         diagonal = 0; // compute_diagonal adds to what the vector holds
         MatrixFreeTools::compute_diagonal<dim, -1, 0, 1, double, Number, Distributed>(data_, diagonal, local);
         if (with_faces_ && p == 1)
@@ -212,9 +265,8 @@ namespace fickcast
   }
 
   template <int dim>
-  void MatrixFreeStep<dim>::inverse_diagonal(const std::vector<double> &key, Vector &out) const
+  void MatrixFreeStep<dim>::inverse_diagonal(const std::vector<double> &key, double *inverse) const
   {
-    double *inverse = out.trilinos_vector()[0];
     const std::size_t n = in_.locally_owned_size();
     for (std::size_t i = 0; i < n; ++i)
       {
@@ -223,6 +275,20 @@ namespace fickcast
           d += key[p] * part_diagonals_[p][i];
         inverse[i] = d != 0 ? 1.0 / d : 1.0;
       }
+  }
+
+  template <int dim>
+  void MatrixFreeStep<dim>::inverse_diagonal(const std::vector<double> &key, Vector &out) const
+  {
+    inverse_diagonal(key, out.trilinos_vector()[0]);
+  }
+
+  template <int dim>
+  void MatrixFreeStep<dim>::inverse_diagonal(const std::vector<double> &key, Distributed &out) const
+  {
+    if (out.locally_owned_size() != in_.locally_owned_size())
+      initialize_dof_vector(out);
+    inverse_diagonal(key, out.begin());
   }
 
   template <int dim>
@@ -282,13 +348,12 @@ namespace fickcast
   }
 
   template <int dim>
-  void MatrixFreeStep<dim>::apply(const std::vector<double> &key, const Vector &src, Vector &dst,
-                                  const bool constrained) const
+  void MatrixFreeStep<dim>::product(const std::vector<double> &key, const double *from, double *to,
+                                    const bool constrained) const
   {
     Assert(set_up_, ExcMessage("reinit() first"));
     current_ = &weights_of(key);
     const std::size_t n = in_.locally_owned_size();
-    const double *from = src.trilinos_vector()[0];
     std::copy(from, from + n, in_.begin());
     if (constrained)
       for (const unsigned int i : held_)
@@ -311,8 +376,23 @@ namespace fickcast
         for (const unsigned int i : hanging_rows_)
           out_.local_element(i) = from[i];
       }
-    double *to = dst.trilinos_vector()[0];
     std::copy(out_.begin(), out_.begin() + n, to);
+  }
+
+  template <int dim>
+  void MatrixFreeStep<dim>::apply(const std::vector<double> &key, const Vector &src, Vector &dst,
+                                  const bool constrained) const
+  {
+    product(key, src.trilinos_vector()[0], dst.trilinos_vector()[0], constrained);
+  }
+
+  template <int dim>
+  void MatrixFreeStep<dim>::apply(const std::vector<double> &key, const Distributed &src, Distributed &dst,
+                                  const bool constrained) const
+  {
+    AssertDimension(src.locally_owned_size(), in_.locally_owned_size());
+    AssertDimension(dst.locally_owned_size(), in_.locally_owned_size());
+    product(key, src.begin(), dst.begin(), constrained);
   }
 
   template class MatrixFreeStep<1>;

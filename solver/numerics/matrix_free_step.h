@@ -10,6 +10,8 @@
 #include <deal.II/fe/mapping.h>
 #include <deal.II/lac/affine_constraints.h>
 #include <deal.II/lac/la_parallel_vector.h>
+#include <deal.II/lac/trilinos_sparse_matrix.h>
+#include <deal.II/matrix_free/fe_evaluation.h>
 #include <deal.II/matrix_free/matrix_free.h>
 
 #include <functional>
@@ -43,6 +45,7 @@ namespace fickcast
   {
   public:
     using Vector = dealii::TrilinosWrappers::MPI::Vector;
+    using Distributed = dealii::LinearAlgebra::distributed::Vector<double>;
     using CellIterator = typename dealii::DoFHandler<dim>::cell_iterator;
 
     /// The coefficients at one quadrature point of a cell, coordinate weight included.
@@ -73,6 +76,20 @@ namespace fickcast
 
     /// @p dst = (sum of the parts weighted by @p key) @p src, unconstrained or constrained.
     void apply(const std::vector<double> &key, const Vector &src, Vector &dst, bool constrained) const;
+    /// The same on deal.II's distributed vectors (the owned rows are read and written).
+    void apply(const std::vector<double> &key, const Distributed &src, Distributed &dst, bool constrained) const;
+    /// A vector of this operator's unknowns, with the ghosts its products read.
+    void initialize_dof_vector(Distributed &v) const { data_.initialize_dof_vector(v); }
+    /// Number of unknowns (all ranks).
+    dealii::types::global_dof_index size() const { return in_.size(); }
+
+    /**
+     * Assembles the sum with @p key into @p matrix (sized for this operator's unknowns with
+     * @p constraints), the constrained rows as AffineConstraints leaves them (a diagonal entry):
+     * the coarse matrix of geometric multigrid.
+     */
+    void assemble(const std::vector<double> &key, const dealii::AffineConstraints<double> &constraints,
+                  dealii::TrilinosWrappers::SparseMatrix &matrix) const;
 
     /// The key of the step operator CG solves with (vmult, inverse_diagonal).
     void set_weights(const std::vector<double> &key);
@@ -80,10 +97,10 @@ namespace fickcast
     const Vector &inverse_diagonal() const override { return inverse_diagonal_; }
     /// 1 / the diagonal of the sum with @p key (1 where it is 0: hanging rows).
     void inverse_diagonal(const std::vector<double> &key, Vector &out) const;
+    void inverse_diagonal(const std::vector<double> &key, Distributed &out) const;
 
   private:
     using Number = dealii::VectorizedArray<double>;
-    using Distributed = dealii::LinearAlgebra::distributed::Vector<double>;
 
     /// The coefficients of one key, combined at the quadrature points.
     struct Weights
@@ -100,6 +117,11 @@ namespace fickcast
     void boundary_product(const dealii::MatrixFree<dim, double> &data, Distributed &dst, const Distributed &src,
                           const std::pair<unsigned int, unsigned int> &range) const;
     void compute_part_diagonals(unsigned int n_slots);
+    /// The cell integrand of @p w on the values of @p phi (evaluate, weigh, integrate).
+    void cell_integrand(const Weights &w, dealii::FEEvaluation<dim, -1, 0, 1, double> &phi) const;
+    /// The product on the owned rows: @p from and @p to hold them.
+    void product(const std::vector<double> &key, const double *from, double *to, bool constrained) const;
+    void inverse_diagonal(const std::vector<double> &key, double *inverse) const;
 
     dealii::MatrixFree<dim, double> data_;
     bool set_up_ = false, with_faces_ = false;

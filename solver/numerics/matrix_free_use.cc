@@ -1,6 +1,7 @@
 // DiffusionProblem: when and how the step operator is applied without a matrix.
 #include "numerics/diffusion_problem.h"
 #include "numerics/matrix_free_step.h"
+#include "numerics/step_multigrid.h"
 
 #include <algorithm>
 #include <set>
@@ -8,6 +9,63 @@
 namespace fickcast
 {
   using namespace dealii;
+
+  namespace
+  {
+    template <int dim>
+    using StepCoefficients = typename StepMultigrid<dim>::Coefficients;
+
+    /// The coefficients of the step operator at the points of a mesh's cells and boundary faces
+    /// (the regions by the cells' material ids, which coarser meshes keep).
+    template <int dim>
+    StepCoefficients<dim> step_coefficients(const DiffusionProblem<dim> &problem,
+                                            const std::vector<Material> &materials, const std::vector<int> &unit_index,
+                                            const std::vector<BoundaryCondition> &boundaries,
+                                            const Mapping<dim> &mapping, const unsigned int n_q_1d)
+    {
+      // Key index of each region's unit part, as build_system orders the key.
+      std::vector<int> slot(unit_index.size(), -1);
+      int next = 2;
+      for (std::size_t r = 0; r < unit_index.size(); ++r)
+        if (unit_index[r] >= 0)
+          slot[r] = next++;
+      using Step = MatrixFreeStep<dim>;
+      StepCoefficients<dim> out;
+      out.mapping = &mapping;
+      out.n_slots = static_cast<unsigned int>(next);
+      out.n_q_1d = n_q_1d;
+      out.cell = [&problem, &materials, &unit_index, slot](const typename Step::CellIterator &c, const Point<dim> &p) {
+        typename Step::Coefficients at;
+        const auto region = c->material_id();
+        const Material &material = materials[region];
+        const double w = problem.coordinate_weight(p);
+        at.capacity = material.capacity() * w;
+        at.reaction = material.reaction() * w;
+        if (unit_index[region] >= 0)
+          {
+            at.slot = slot[region];
+            at.unit_factor = material.conductance_factor() * w;
+          }
+        else
+          at.conductance = problem.conductance(region, p, 0.0) * w;
+        return at;
+      };
+      for (std::size_t b = 0; b < boundaries.size(); ++b)
+        {
+          out.with_faces = out.with_faces || boundaries[b].kind() == BoundaryKind::transfer;
+          if (boundaries[b].is_fixed())
+            out.held_boundaries.insert(static_cast<types::boundary_id>(b));
+        }
+      out.face = [&problem, &materials, &boundaries](const typename Step::CellIterator &c, const unsigned int f,
+                                                     const Point<dim> &p) {
+        const BoundaryCondition &b = boundaries[c->face(f)->boundary_id()];
+        if (b.kind() != BoundaryKind::transfer)
+          return 0.0;
+        return b.load_factor(materials[c->material_id()].partition()) * problem.coordinate_weight(p);
+      };
+      return out;
+    }
+  } // namespace
 
   template <int dim>
   bool DiffusionProblem<dim>::matrix_free_applies() const
@@ -29,44 +87,15 @@ namespace fickcast
       return;
     else
       {
+        step_multigrid_.reset();
+        step_multigrid_failed_ = false;
         if (!matrix_free_applies())
           {
             matrix_free_.reset();
             return;
           }
-        // Key index of each region's unit part, as build_system orders the key.
-        std::vector<int> slot(unit_index_.size(), -1);
-        int next = 2;
-        for (std::size_t r = 0; r < unit_index_.size(); ++r)
-          if (unit_index_[r] >= 0)
-            slot[r] = next++;
-        using Step = MatrixFreeStep<dim>;
-        const typename Step::CellCoefficients cell = [&](const typename Step::CellIterator &c, const Point<dim> &p) {
-          typename Step::Coefficients out;
-          const auto region = c->material_id();
-          const Material &material = materials_[region];
-          const double w = coordinate_weight(p);
-          out.capacity = material.capacity() * w;
-          out.reaction = material.reaction() * w;
-          if (unit_index_[region] >= 0)
-            {
-              out.slot = slot[region];
-              out.unit_factor = material.conductance_factor() * w;
-            }
-          else
-            out.conductance = conductance(region, p, 0.0) * w;
-          return out;
-        };
-        bool with_faces = false;
-        for (const BoundaryCondition &b : boundaries_)
-          with_faces = with_faces || b.kind() == BoundaryKind::transfer;
-        const typename Step::FaceCoefficient face = [&](const typename Step::CellIterator &c, const unsigned int f,
-                                                        const Point<dim> &p) {
-          const BoundaryCondition &b = boundaries_[c->face(f)->boundary_id()];
-          if (b.kind() != BoundaryKind::transfer)
-            return 0.0;
-          return b.load_factor(materials_[c->material_id()].partition()) * coordinate_weight(p);
-        };
+        const StepCoefficients<dim> coefficients =
+          step_coefficients(*this, materials_, unit_index_, boundaries_, mapping_, quadrature_points_per_axis());
         std::vector<unsigned int> held;
         for (const auto &[dof, b] : fixed_dofs_)
           {
@@ -74,9 +103,9 @@ namespace fickcast
             held.push_back(static_cast<unsigned int>(owned_.index_within_set(dof)));
           }
         if (!matrix_free_)
-          matrix_free_ = std::make_unique<Step>();
-        matrix_free_->reinit(mapping_, dof_handler_, hanging_, held, static_cast<unsigned int>(next),
-                             quadrature_points_per_axis(), cell, with_faces, face);
+          matrix_free_ = std::make_unique<MatrixFreeStep<dim>>();
+        matrix_free_->reinit(mapping_, dof_handler_, hanging_, held, coefficients.n_slots, coefficients.n_q_1d,
+                             coefficients.cell, coefficients.with_faces, coefficients.face);
         part_diagonals_ = matrix_free_->part_diagonals();
         rows_next_to_fixed_valid_ = false;
       }
@@ -87,10 +116,36 @@ namespace fickcast
   {
     if (!products_without_matrix())
       return false;
-    if (!solver_->set_operator(*matrix_free_, diffusion_number(key)))
-      return false;
-    matrix_free_->set_weights(key);
-    return true;
+    const double number = diffusion_number(key);
+    if (solver_->set_operator(*matrix_free_, number))
+      {
+        matrix_free_->set_weights(key);
+        return true;
+      }
+    // Stiffer steps: geometric multigrid on the same operator, built on first need.
+    if constexpr (dim > 1)
+      {
+        if (step_multigrid_failed_ || !solver_->geometric_usable() || solver_->is_direct())
+          return false;
+        if (!step_multigrid_)
+          {
+            PhaseTimer::Scope scope(timer_, "multigrid setup");
+            auto multigrid = std::make_unique<StepMultigrid<dim>>();
+            if (!multigrid->build(*matrix_free_, dof_handler_,
+                                  step_coefficients(*this, materials_, unit_index_, boundaries_, mapping_,
+                                                    quadrature_points_per_axis())))
+              {
+                step_multigrid_failed_ = true;
+                return false;
+              }
+            step_multigrid_ = std::move(multigrid);
+          }
+        matrix_free_->set_weights(key);
+        step_multigrid_->set_weights(key);
+        solver_->set_operator_multigrid(*matrix_free_, *step_multigrid_, step_multigrid_->n_meshes(), number);
+        return true;
+      }
+    return false;
   }
 
   template <int dim>

@@ -10,7 +10,7 @@ namespace fickcast
   {
     double cells = 0;
     double unknowns = 0;
-    double memory = 0;       ///< bytes: the sparse matrices and vectors of the step, about
+    double memory = 0; ///< bytes: the sparse matrices (or the coefficients of matrix-free steps) and vectors, about
     double output_times = 0; ///< rows of profiles, field files
     double fixed_steps = 0;  ///< steps of a fixed time step (0 with error control)
   };

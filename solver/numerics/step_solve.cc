@@ -321,10 +321,21 @@ namespace fickcast
       {
         // The diagonal did not converge without a matrix: assemble it for multigrid and go on
         // from where CG got.
-        compose_system(system_key_);
-        solver_->set_matrix(system_, 0, true, diffusion_number(system_key_));
-        hierarchy_key_ = system_key_;
+        // (or geometric multigrid on the operator without one, if it has not failed).
+        if (!use_matrix_free(system_key_))
+          {
+            compose_system(system_key_);
+            solver_->set_matrix(system_, 0, true, diffusion_number(system_key_));
+            hierarchy_key_ = system_key_;
+          }
         result.linear_iterations += solver_->solve(x, b);
+        if (solver_->needs_matrix())
+          {
+            compose_system(system_key_);
+            solver_->set_matrix(system_, 0, true, diffusion_number(system_key_));
+            hierarchy_key_ = system_key_;
+            result.linear_iterations += solver_->solve(x, b);
+          }
       }
   }
 

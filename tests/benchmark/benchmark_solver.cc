@@ -1,7 +1,7 @@
 // Performance figures of the solver (DESIGN.md section 7). A benchmark, not a test: it prints
 // wall times, iterations, throughput and memory; nothing is asserted.
 //
-//   benchmark_solver [--1d] [--3d] [--large]       (default: --1d --3d, 3-D at 1e4 and 1e5)
+//   benchmark_solver [--1d] [--3d] [--large]       (default: --1d --3d, 3-D at 1e4 and 1e5, Q1 and Q2)
 //   mpirun -np 2 benchmark_solver --3d --large     (3-D at 1e4, 1e5 and 1e6 unknowns on 2 ranks)
 //   benchmark_solver --accuracy                     (time to a given accuracy against erfc: fickcast
 //                                                    versus a plain uniform-grid Crank-Nicolson
@@ -78,21 +78,13 @@ namespace
       }
   }
 
-  void three_dimensional(MPI_Comm communicator, const bool root, const bool large)
+  /// One table of the 3-D box: @p degree, cells per axis @p per_axis, fixed steps @p step to @p end.
+  void box_table(MPI_Comm communicator, const bool root, const unsigned int degree,
+                 const std::vector<unsigned int> &per_axis, const std::string &step, const std::string &end)
   {
-    const unsigned int ranks = dealii::Utilities::MPI::n_mpi_processes(communicator);
     if (root)
-      {
-        std::printf("\n3-D box, Q1, layered (two regions), 10 fixed BDF2 steps, CG with algebraic multigrid, "
-                    "%u rank%s\n",
-                    ranks, ranks > 1 ? "s" : "");
-        std::printf("%10s %8s %10s %10s %10s %10s %16s %12s\n", "unknowns", "cells", "s/step", "solve/step",
-                    "iter/step", "setup [s]", "unknown*step/s", "peak [MiB]");
-      }
-    // Cells per axis: multiples of 8 so the coarse mesh refines evenly (about 1.6e4, 1.2e5, 9.1e5 unknowns).
-    std::vector<unsigned int> per_axis{24, 48};
-    if (large)
-      per_axis.push_back(96);
+      std::printf("%10s %8s %10s %10s %10s %10s %16s %12s\n", "unknowns", "cells", "s/step", "solve/step", "iter/step",
+                  "setup [s]", "unknown*step/s", "peak [MiB]");
     for (const unsigned int n : per_axis)
       {
         const double h = 1.0 / n;
@@ -104,9 +96,12 @@ namespace
                                  cell +
                                  " m\n[region.upper]\ndiffusivity = 1e-9 m2/s\n[region.lower]\ndiffusivity = "
                                  "3e-9 m2/s\nporosity = 0.4\n[boundary.top]\ntype = concentration\nvalue = 1 mol/m3\n"
-                                 "[time]\nend = 1e7 s\nstep = 1e6 s\n[numerics]\ndegree = 1\nlinear_solver = "
-                                 "iterative\nsolver_tolerance = 1e-8\n[output]\nfields = false\n";
-        const RunRecord r = run_text(text, "three_d_" + std::to_string(n), communicator, 3);
+                                 "[time]\nend = " +
+                                 end + "\nstep = " + step +
+                                 "\n[numerics]\naccuracy = off\ndegree = " + std::to_string(degree) +
+                                 "\nlinear_solver = iterative\nsolver_tolerance = 1e-8\n[output]\nfields = false\n";
+        const RunRecord r =
+          run_text(text, "three_d_q" + std::to_string(degree) + "_" + std::to_string(n), communicator, 3);
         const double memory = peak_memory_mib(communicator);
         if (!root)
           continue;
@@ -120,8 +115,32 @@ namespace
         std::printf("           phases [s]:");
         for (const auto &[phase, seconds] : r.timing)
           std::printf(" %s %.2f;", phase.c_str(), seconds);
-        std::printf("\n");
+        std::printf("\n           solver: %s\n", r.linear_solver.c_str());
       }
+  }
+
+  void three_dimensional(MPI_Comm communicator, const bool root, const bool large)
+  {
+    const unsigned int ranks = dealii::Utilities::MPI::n_mpi_processes(communicator);
+    // Cells per axis: multiples of 8 so the coarse mesh refines evenly (Q1: about 1.6e4, 1.2e5,
+    // 9.1e5 unknowns; Q2 on half as many cells per axis: 1.6e4, 1.2e5, 9.1e5).
+    std::vector<unsigned int> q1{24, 48}, q2{12, 24};
+    if (large)
+      {
+        q1.push_back(96);
+        q2.push_back(48);
+      }
+    // Q2 first: the peak memory column is the process's peak so far.
+    if (root)
+      std::printf("\n3-D box 1 m, two layers (the lower porous), held on top; Q2, 10 fixed BDF2 steps of 1e7 s "
+                  "(diffusion numbers 150 to 2400), no matrices: CG with geometric multigrid, %u rank%s\n",
+                  ranks, ranks > 1 ? "s" : "");
+    box_table(communicator, root, 2, q2, "1e7 s", "1e8 s");
+    if (root)
+      std::printf("\nThe same box, Q1, 10 fixed BDF2 steps of 1e6 s, assembled matrices, CG with "
+                  "the diagonal or algebraic multigrid, %u rank%s\n",
+                  ranks, ranks > 1 ? "s" : "");
+    box_table(communicator, root, 1, q1, "1e6 s", "1e7 s");
   }
 
   // ---- time to a given accuracy (DESIGN.md section 7) ----
