@@ -5,6 +5,7 @@
 
 #include <deal.II/base/mpi.h>
 
+#include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <string>
@@ -21,7 +22,9 @@ namespace fickcast::testing
 {
   std::string scratch_folder(const std::string &name, MPI_Comm communicator)
   {
-    const std::string folder = std::string(FICKCAST_TEST_SCRATCH) + "/" + name;
+    // The assembled.* copies of the tests run beside the others (ctest -j): folders of their own.
+    const std::string folder =
+      std::string(FICKCAST_TEST_SCRATCH) + (assembled_steps_forced() ? "/assembled/" : "/") + name;
     if (dealii::Utilities::MPI::this_mpi_process(communicator) == 0)
       {
         std::filesystem::remove_all(folder);
@@ -45,6 +48,12 @@ namespace fickcast::testing
     return std::string(FICKCAST_SOURCE_DIR) + "/" + relative;
   }
 
+  bool assembled_steps_forced()
+  {
+    const char *value = std::getenv("FICKCAST_TEST_ASSEMBLED");
+    return value != nullptr && std::string(value) == "1";
+  }
+
   CaseDescription describe(const std::string &case_text, const std::string &name, MPI_Comm communicator)
   {
     const std::string folder = scratch_folder(name, communicator);
@@ -53,6 +62,9 @@ namespace fickcast::testing
     std::vector<std::string> overrides;
     if (case_text.find("accuracy") == std::string::npos)
       overrides.push_back("numerics.accuracy=off");
+    // The assembled path for every case that does not choose one (ctest's assembled.* copies).
+    if (assembled_steps_forced() && case_text.find("matrix_free") == std::string::npos)
+      overrides.push_back("numerics.matrix_free=off");
     CaseDescription description = read_case_text(case_text, name + ".ini", overrides);
     description.output.folder = folder + "/results";
     return description;

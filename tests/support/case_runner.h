@@ -10,12 +10,21 @@
 
 namespace fickcast::testing
 {
+  /**
+   * Whether the environment variable FICKCAST_TEST_ASSEMBLED is 1 (ctest's assembled.* copies of
+   * the verification tests): every case that does not set numerics.matrix_free then assembles
+   * its matrices, so that each check also holds on the assembled path, and scratch folders lie
+   * apart from the default copies'.
+   */
+  bool assembled_steps_forced();
+
   /// A fresh, empty folder under the build tree for one test (removed and re-created by rank 0
   /// of @p communicator, collective over it).
   std::string scratch_folder(const std::string &name, MPI_Comm communicator = MPI_COMM_WORLD);
 
   /// Reads @p case_text (INI) as if it were the file `<name>.ini`, with the results folder
-  /// set to scratch_folder(name)/results; numerics.accuracy is off unless the text sets it.
+  /// set to scratch_folder(name)/results; numerics.accuracy is off unless the text sets it, and
+  /// numerics.matrix_free off under assembled_steps_forced() unless the text sets it.
   CaseDescription describe(const std::string &case_text, const std::string &name,
                            MPI_Comm communicator = MPI_COMM_WORLD);
 
