@@ -11,6 +11,7 @@
 #include <deal.II/base/mpi.h>
 
 #include <csignal>
+#include <cstdlib>
 #include <filesystem>
 #include <iostream>
 
@@ -48,8 +49,33 @@ namespace
   }
 } // namespace
 
+namespace
+{
+  /// Whether a launcher started this process as one of several ranks (Open MPI, MPICH, Slurm).
+  bool started_by_launcher()
+  {
+    for (const char *name : {"OMPI_COMM_WORLD_SIZE", "PMI_SIZE", "PMIX_RANK", "SLURM_NTASKS"})
+      if (std::getenv(name) != nullptr)
+        return true;
+    return false;
+  }
+} // namespace
+
 int main(int argc, char **argv)
 {
+  // --version and --help need no MPI: starting it costs most of a second.
+  if (!started_by_launcher())
+    try
+      {
+        const fickcast::Invocation invocation =
+          fickcast::parse_command_line(std::vector<std::string>(argv + 1, argv + argc));
+        if (invocation.version || invocation.help)
+          return dispatch(invocation, MPI_COMM_NULL, true);
+      }
+    catch (const std::exception &)
+      {
+        // Reported below, once MPI runs (as every other error).
+      }
   dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
   const MPI_Comm communicator = MPI_COMM_WORLD;
   const bool root = dealii::Utilities::MPI::this_mpi_process(communicator) == 0;
