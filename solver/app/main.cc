@@ -6,12 +6,12 @@
 #include "case/input_error.h"
 #include "numerics/run_size.h"
 #include "results/summary.h"
+#include "run/process_start.h"
 #include "run/simulation.h"
 
 #include <deal.II/base/mpi.h>
 
 #include <csignal>
-#include <cstdlib>
 #include <filesystem>
 #include <iostream>
 
@@ -49,22 +49,10 @@ namespace
   }
 } // namespace
 
-namespace
-{
-  /// Whether a launcher started this process as one of several ranks (Open MPI, MPICH, Slurm).
-  bool started_by_launcher()
-  {
-    for (const char *name : {"OMPI_COMM_WORLD_SIZE", "PMI_SIZE", "PMIX_RANK", "SLURM_NTASKS"})
-      if (std::getenv(name) != nullptr)
-        return true;
-    return false;
-  }
-} // namespace
-
 int main(int argc, char **argv)
 {
   // --version and --help need no MPI: starting it costs most of a second.
-  if (!started_by_launcher())
+  if (!fickcast::started_by_launcher())
     try
       {
         const fickcast::Invocation invocation =
@@ -76,6 +64,7 @@ int main(int argc, char **argv)
       {
         // Reported below, once MPI runs (as every other error).
       }
+  fickcast::prepare_single_process_mpi();
   dealii::Utilities::MPI::MPI_InitFinalize mpi(argc, argv, 1);
   const MPI_Comm communicator = MPI_COMM_WORLD;
   const bool root = dealii::Utilities::MPI::this_mpi_process(communicator) == 0;
