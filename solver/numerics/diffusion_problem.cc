@@ -207,6 +207,9 @@ namespace fickcast
       DoFRenumbering::hierarchical(dof_handler_);
     owned_ = dof_handler_.locally_owned_dofs();
     DoFTools::extract_locally_relevant_dofs(dof_handler_, relevant_);
+    spare_vectors_.clear();
+    owned_template_.reinit(owned_, communicator_);
+    ghosted_template_.reinit(owned_, relevant_, communicator_);
     hanging_.clear();
     hanging_.reinit(relevant_);
     DoFTools::make_hanging_node_constraints(dof_handler_, hanging_);
@@ -413,20 +416,6 @@ namespace fickcast
     if (clock_region_ < 0)
       return 1.0;
     return materials_[static_cast<std::size_t>(clock_region_)].diffusivity(0, 0, 0, t, 0) / clock_reference_;
-  }
-
-  template <int dim>
-  typename DiffusionProblem<dim>::Vector DiffusionProblem<dim>::make_vector() const
-  {
-    return Vector(owned_, communicator_);
-  }
-
-  template <int dim>
-  typename DiffusionProblem<dim>::Vector DiffusionProblem<dim>::make_ghosted(const Vector &owned) const
-  {
-    Vector ghosted(owned_, relevant_, communicator_);
-    ghosted = owned;
-    return ghosted;
   }
 
   template <int dim>

@@ -184,8 +184,55 @@ namespace fickcast
     const std::string &refinement_warning() const { return refinement_warning_; }
 
     // --- state
-    Vector make_vector() const;
-    Vector make_ghosted(const Vector &owned) const;
+    /**
+     * A zero work vector of the owned unknowns, borrowed for a scope from a pool the problem
+     * keeps: constructing a Trilinos vector builds an Epetra map (twice: an empty one first),
+     * which at a few hundred unknowns costs as much as the step's solve.
+     */
+    class WorkVector
+    {
+    public:
+      explicit WorkVector(const DiffusionProblem &problem)
+        : problem_(problem)
+        , vector_(problem.borrow_vector())
+      {
+      }
+      ~WorkVector() { problem_.return_vector(std::move(vector_)); }
+      WorkVector(const WorkVector &) = delete;
+      WorkVector &operator=(const WorkVector &) = delete;
+      Vector &operator*() { return *vector_; }
+
+    private:
+      const DiffusionProblem &problem_;
+      std::unique_ptr<Vector> vector_;
+    };
+    std::unique_ptr<Vector> borrow_vector() const
+    {
+      if (spare_vectors_.empty())
+        return std::make_unique<Vector>(owned_template_);
+      std::unique_ptr<Vector> vector = std::move(spare_vectors_.back());
+      spare_vectors_.pop_back();
+      *vector = 0;
+      return vector;
+    }
+    void return_vector(std::unique_ptr<Vector> vector) const
+    {
+      // (A vector of the unknowns before a remeshing does not come back.)
+      if (vector && vector->locally_owned_size() == owned_template_.locally_owned_size() &&
+          vector->size() == owned_template_.size() && spare_vectors_.size() < 32)
+        spare_vectors_.push_back(std::move(vector));
+    }
+
+    /// A zero vector of the owned unknowns (a copy of a template: it shares the template's map,
+    /// where building a map costs a collective).
+    Vector make_vector() const { return owned_template_; }
+    /// @p owned with the ghost entries of the locally relevant unknowns.
+    Vector make_ghosted(const Vector &owned) const
+    {
+      Vector ghosted(ghosted_template_);
+      ghosted = owned;
+      return ghosted;
+    }
     /// u at t = 0: the initial phase concentration over the partition (saturation where a loading
     /// exceeds the solubility); fills the undissolved reserve and the bath values.
     void initial_state(Vector &u);
@@ -371,6 +418,8 @@ namespace fickcast
     dealii::MappingQ<dim> mapping_;
     dealii::DoFHandler<dim> dof_handler_;
     dealii::IndexSet owned_, relevant_;
+    mutable std::vector<std::unique_ptr<Vector>> spare_vectors_; ///< WorkVector's pool (of the current unknowns)
+    Vector owned_template_, ghosted_template_;      ///< zero vectors whose copies make_vector() and make_ghosted() give
     dealii::AffineConstraints<double> hanging_;     ///< hanging-node constraints of a locally refined mesh
     dealii::AffineConstraints<double> constraints_; ///< hanging nodes and fixed unknowns
     bool has_hanging_ = false;                      ///< on any rank

@@ -400,7 +400,8 @@ namespace fickcast
           }
 
         // Lifting of the known values.
-        Vector lifted = make_vector();
+        WorkVector lifted_work(*this), b_work(*this), w_work(*this);
+        Vector &lifted = *lifted_work;
         for (std::size_t k = 0; k < fixed_dofs_.size(); ++k)
           {
             const unsigned int b = fixed_dofs_[k].second;
@@ -422,7 +423,8 @@ namespace fickcast
             matrix = &modified_;
           }
 
-        Vector b = rhs_used;
+        Vector &b = *b_work;
+        b = rhs_used;
         const auto n_active = Utilities::MPI::sum(active.size(), communicator_);
         if (n_active == 0 && Utilities::MPI::sum(fixed_dofs_.size(), communicator_) > 0)
           {
@@ -443,7 +445,8 @@ namespace fickcast
             b -= lifted_image;
           }
         zero_rows(b, held);
-        Vector w = u1;
+        Vector &w = *w_work;
+        w = u1;
         w -= lifted;
         zero_rows(w, held);
         solve_linear(matrix, w, b, result);
@@ -586,7 +589,8 @@ namespace fickcast
   {
     StepResult result;
     // Right-hand side without reactions: -M (a1 u0 + a2 u_prev) + w1 F1 - w0 (L0 u0 - F0).
-    Vector rhs = make_vector(), tmp = make_vector(), f = make_vector();
+    WorkVector rhs_work(*this), tmp_work(*this), f_work(*this), rhs_used_work(*this);
+    Vector &rhs = *rhs_work, &tmp = *tmp_work, &f = *f_work;
     tmp.equ(plan.a1, u0);
     if (plan.a2 != 0)
       {
@@ -607,7 +611,8 @@ namespace fickcast
         rhs.add(plan.w0, f);
       }
 
-    Vector rhs_used = rhs;
+    Vector &rhs_used = *rhs_used_work;
+    rhs_used = rhs;
     const bool use_newton = nonlinear_ && description_.numerics.newton && baths_.empty() && !dispersed_;
     if (use_newton)
       newton(plan, rhs, u1, result);
@@ -620,7 +625,9 @@ namespace fickcast
         const unsigned int passes = nonlinear_ ? description_.numerics.max_nonlinear_iterations : 1;
         for (unsigned int iteration = 0; iteration < passes; ++iteration)
           {
-            Vector previous = u1;
+            WorkVector previous_work(*this);
+            Vector &previous = *previous_work;
+            previous = u1;
             if (nonlinear_)
               {
                 ++result.nonlinear_iterations;
@@ -671,7 +678,8 @@ namespace fickcast
       }
     else
       {
-        Vector residual = make_vector();
+        WorkVector residual_work(*this);
+        Vector &residual = *residual_work;
         mass_product(u1, residual);
         residual *= plan.a0;
         apply_operator(plan.t1, u1, tmp);
@@ -689,7 +697,8 @@ namespace fickcast
                                                       Vector &e1)
   {
     // Right-hand side of the homogeneous step: -M (a1 e0 + a2 e_prev) - w0 L e0.
-    Vector rhs = make_vector(), tmp = make_vector();
+    WorkVector rhs_work(*this), tmp_work(*this);
+    Vector &rhs = *rhs_work, &tmp = *tmp_work;
     tmp.equ(plan.a1, e0);
     if (plan.a2 != 0 && e_prev != nullptr)
       tmp.add(plan.a2, *e_prev);

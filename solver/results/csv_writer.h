@@ -48,5 +48,6 @@ namespace fickcast
     std::ofstream stream_;
     std::string path_;
     std::size_t n_columns_ = 0;
+    std::string row_; ///< the row being formatted (kept for its capacity)
   };
 } // namespace fickcast
