@@ -73,13 +73,7 @@ namespace fickcast
   void LinearSolver::set_matrix(const dealii::TrilinosWrappers::SparseMatrix &matrix, const double change,
                                 const bool symmetric, const double diffusion_number)
   {
-    matrix_ = &matrix;
-    operator_ = nullptr;
-    geometric_ = nullptr;
-    needs_matrix_ = false;
-    symmetric_ = symmetric;
-    diffusion_number_ = diffusion_number;
-    jacobi_.reset();
+    select(&matrix, nullptr, nullptr, symmetric, diffusion_number);
     if (direct_)
       {
         ++n_setups_;
@@ -103,13 +97,7 @@ namespace fickcast
   {
     if (direct_ || !(diffusion_number >= 0 && diffusion_number <= jacobi_limit_))
       return false;
-    operator_ = &op;
-    geometric_ = nullptr;
-    matrix_ = nullptr;
-    needs_matrix_ = false;
-    symmetric_ = true;
-    diffusion_number_ = diffusion_number;
-    jacobi_.reset();
+    select(nullptr, &op, nullptr, true, diffusion_number);
     return true;
   }
 
@@ -117,12 +105,19 @@ namespace fickcast
                                             const PreconditionerWithoutMatrix &multigrid, const unsigned int n_meshes,
                                             const double diffusion_number)
   {
-    operator_ = &op;
-    geometric_ = &multigrid;
+    select(nullptr, &op, &multigrid, true, diffusion_number);
     geometric_meshes_ = n_meshes;
-    matrix_ = nullptr;
+  }
+
+  void LinearSolver::select(const dealii::TrilinosWrappers::SparseMatrix *matrix, const OperatorWithoutMatrix *op,
+                            const PreconditionerWithoutMatrix *geometric, const bool symmetric,
+                            const double diffusion_number)
+  {
+    matrix_ = matrix;
+    operator_ = op;
+    geometric_ = geometric;
     needs_matrix_ = false;
-    symmetric_ = true;
+    symmetric_ = symmetric;
     diffusion_number_ = diffusion_number;
     jacobi_.reset();
   }

@@ -185,6 +185,10 @@ namespace fickcast
     bool solve_with_diagonal(const Operator &op, const Preconditioner &diagonal,
                              dealii::TrilinosWrappers::MPI::Vector &x, const dealii::TrilinosWrappers::MPI::Vector &b,
                              double norm, unsigned int &iterations);
+    /// The step operator of the next solves (a matrix, or an operator with or without geometric
+    /// multigrid); forgets the previous one's preconditioner.
+    void select(const dealii::TrilinosWrappers::SparseMatrix *matrix, const OperatorWithoutMatrix *op,
+                const PreconditionerWithoutMatrix *geometric, bool symmetric, double diffusion_number);
     unsigned int solve_with_geometric(dealii::TrilinosWrappers::MPI::Vector &x,
                                       const dealii::TrilinosWrappers::MPI::Vector &b, double norm);
     unsigned int solve_with_multigrid(dealii::TrilinosWrappers::MPI::Vector &x,

@@ -317,11 +317,11 @@ namespace fickcast
   {
     PhaseTimer::Scope scope(timer_, "linear solve");
     result.linear_iterations += modified ? solver_->solve_other(*modified, x, b) : solver_->solve(x, b);
-    if (!modified && solver_->needs_matrix())
+    // A solve without a matrix that did not converge (the diagonal, or geometric multigrid) goes
+    // on from where CG got: with geometric multigrid if it has not failed, else with the
+    // assembled matrix and algebraic multigrid (which throws rather than hand back).
+    while (!modified && solver_->needs_matrix())
       {
-        // The diagonal did not converge without a matrix: assemble it for multigrid and go on
-        // from where CG got.
-        // (or geometric multigrid on the operator without one, if it has not failed).
         if (!use_matrix_free(system_key_))
           {
             compose_system(system_key_);
@@ -329,13 +329,6 @@ namespace fickcast
             hierarchy_key_ = system_key_;
           }
         result.linear_iterations += solver_->solve(x, b);
-        if (solver_->needs_matrix())
-          {
-            compose_system(system_key_);
-            solver_->set_matrix(system_, 0, true, diffusion_number(system_key_));
-            hierarchy_key_ = system_key_;
-            result.linear_iterations += solver_->solve(x, b);
-          }
       }
   }
 
