@@ -5,6 +5,7 @@
 #include "numerics/linear_solver.h"
 #include "numerics/mesh_statistics.h"
 #include "numerics/run_size.h"
+#include "run/guards.h"
 #include "studies/result_names.h"
 #include "studies/sizing.h"
 #include "studies/study_plan.h"
@@ -140,6 +141,17 @@ namespace fickcast
       std::cout << "mesh near open faces: " << mesh.refinement_note << "\n";
     if (!mesh.refinement_warning.empty())
       std::cout << "warning: " << mesh.refinement_warning << "\n";
+    if (mesh.cell_peclet > 0)
+      {
+        char flow[200];
+        std::snprintf(flow, sizeof(flow),
+                      "water flow: cell Peclet number up to %.3g (%s); the flow crosses the shortest cell in %.3g s "
+                      "(a step of that length has Courant number 1); streamline upwinding on\n",
+                      mesh.cell_peclet, mesh.cell_peclet_region.c_str(), 1.0 / mesh.crossing_rate);
+        std::cout << flow;
+      }
+    for (const auto &warning : flow_warnings(mesh.flow_warning, mesh.cell_peclet, mesh.cell_peclet_region))
+      std::cout << "warning: " << warning << "\n";
     for (const auto &warning : description.input_warnings)
       std::cout << "warning: " << warning << "\n";
     // A distortion measure (the smallest over the largest Jacobian determinant in a cell): 1 for

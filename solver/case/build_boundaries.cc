@@ -159,6 +159,22 @@ namespace fickcast
           boundary.bath_partition = bath_partition ? bath_partition->si : 1.0;
           boundary.bath_initial = bath_initial ? bath_initial->si : 0.0;
         }
+      else if (type->text == "inflow")
+        {
+          boundary.kind = BoundaryKind::inflow;
+          forbid(coefficient, "the entering water carries the species");
+          forbid(ambient, "give value, the concentration of the entering water");
+          if (!value)
+            reader.missing(context, key_prefix + "value", "the concentration of the entering water, such as 250 mg/L");
+          boundary.value = value->field;
+        }
+      else if (type->text == "outflow")
+        {
+          boundary.kind = BoundaryKind::outflow;
+          forbid(value, "the water leaves with the concentration it has at the face");
+          forbid(ambient, "the water leaves with the concentration it has at the face");
+          forbid(coefficient, "the water leaves with the concentration it has at the face");
+        }
       else
         {
           boundary.kind = BoundaryKind::sealed;

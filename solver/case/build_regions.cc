@@ -9,6 +9,48 @@
 
 namespace fickcast
 {
+  namespace
+  {
+    /// The region's Darcy flux and dispersivities, checked against the dimension and coordinates.
+    void read_flow(const SectionReader &reader, const std::string &section, const CaseDescription &c,
+                   RegionSpec &region)
+    {
+      region.longitudinal_dispersivity = reader.quantity(section, "longitudinal_dispersivity", 0);
+      region.transverse_dispersivity = reader.quantity(section, "transverse_dispersivity", 0);
+      const auto *flux = reader.get(section, "darcy_flux");
+      if (flux == nullptr)
+        {
+          for (const char *key : {"longitudinal_dispersivity", "transverse_dispersivity"})
+            if (const auto *given = reader.get(section, key); given && given->si != 0)
+              reader.fail(*given, "a dispersivity needs water flowing: give darcy_flux in [" + section + "]");
+          return;
+        }
+      const unsigned int n = reader.dimension;
+      if (flux->list.size() != n)
+        reader.fail(*flux, "expected " +
+                             std::string(n == 1 ? "one value" : std::to_string(n) + " values, one per axis") +
+                             " for a " + std::to_string(n) + "-D case, found " + std::to_string(flux->list.size()));
+      for (const double q : flux->list)
+        if (!std::isfinite(q))
+          reader.fail(*flux, "expected finite values");
+      region.darcy_flux = flux->list;
+      if (!region.has_flow())
+        return;
+      if (c.geometry.radial())
+        reader.fail(*flux, "water flow is not available with coordinates = " +
+                             std::string(c.geometry.coordinates == Coordinates::sphere ? "sphere" : "cylinder") +
+                             " (a constant radial flux would not conserve water); use cartesian or axisymmetric");
+      if (c.geometry.coordinates == Coordinates::axisymmetric && region.darcy_flux[0] != 0)
+        reader.fail(*flux, "in an axisymmetric case only flow along the axis (r component 0) keeps a constant flux "
+                           "free of sources; found an r component of " +
+                             std::to_string(region.darcy_flux[0]) + " m/s");
+      if (n == 1 && reader.get(section, "transverse_dispersivity") &&
+          reader.get(section, "transverse_dispersivity")->si != 0)
+        reader.fail(*reader.get(section, "transverse_dispersivity"),
+                    "a 1-D case has no direction across the flow; give longitudinal_dispersivity only");
+    }
+  } // namespace
+
   void build_regions(const SectionReader &reader, CaseDescription &c)
   {
     const bool from_mesh = !c.geometry.mesh_file.empty();
@@ -116,6 +158,7 @@ namespace fickcast
         if (from_mesh && reader.get(section, "cell_size"))
           reader.fail(*reader.get(section, "cell_size"), "not used with geometry.mesh (set sizes in the .geo, or use "
                                                          "geometry.refine)");
+        read_flow(reader, section, c, region);
         for (auto &layer : c.geometry.layers)
           if (layer.name == name)
             layer.cell_size = region.cell_size;

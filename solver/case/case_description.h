@@ -143,9 +143,22 @@ namespace fickcast
     double loading = 0;                  ///< total initial content per bulk volume (with a dispersed phase); 0: none
     double solubility = 0;               ///< phase concentration at saturation; 0: unlimited
     double cell_size = 0;                ///< m; 0: the geometry's
+    /// Darcy flux q, m/s: one component per axis of the mesh (empty: no flow). The seepage
+    /// velocity is q / theta; in 1-D positive q flows from the top face toward the bottom face.
+    std::vector<double> darcy_flux;
+    double longitudinal_dispersivity = 0; ///< alpha_L, m
+    double transverse_dispersivity = 0;   ///< alpha_T, m
 
     /// Whether part of the content may be undissolved (solid above solubility).
     bool has_dispersed_phase() const { return solubility > 0; }
+    /// Whether water flows through the region (a Darcy flux that is not zero).
+    bool has_flow() const
+    {
+      for (const double q : darcy_flux)
+        if (q != 0)
+          return true;
+      return false;
+    }
   };
 
   enum class BoundaryKind
@@ -154,7 +167,9 @@ namespace fickcast
     flux,          ///< prescribed inward flux
     transfer,      ///< outward flux = h (c_face - K c_ambient)
     sealed,        ///< zero flux (also symmetry)
-    bath           ///< a finite well-stirred bath of given volume
+    bath,          ///< a finite well-stirred bath of given volume
+    inflow,        ///< water enters with a given concentration: total inward flux = -q.n c_in
+    outflow        ///< water leaves freely: total outward flux = q.n c (no dispersive flux)
   };
 
   /**

@@ -19,6 +19,7 @@ namespace fickcast
       switch (b.kind)
         {
           case BoundaryKind::sealed:
+          case BoundaryKind::outflow:
             return std::nan("");
           case BoundaryKind::flux:
             if (b.value.is_constant() && b.value.value == 0)
@@ -30,9 +31,10 @@ namespace fickcast
             if (!b.ambient.is_constant())
               return std::nullopt;
             return b.ambient.value;
+          case BoundaryKind::inflow:
           case BoundaryKind::concentration:
             {
-              if (b.value_is_ambient)
+              if (b.kind == BoundaryKind::concentration && b.value_is_ambient)
                 return b.ambient.is_constant() ? std::optional<double>(b.ambient.value) : std::nullopt;
               if (!b.value.is_constant() || c.regions.empty())
                 return std::nullopt;

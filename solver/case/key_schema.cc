@@ -160,13 +160,24 @@ namespace fickcast
                             {"x", "y", "z"}));
       s.push_back(positive(make("region", "cell_size", K::quantity, Dim::length, "",
                                 "cell size in this layer (overrides geometry.cell_size)")));
+      s.push_back(make("region", "darcy_flux", K::quantity_list, Dim::velocity, "",
+                       "Darcy flux q (water volume per area and time; seepage velocity q / porosity): one value "
+                       "in 1-D (positive from the top face toward the bottom), one per axis in 2-D and 3-D"));
+      s.push_back(bounded(make("region", "longitudinal_dispersivity", K::quantity, Dim::length, "0",
+                               "dispersivity along the flow, alpha_L: adds alpha_L |q| to the dispersion"),
+                          0, false));
+      s.push_back(bounded(make("region", "transverse_dispersivity", K::quantity, Dim::length, "0",
+                               "dispersivity across the flow, alpha_T (2-D and 3-D)"),
+                          0, false));
       // [boundary.NAME]
       s.push_back(required(
-        choices(make("boundary", "type", K::choice, Dim::none, "", "concentration, flux, transfer, sealed or bath"),
-                {"concentration", "flux", "transfer", "sealed", "bath"})));
+        choices(make("boundary", "type", K::choice, Dim::none, "",
+                     "concentration, flux, transfer, sealed, bath, inflow or outflow (faces that water crosses)"),
+                {"concentration", "flux", "transfer", "sealed", "bath", "inflow", "outflow"})));
       s.push_back(variables(make("boundary", "value", K::field, Dim::boundary_value, "",
-                                 "concentration inside the material at the face (type concentration) "
-                                 "or inward flux (type flux); {expression of x, y, z, t} allowed"),
+                                 "concentration inside the material at the face (type concentration), "
+                                 "inward flux (type flux) or concentration of the entering water (type inflow); "
+                                 "{expression of x, y, z, t} allowed"),
                             {"x", "y", "z", "t"}));
       s.push_back(variables(make("boundary", "ambient", K::field, Dim::concentration, "",
                                  "concentration in the medium outside (reference phase); "

@@ -16,7 +16,9 @@ namespace fickcast
    * - flux: a given inward flux;
    * - transfer: outward flux h (c_face - K c_ambient) = h K (u - u_ambient);
    * - bath: a well-stirred finite volume whose u is an unknown of the step;
-   * - sealed: nothing.
+   * - sealed: nothing;
+   * - inflow: water enters with a given concentration c_in; the inward flux is -q.n c_in;
+   * - outflow: water leaves with the concentration it has; the outward flux is q.n K u.
    *
    * A value, flux or ambient that is not finite where it is asked for is reported to
    * @p non_finite_to (if that is still empty) as "KEY: message", for a collective check by the
@@ -43,13 +45,20 @@ namespace fickcast
     /// Flux and transfer faces: the given function that drives the face (the inward flux, or the
     /// ambient u); the load is its integral against the test functions times load_factor. Ask
     /// its values through driving_value, which checks them.
-    const ScalarFunction &driving_function() const { return kind() == BoundaryKind::flux ? value_ : ambient_; }
+    const ScalarFunction &driving_function() const { return drives_by_value() ? value_ : ambient_; }
+    /// Whether `value` drives the face (a given flux, or the concentration of entering water).
+    bool drives_by_value() const { return kind() == BoundaryKind::flux || kind() == BoundaryKind::inflow; }
+    /// Whether the face has a load (a given flux, transfer, entering water).
+    bool has_load() const
+    {
+      return kind() == BoundaryKind::flux || kind() == BoundaryKind::transfer || kind() == BoundaryKind::inflow;
+    }
     /// The driving function's value at a point and time; remembers a value that is not finite.
     double driving_value(double x, double y, double z, double t) const;
     /// The driving function's value, if it is the same everywhere on the face, at time @p t.
     double driving_at_time(double t) const { return driving_value(0, 0, 0, t); }
     /// The factor of the face load and, for transfer, of the face operator: h K of the region on
-    /// the face's cell for transfer, 1 for a given flux.
+    /// the face's cell for transfer, 1 for a given flux (for inflow the assembly multiplies by -q.n).
     double load_factor(const double cell_partition) const
     {
       return kind() == BoundaryKind::transfer ? spec_->coefficient * cell_partition : 1.0;

@@ -7,6 +7,7 @@
 #include "model/scalar_function.h"
 
 #include <string>
+#include <vector>
 
 namespace fickcast
 {
@@ -70,6 +71,14 @@ namespace fickcast
     }
     /// How D depends on position, time and concentration (decides how operators are built).
     const Diffusivity &diffusivity_shape() const { return diffusivity_; }
+
+    // --- water flow (advection and mechanical dispersion)
+    bool has_flow() const { return region_->has_flow(); }
+    /// Darcy flux q, m/s, one component per axis (empty: none).
+    const std::vector<double> &darcy_flux() const { return region_->darcy_flux; }
+    double porosity() const { return region_->porosity; }
+    double longitudinal_dispersivity() const { return region_->longitudinal_dispersivity; }
+    double transverse_dispersivity() const { return region_->transverse_dispersivity; }
 
     // --- reactions and sources
     double reaction() const

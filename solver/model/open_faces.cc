@@ -9,7 +9,7 @@ namespace fickcast
       for (std::size_t b = 0; b < boundary_names.size(); ++b)
         if (const BoundarySpec *spec = stage.find_boundary(boundary_names[b]))
           open[b] = open[b] || spec->kind == BoundaryKind::concentration || spec->kind == BoundaryKind::transfer ||
-                    spec->kind == BoundaryKind::bath;
+                    spec->kind == BoundaryKind::bath || spec->kind == BoundaryKind::inflow;
     return open;
   }
 } // namespace fickcast

@@ -91,6 +91,7 @@ namespace fickcast
         dynamic_.push_back(dynamic);
         nonlinear_ = nonlinear_ || d.depends_on_concentration();
         dispersed_ = dispersed_ || material.has_dispersed_phase();
+        flow_ = flow_ || material.has_flow();
         if (!dynamic && d.uniform_in_space() && d.depends_on_time())
           {
             unit_index_.push_back(n_unit_++);
@@ -106,6 +107,7 @@ namespace fickcast
           unit_index_.push_back(-1);
       }
     refine_near_open_faces();
+    check_flow();
     check_point_placement(triangulation(), description_, names_.regions, communicator_);
   }
 
@@ -765,10 +767,12 @@ namespace fickcast
     rates.boundary_inflow.assign(boundaries_.size(), 0.0);
     for (unsigned int b = 0; b < boundaries_.size(); ++b)
       {
-        if (boundaries_[b].kind() == BoundaryKind::flux)
+        if (boundaries_[b].kind() == BoundaryKind::flux || boundaries_[b].kind() == BoundaryKind::inflow)
           rates.boundary_inflow[b] = boundary_forcing(b, t, nullptr);
         else if (boundaries_[b].kind() == BoundaryKind::transfer)
           rates.boundary_inflow[b] = boundary_forcing(b, t, nullptr) - transfer_rowsum_[b] * u;
+        else if (boundaries_[b].kind() == BoundaryKind::outflow)
+          rates.boundary_inflow[b] = -(transfer_rowsum_[b] * u);
       }
     if (!source_depends_on_space_)
       for (unsigned int r = 0; r < materials_.size(); ++r)

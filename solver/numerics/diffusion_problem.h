@@ -11,11 +11,14 @@
 #include <deal.II/base/index_set.h>
 #include <deal.II/dofs/dof_handler.h>
 #include <deal.II/fe/fe_q.h>
+#include <deal.II/fe/fe_values.h>
 #include <deal.II/fe/mapping_q.h>
 #include <deal.II/grid/tria.h>
 #include <deal.II/lac/affine_constraints.h>
+#include <deal.II/lac/full_matrix.h>
 #include <deal.II/lac/trilinos_sparse_matrix.h>
 #include <deal.II/lac/trilinos_vector.h>
+#include <deal.II/lac/vector.h>
 
 #include <memory>
 #include <string>
@@ -83,6 +86,14 @@ namespace fickcast
     unsigned long cells_before = 0, cells_after = 0;
     unsigned long marked_refine = 0, marked_coarsen = 0;
     bool changed = false;
+  };
+
+  /// How strongly water flow dominates the cells (collective; zeros without flow).
+  struct FlowNumbers
+  {
+    double peclet = 0;         ///< largest cell Peclet number |q K| h / (G along the flow), D at t = 0
+    std::string peclet_region; ///< the region of that cell
+    double crossing_rate = 0;  ///< largest |q K / C| / h (1/s): times a step, its Courant number
   };
 
   /// What a checkpoint keeps of the problem besides the state u (plain data, this rank's part).
@@ -177,6 +188,12 @@ namespace fickcast
     double clock_rate(double t) const;
     bool has_clock() const { return clock_region_ >= 0; }
     bool is_nonlinear() const { return nonlinear_; }
+    /// Whether water flows through some region (advection: the step operator is unsymmetric).
+    bool has_flow() const { return flow_; }
+    /// Cell Peclet and crossing rate of the flow on this mesh (flow_checks.cc; collective).
+    FlowNumbers flow_numbers() const;
+    /// Faces where water crosses a sealed face, as one warning ("" if none; set by build_mesh).
+    const std::string &flow_warning() const { return flow_warning_; }
     bool has_dispersed_phase() const { return dispersed_; }
     /// What the refinement next to open faces did ("" if none), and a warning if it stopped at
     /// the size limit before reaching its target ("" if not).
@@ -307,6 +324,9 @@ namespace fickcast
     double undissolved_amount() const;
     /// Rates of the non-reaction terms at @p u and @p t.
     TermRates rates(const Vector &u, double t) const;
+    /// Per boundary id: the amount per time the water carries in through the face at @p u,
+    /// -int q.n K u (0 without flow).
+    std::vector<double> advective_inflow(const Vector &u) const;
     BoundaryKind boundary_kind(unsigned int boundary) const { return boundaries_[boundary].kind(); }
     /// Concentration in the bath on boundary @p boundary (bath phase; NaN if not a bath).
     double bath_concentration(unsigned int boundary) const;
@@ -340,6 +360,18 @@ namespace fickcast
     void remake_operators();
     void setup_fixed_unknowns();
     void reinit(MatrixPair &pair);
+
+    // Water flow (flow_checks.cc).
+    /// Checks the Darcy fluxes against the mesh: the normal component continuous across region
+    /// interfaces, inflow faces where water enters and outflow faces where it leaves (throws
+    /// InputError on every rank); notes sealed faces that water crosses (flow_warning()).
+    /// Collective.
+    void check_flow();
+    /// Adds the advection, dispersion and streamline-upwind terms of @p cell's region to its
+    /// local mass, operator and source weights.
+    void add_flow_terms(const typename dealii::DoFHandler<dim>::active_cell_iterator &cell,
+                        const dealii::FEValues<dim> &fe_values, dealii::FullMatrix<double> &mass,
+                        dealii::FullMatrix<double> &stiffness, dealii::Vector<double> &load) const;
 
     // Assembly (operator_assembly.cc).
     unsigned int quadrature_points_per_axis() const;
@@ -433,7 +465,8 @@ namespace fickcast
     std::vector<bool> dynamic_;   ///< per region: assembled per time or iterate
     int clock_region_ = -1;
     double clock_reference_ = 1;
-    bool nonlinear_ = false, dispersed_ = false;
+    bool nonlinear_ = false, dispersed_ = false, flow_ = false;
+    std::string flow_warning_;
     std::vector<BoundaryCondition> boundaries_; ///< this stage's, by boundary id
     std::vector<double> boundary_partition_;    ///< K of the region touching each boundary
     bool source_depends_on_space_ = false;
@@ -454,9 +487,10 @@ namespace fickcast
     std::vector<Vector> region_mass_; ///< M_r 1 per region
     std::vector<Vector> region_load_; ///< int phi w per region
     std::vector<double> region_load_total_;
-    Vector decay_weights_;                ///< (k-part of L) 1
-    std::vector<Vector> transfer_rowsum_; ///< B_b 1 per boundary
-    std::vector<Vector> boundary_load_;   ///< int phi w over boundary b (times h K for transfer)
+    Vector decay_weights_;                  ///< (k-part of L) 1
+    std::vector<Vector> transfer_rowsum_;   ///< B_b 1 per boundary
+    std::vector<Vector> advective_weights_; ///< int q.n K phi_i over boundary b (empty without flow)
+    std::vector<Vector> boundary_load_;     ///< int phi w over boundary b (times h K for transfer)
     std::vector<double> boundary_load_total_;
 
     // Fixed unknowns: concentration boundaries and baths (owned entries).

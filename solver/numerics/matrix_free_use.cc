@@ -72,8 +72,9 @@ namespace fickcast
   {
     // Degree 1: a Q1 matrix is cheap to stream (27 entries a row in 3-D), and the product without
     // it costs 4.5 times more on this deal.II (no SIMD): 41 ms against 9 ms at 227k unknowns.
-    if (dim == 1 || fe_.degree < 2 || !description_.numerics.matrix_free || nonlinear_ || dispersed_ || !solver_ ||
-        solver_->is_direct() || description_.numerics.linear_solver == LinearSolverKind::multigrid)
+    // Water flow makes the step operator unsymmetric (advection, streamline upwinding).
+    if (dim == 1 || fe_.degree < 2 || !description_.numerics.matrix_free || nonlinear_ || dispersed_ || has_flow() ||
+        !solver_ || solver_->is_direct() || description_.numerics.linear_solver == LinearSolverKind::multigrid)
       return false;
     if (std::any_of(dynamic_.begin(), dynamic_.end(), [](bool d) { return d; }))
       return false;

@@ -28,6 +28,11 @@ namespace fickcast
       MeshStatistics statistics;
       statistics.refinement_note = problem.refinement_note();
       statistics.refinement_warning = problem.refinement_warning();
+      const auto flow = problem.flow_numbers();
+      statistics.cell_peclet = flow.peclet;
+      statistics.cell_peclet_region = flow.peclet_region;
+      statistics.crossing_rate = flow.crossing_rate;
+      statistics.flow_warning = problem.flow_warning();
       statistics.cells = triangulation->n_global_active_cells();
       statistics.unknowns = dofs.n_dofs();
       double smallest = 1e300, largest = 0, worst = 2;

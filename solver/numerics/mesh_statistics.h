@@ -7,6 +7,7 @@
 
 #include <array>
 #include <string>
+#include <vector>
 
 namespace fickcast
 {
@@ -21,6 +22,12 @@ namespace fickcast
     std::array<double, 3> worst_cell_centre{{0, 0, 0}};
     std::string refinement_note;    ///< what the refinement next to open faces did ("" if none)
     std::string refinement_warning; ///< it stopped at the size limit ("" if not)
+    /// Water flow: largest cell Peclet number and its region, largest seepage velocity over
+    /// retardation per cell length (1/s), and a sealed face that water crosses ("" if none).
+    double cell_peclet = 0;
+    std::string cell_peclet_region;
+    double crossing_rate = 0;
+    std::string flow_warning;
   };
 
   /// Builds the mesh (as a run would) and the finite-element space of @p description and counts

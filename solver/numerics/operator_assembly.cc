@@ -1,5 +1,6 @@
 // DiffusionProblem: assembling the mass matrix, the parts of the operator, loads and weights.
 #include "numerics/diffusion_problem.h"
+#include "numerics/flow_terms.h"
 
 #include <deal.II/base/quadrature_lib.h>
 #include <deal.II/fe/fe_values.h>
@@ -35,12 +36,15 @@ namespace fickcast
   {
     PhaseTimer::Scope scope(timer_, "assembly");
     const bool matrices = matrices_sized_;
+    const bool flow = has_flow();
     part_diagonals_.clear();
     const unsigned int n_regions = names_.regions.size();
     const unsigned int n_boundaries = names_.boundaries.size();
     // Fresh vectors (an assignment to the old ones would keep their last write mode).
-    for (auto *list : {&region_mass_, &region_load_, &transfer_rowsum_, &boundary_load_})
+    for (auto *list : {&region_mass_, &region_load_, &transfer_rowsum_, &boundary_load_, &advective_weights_})
       list->clear();
+    if (flow)
+      advective_weights_.resize(n_boundaries, make_vector());
     region_mass_.resize(n_regions, make_vector());
     region_load_.resize(n_regions, make_vector());
     transfer_rowsum_.resize(n_boundaries, make_vector());
@@ -62,9 +66,11 @@ namespace fickcast
     const QGauss<dim> quadrature(quadrature_points_per_axis());
     const QGauss<dim - 1> face_quadrature(fe_.degree + 2);
     FEValues<dim> fe_values(mapping_, fe_, quadrature,
-                            update_values | update_gradients | update_quadrature_points | update_JxW_values);
+                            update_values | update_gradients | update_quadrature_points | update_JxW_values |
+                              (flow && fe_.degree > 1 ? update_hessians : update_default));
     FEFaceValues<dim> fe_face_values(mapping_, fe_, face_quadrature,
-                                     update_values | update_quadrature_points | update_JxW_values);
+                                     update_values | update_quadrature_points | update_JxW_values |
+                                       update_normal_vectors);
     const unsigned int n = fe_.n_dofs_per_cell();
     FullMatrix<double> local_mass(n, n), local_static(n, n), local_unit(n, n);
     dealii::Vector<double> local_rowsum(n), local_load(n), local_decay(n);
@@ -124,6 +130,13 @@ namespace fickcast
               local_rowsum(i) += local_mass(i, j);
             local_decay(i) = c > 0 ? k / c * local_rowsum(i) : 0.0;
           }
+        // Water flow: after the row sums, which stay those of the Galerkin mass (the amounts).
+        const Tensor<1, dim> q_cell = darcy_flux_vector<dim>(material);
+        if (material.has_flow())
+          {
+            AssertThrow(matrices, ExcMessage("internal: water flow needs the assembled operators"));
+            add_flow_terms(cell, fe_values, local_mass, local_static, local_load);
+          }
 
         for (const unsigned int f : cell->face_indices())
           {
@@ -131,25 +144,44 @@ namespace fickcast
               continue;
             const unsigned int b = cell->face(f)->boundary_id();
             const BoundaryKind kind = boundaries_[b].kind();
-            if (kind != BoundaryKind::flux && kind != BoundaryKind::transfer)
+            const bool outflow = kind == BoundaryKind::outflow;
+            if (!boundaries_[b].has_load() && !outflow && !material.has_flow())
               continue;
             fe_face_values.reinit(cell, f);
-            const double h = boundaries_[b].load_factor(material.partition());
+            if (material.has_flow())
+              {
+                // What the water carries out through the face, per unit u at each node.
+                dealii::Vector<double> carried(n);
+                for (unsigned int q = 0; q < face_quadrature.size(); ++q)
+                  for (unsigned int i = 0; i < n; ++i)
+                    carried(i) += (q_cell * fe_face_values.normal_vector(q)) * material.partition() *
+                                  fe_face_values.shape_value(i, q) *
+                                  coordinate_weight(fe_face_values.quadrature_point(q)) * fe_face_values.JxW(q);
+                hanging_.distribute_local_to_global(carried, dofs, advective_weights_[b]);
+              }
+            if (!boundaries_[b].has_load() && !outflow)
+              continue;
             dealii::Vector<double> face_load(n);
             for (unsigned int q = 0; q < face_quadrature.size(); ++q)
               {
                 const double w = coordinate_weight(fe_face_values.quadrature_point(q)) * fe_face_values.JxW(q);
+                // Transfer: h K; a given flux: 1; entering water: -q.n; leaving water: q.n K.
+                const double qn = q_cell * fe_face_values.normal_vector(q);
+                const double h = kind == BoundaryKind::inflow ? -qn
+                                 : outflow                    ? qn * material.partition()
+                                                              : boundaries_[b].load_factor(material.partition());
                 for (unsigned int i = 0; i < n; ++i)
                   {
                     face_load(i) += h * fe_face_values.shape_value(i, q) * w;
-                    if (kind == BoundaryKind::transfer && matrices)
+                    if ((kind == BoundaryKind::transfer || outflow) && matrices)
                       for (unsigned int j = 0; j < n; ++j)
                         local_static(i, j) +=
                           h * fe_face_values.shape_value(i, q) * fe_face_values.shape_value(j, q) * w;
                   }
               }
-            hanging_.distribute_local_to_global(face_load, dofs, boundary_load_[b]);
-            if (kind == BoundaryKind::transfer)
+            if (!outflow)
+              hanging_.distribute_local_to_global(face_load, dofs, boundary_load_[b]);
+            if (kind == BoundaryKind::transfer || outflow)
               hanging_.distribute_local_to_global(face_load, dofs, transfer_rowsum_[b]); // boundary mass row sums
           }
 
@@ -188,7 +220,7 @@ namespace fickcast
           }
       }
     matrices_ready_ = matrices;
-    for (auto *list : {&region_mass_, &region_load_, &transfer_rowsum_, &boundary_load_})
+    for (auto *list : {&region_mass_, &region_load_, &transfer_rowsum_, &boundary_load_, &advective_weights_})
       for (auto &v : *list)
         v.compress(VectorOperation::add);
     decay_weights_.compress(VectorOperation::add);
@@ -336,7 +368,7 @@ namespace fickcast
   {
     sources(t, f);
     for (unsigned int b = 0; b < boundaries_.size(); ++b)
-      if (boundaries_[b].kind() == BoundaryKind::flux || boundaries_[b].kind() == BoundaryKind::transfer)
+      if (boundaries_[b].has_load())
         boundary_forcing(b, t, &f);
   }
 
@@ -355,10 +387,12 @@ namespace fickcast
     Vector load = make_vector();
     const QGauss<dim - 1> face_quadrature(fe_.degree + 2);
     FEFaceValues<dim> fe_face_values(mapping_, fe_, face_quadrature,
-                                     update_values | update_quadrature_points | update_JxW_values);
+                                     update_values | update_quadrature_points | update_JxW_values |
+                                       update_normal_vectors);
     const unsigned int n = fe_.n_dofs_per_cell();
     dealii::Vector<double> local(n);
     std::vector<types::global_dof_index> dofs(n);
+    const bool inflow = boundaries_[b].kind() == BoundaryKind::inflow;
     for (const auto &cell : dof_handler_.active_cell_iterators())
       {
         if (!cell->is_locally_owned())
@@ -370,14 +404,16 @@ namespace fickcast
             fe_face_values.reinit(cell, face);
             cell->get_dof_indices(dofs);
             const double factor = boundaries_[b].load_factor(partition(cell->material_id()));
+            const Tensor<1, dim> q_cell = darcy_flux_vector<dim>(materials_[cell->material_id()]);
             local = 0;
             for (unsigned int q = 0; q < face_quadrature.size(); ++q)
               {
                 const auto &p = fe_face_values.quadrature_point(q);
                 const double value = boundaries_[b].driving_value(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, t);
                 const double w = coordinate_weight(p) * fe_face_values.JxW(q);
+                const double f = inflow ? -(q_cell * fe_face_values.normal_vector(q)) : factor;
                 for (unsigned int i = 0; i < n; ++i)
-                  local(i) += factor * value * fe_face_values.shape_value(i, q) * w;
+                  local(i) += f * value * fe_face_values.shape_value(i, q) * w;
               }
             hanging_.distribute_local_to_global(local, dofs, load);
           }

@@ -3,6 +3,7 @@
 
 #include <deal.II/lac/solver_cg.h>
 #include <deal.II/lac/solver_control.h>
+#include <deal.II/lac/solver_gmres.h>
 #include <deal.II/lac/trilinos_precondition.h>
 
 namespace fickcast
@@ -42,7 +43,14 @@ namespace fickcast
           }
         TrilinosWrappers::PreconditionJacobi diagonal;
         diagonal.initialize(mass_.constrained);
-        cg.solve(mass_.constrained, rate, residual, diagonal);
+        if (has_flow())
+          {
+            // Streamline upwinding weighs the mass too: an unsymmetric matrix.
+            SolverGMRES<Vector> gmres(control);
+            gmres.solve(mass_.constrained, rate, residual, diagonal);
+          }
+        else
+          cg.solve(mass_.constrained, rate, residual, diagonal);
       }
     zero_fixed(rate);
     distribute(rate);

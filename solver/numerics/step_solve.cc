@@ -175,7 +175,7 @@ namespace fickcast
           }
       }
     const unsigned int before = solver_->n_setups();
-    solver_->set_matrix(system_, change, !jacobian, jacobian ? -1.0 : diffusion_number(key));
+    solver_->set_matrix(system_, change, !jacobian && !has_flow(), jacobian ? -1.0 : diffusion_number(key));
     if (solver_->n_setups() != before)
       hierarchy_key_ = key;
     system_key_ = key;
@@ -325,7 +325,7 @@ namespace fickcast
         if (!use_matrix_free(system_key_))
           {
             compose_system(system_key_);
-            solver_->set_matrix(system_, 0, true, diffusion_number(system_key_));
+            solver_->set_matrix(system_, 0, !has_flow(), diffusion_number(system_key_));
             hierarchy_key_ = system_key_;
           }
         result.linear_iterations += solver_->solve(x, b);

@@ -118,6 +118,12 @@ namespace fickcast
     unsigned int degree = 1;
     unsigned int ranks = 1;
     std::string linear_solver;
+    /// Water flow: the largest cell Peclet number (and its region) and the largest Courant
+    /// number of an accepted step (seepage velocity over retardation, times the step, over the
+    /// cell length); 0 without flow.
+    double cell_peclet = 0;
+    std::string cell_peclet_region;
+    double courant = 0;
     double end_time = 0; ///< s, time reached
     unsigned int steps_accepted = 0;
     unsigned int steps_rejected = 0;

@@ -143,6 +143,14 @@ namespace fickcast
     solver["nonlinear_iterations"] = r.nonlinear_iterations;
     solver["matrix_setups"] = r.matrix_setups;
     solver["ranks"] = r.ranks;
+    if (r.cell_peclet > 0)
+      {
+        Json::Value &flow = s["flow"];
+        flow["cell_peclet_largest"] = r.cell_peclet;
+        flow["cell_peclet_region"] = r.cell_peclet_region;
+        flow["courant_largest"] = r.courant;
+        flow["stabilisation"] = "streamline upwind Petrov-Galerkin (Brooks and Hughes 1982)";
+      }
 
     Json::Value &run = s["run"];
     run["date"] = now_iso8601();

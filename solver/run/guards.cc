@@ -2,6 +2,7 @@
 
 #include "case/input_error.h"
 #include "model/open_faces.h"
+#include "model/value_text.h"
 
 #include <deal.II/base/mpi.h>
 
@@ -133,6 +134,20 @@ namespace fickcast
       warnings.push_back("the concentration rose above the largest initial or boundary value by " +
                          number(worst_above_, "") + "of it (worst at t = " + number(above_time_, "s") + "; " +
                          at_end(last_above_) + ")" + remedy);
+    return warnings;
+  }
+
+  std::vector<std::string> flow_warnings(const std::string &sealed_face_warning, const double cell_peclet,
+                                         const std::string &peclet_region)
+  {
+    std::vector<std::string> warnings;
+    if (!sealed_face_warning.empty())
+      warnings.push_back(sealed_face_warning);
+    if (cell_peclet > 50)
+      warnings.push_back("cell Peclet number up to " + number_text(cell_peclet) + " in region " + peclet_region +
+                         ": the flow carries the species across a cell much faster than dispersion spreads it, and "
+                         "fronts there are smeared over a cell or two; give smaller cells along the flow (cell_size) "
+                         "to bring it under 50");
     return warnings;
   }
 

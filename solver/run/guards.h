@@ -23,6 +23,14 @@ namespace fickcast
                                                double first_output);
 
   /**
+   * Water flow: a sealed face that water crosses (DiffusionProblem::flow_warning), and cells whose
+   * Peclet number exceeds 50, beyond which the streamline upwinding keeps a front free of wiggles
+   * only by smearing it over a cell or two (the method's own limit is in tests/verification).
+   */
+  std::vector<std::string> flow_warnings(const std::string &sealed_face_warning, double cell_peclet,
+                                         const std::string &peclet_region);
+
+  /**
    * Watches the state for values outside [0, largest initial or boundary value] (a diffusion
    * problem without sources stays inside it; leaving it beyond round-off means the mesh or the
    * step is too coarse for a front). Remembers the worst excursion each way; warnings() gives one

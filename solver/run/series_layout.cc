@@ -1,5 +1,7 @@
 #include "run/series_layout.h"
 
+#include <algorithm>
+
 namespace fickcast
 {
   SeriesLayout series_layout(const CaseDescription &c, const std::vector<std::string> &regions,
@@ -42,6 +44,15 @@ namespace fickcast
         {
           columns.push_back({"flux_in." + boundaries[b], rate_unit});
           columns.push_back({"amount_in." + boundaries[b], amount_unit});
+        }
+    // With water flow: each face's inward rate split into the part the water carries and the
+    // part dispersion and diffusion carry (run/flow_report.h).
+    const bool flow = std::any_of(c.regions.begin(), c.regions.end(), [](const RegionSpec &r) { return r.has_flow(); });
+    for (std::size_t b = 0; b < n_boundaries; ++b)
+      if (flow && layout.active_boundary[b])
+        {
+          columns.push_back({"flux_in_advective." + boundaries[b], rate_unit});
+          columns.push_back({"flux_in_dispersive." + boundaries[b], rate_unit});
         }
     for (std::size_t b = 0; b < n_boundaries; ++b)
       if (layout.bath_boundary[b])

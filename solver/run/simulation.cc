@@ -9,8 +9,10 @@
 #include "results/observers.h"
 #include "run/carried_error.h"
 #include "run/checkpoint.h"
+#include "run/equilibrium_amount.h"
 #include "run/face_histories.h"
 #include "run/field_view_of.h"
+#include "run/flow_report.h"
 #include "run/guards.h"
 #include "run/landing_times.h"
 #include "run/run_remeshing.h"
@@ -51,21 +53,6 @@ namespace fickcast
       double time;
       Vector state;
     };
-
-    /// The content with the reference-phase concentration at the case's equilibrium everywhere
-    /// (an uptake case's M_eq; NaN for other cases).
-    template <int dim>
-    double equilibrium_amount(const DiffusionProblem<dim> &problem, const CaseDescription &c)
-    {
-      if (!c.output.uptake)
-        return std::nan("");
-      auto full = problem.make_vector();
-      full = c.output.equilibrium;
-      double total = 0;
-      for (const double a : problem.region_amounts(full))
-        total += a;
-      return total;
-    }
   } // namespace
 
   void request_stop()
@@ -209,6 +196,9 @@ namespace fickcast
             row.push_back(boundary_rates[b]);
             row.push_back(record.boundary_entered[b]);
           }
+      if (problem.has_flow()) // the advective and dispersive parts of each flux
+        for (const double part : flow_parts(problem, state, boundary_rates, active_boundary))
+          row.push_back(part);
       for (unsigned int b = 0; b < n_boundaries; ++b)
         if (bath_boundary[b])
           row.push_back(problem.bath_concentration(b));
@@ -272,6 +262,7 @@ namespace fickcast
     record.warnings = resolution_warnings(problem, c, first_output_time(c.time.end, outputs));
     if (!problem.refinement_warning().empty())
       record.warnings.insert(record.warnings.begin(), problem.refinement_warning());
+    const double crossing_rate = note_flow(problem, record); // Peclet, warnings
     record.warnings.insert(record.warnings.begin(), c.input_warnings.begin(), c.input_warnings.end());
     RangeGuard range(1e-6, !has_source, c.numerics.accuracy > 0);
     double range_upper = std::max(scale, u.linfty_norm());
@@ -656,6 +647,7 @@ namespace fickcast
               history.pop_back();
             u = u_new;
             previous_ds = ds;
+            record.courant = std::max(record.courant, crossing_rate * (t1 - t));
             t = t1;
             s += ds;
             ++step;
