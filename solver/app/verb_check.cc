@@ -1,6 +1,7 @@
 #include "app/verbs.h"
 
 #include "case/case_reader.h"
+#include "case/display_units.h"
 #include "case/key_schema.h"
 #include "numerics/linear_solver.h"
 #include "numerics/mesh_statistics.h"
@@ -143,12 +144,12 @@ namespace fickcast
       std::cout << "warning: " << mesh.refinement_warning << "\n";
     if (mesh.cell_peclet > 0)
       {
-        char flow[200];
-        std::snprintf(flow, sizeof(flow),
-                      "water flow: cell Peclet number up to %.3g (%s); the flow crosses the shortest cell in %.3g s "
-                      "(a step of that length has Courant number 1); streamline upwinding on\n",
-                      mesh.cell_peclet, mesh.cell_peclet_region.c_str(), 1.0 / mesh.crossing_rate);
-        std::cout << flow;
+        char peclet[32];
+        std::snprintf(peclet, sizeof(peclet), "%.3g", mesh.cell_peclet);
+        std::cout << "water flow: cell Peclet number up to " << peclet << " (" << mesh.cell_peclet_region
+                  << "); the retarded front crosses the shortest cell in "
+                  << DisplayUnits(description, 3).time(1.0 / mesh.crossing_rate)
+                  << " (a step of that length has Courant number 1); streamline upwinding on\n";
       }
     for (const auto &warning : flow_warnings(mesh.flow_warning, mesh.cell_peclet, mesh.cell_peclet_region))
       std::cout << "warning: " << warning << "\n";

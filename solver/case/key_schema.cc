@@ -441,7 +441,7 @@ namespace fickcast
         case Dim::diffusivity:
           return "a diffusivity such as 1e-9 m2/s";
         case Dim::velocity:
-          return "a transfer coefficient such as 1e-7 m/s";
+          return "a velocity such as 1e-7 m/s (a transfer coefficient, a Darcy flux)";
         case Dim::temperature:
           return "a temperature such as 1050 degC";
         case Dim::rate:

@@ -61,7 +61,7 @@ namespace fickcast
   {
     ++n_setups_;
     dealii::TrilinosWrappers::PreconditionAMG::AdditionalData data;
-    data.elliptic = true;
+    data.elliptic = symmetric_; // unsymmetric (water flow, Newton): ML's non-symmetric defaults
     data.higher_order_elements = higher_order_;
     data.smoother_sweeps = 2;
     data.aggregation_threshold = 0.02;
@@ -82,7 +82,7 @@ namespace fickcast
         direct_solver_->initialize(matrix);
         return;
       }
-    if (symmetric && diffusion_number >= 0 && diffusion_number <= jacobi_limit_)
+    if (diffusion_number >= 0 && diffusion_number <= jacobi_limit_)
       {
         jacobi_ = std::make_unique<dealii::TrilinosWrappers::PreconditionJacobi>();
         jacobi_->initialize(matrix);
@@ -235,8 +235,17 @@ namespace fickcast
     dealii::SolverControl control(adapt_limit_ ? 4 * slow_jacobi_iterations : 20000, tolerance_ * norm, false, false);
     try
       {
-        dealii::SolverCG<dealii::TrilinosWrappers::MPI::Vector> cg(control);
-        cg.solve(op, x, b, diagonal);
+        if (symmetric_)
+          {
+            dealii::SolverCG<dealii::TrilinosWrappers::MPI::Vector> cg(control);
+            cg.solve(op, x, b, diagonal);
+          }
+        else
+          {
+            dealii::SolverGMRES<dealii::TrilinosWrappers::MPI::Vector> gmres(
+              control, dealii::SolverGMRES<dealii::TrilinosWrappers::MPI::Vector>::AdditionalData(50));
+            gmres.solve(op, x, b, diagonal);
+          }
       }
     catch (const dealii::SolverControl::NoConvergence &failure)
       {
@@ -349,10 +358,12 @@ namespace fickcast
       std::snprintf(buffer, sizeof(buffer), "%.3g", v);
       return std::string(buffer);
     };
+    // Water flow makes the step matrix unsymmetric: GMRES (restarted every 50) instead of CG.
+    const std::string krylov = symmetric_ ? "CG" : "GMRES";
     std::string text;
     if (jacobi_solves_ > 0)
       text +=
-        "CG with the diagonal for " + std::to_string(jacobi_solves_) + " solves (" +
+        krylov + " with the diagonal for " + std::to_string(jacobi_solves_) + " solves (" +
         (adapt_limit_ ? "the mass term dominates" : "as the case asks") + ": diffusion number up to " +
         number(largest_jacobi_number_) + ", " +
         number(static_cast<double>(jacobi_iterations_) / static_cast<double>(jacobi_solves_)) + " iterations each" +
@@ -376,7 +387,7 @@ namespace fickcast
                                      : " levels: the run's mesh, and the linear element on it)") +
               why;
     if (multigrid_solves_ > 0 || (jacobi_solves_ == 0 && geometric_solves_ == 0))
-      text += std::string(text.empty() ? "" : "; ") + "CG with algebraic multigrid" +
+      text += std::string(text.empty() ? "" : "; ") + krylov + " with algebraic multigrid" +
               (multigrid_solves_ > 0 ? " for " + std::to_string(multigrid_solves_) + " solves" : std::string()) + why;
     if (jacobi_fallbacks_ > 0)
       text += "; " + std::to_string(jacobi_fallbacks_) + " diagonal solves fell back to multigrid";

@@ -411,9 +411,9 @@ namespace fickcast
                 const auto &p = fe_face_values.quadrature_point(q);
                 const double value = boundaries_[b].driving_value(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, t);
                 const double w = coordinate_weight(p) * fe_face_values.JxW(q);
-                const double f = inflow ? -(q_cell * fe_face_values.normal_vector(q)) : factor;
+                const double weight = inflow ? -(q_cell * fe_face_values.normal_vector(q)) : factor;
                 for (unsigned int i = 0; i < n; ++i)
-                  local(i) += f * value * fe_face_values.shape_value(i, q) * w;
+                  local(i) += weight * value * fe_face_values.shape_value(i, q) * w;
               }
             hanging_.distribute_local_to_global(local, dofs, load);
           }

@@ -24,7 +24,8 @@ at any depth; the tests write them under build/test-scratch) and checks
   good state, which must be finite too): no cell of a numeric column is NaN or inf, and no cell is
   empty, except (series.csv, where the writer leaves an undefined value empty):
     flux_in.FACE at step 0           a concentration or bath face's flux is undefined at the instant
-                                     the condition starts
+                                     the condition starts (and so its dispersive part,
+                                     flux_in_dispersive.FACE)
     released_fraction, every row     no reference amount (no initial content, no output.loading),
                                      and summary.json has no released_fraction.final
     bath.FACE in a stage             the face is not a bath in that stage (the column is empty for
@@ -83,7 +84,7 @@ def check_csv(path, summary, problems):
         if not any(is_number(cell) for cell in cells):
             continue  # a text column (names)
         empty_allowed = [False] * len(cells)
-        if series and name.startswith("flux_in.") and "step" in header:
+        if series and name.startswith(("flux_in.", "flux_in_dispersive.")) and "step" in header:
             s = header.index("step")
             empty_allowed = [row[s] == "0" for row in rows]
         if series and name == "released_fraction" and "released_fraction.final" not in results:

@@ -318,4 +318,75 @@ times = 1 s
       }
     EXPECT_LT(record.balance_error_relative, 1e-10);
   }
+
+  // The same in 3-D, on the quarter y, z > 0 of the plume (the sealed faces through its axis are
+  // planes of symmetry; method of images, Carslaw and Jaeger 1959 sec. 10.10): released as the
+  // Gaussian of age 0.5 s on the x axis at x = 0.8 m, v = 1 m/s, checked at 0.25 and 0.5 s.
+  TEST(Advection, GaussianInUniformFlowMovesAndSpreadsAsExactIn3d)
+  {
+    const double d_l = 1e-3 + 0.05, d_t = 1e-3 + 0.04, age0 = 0.5;
+    const std::string text = R"(
+[case]
+title = plume in 3-D
+dimension = 3
+[geometry]
+width = 3 m
+length = 1.1 m
+layers = aquifer 1.1 m
+cell_size = 0.1 m
+[region.aquifer]
+diffusivity = 1e-3 m2/s
+porosity = 0.5
+darcy_flux = 0.5 m/s, 0 m/s, 0 m/s
+longitudinal_dispersivity = 0.05 m
+transverse_dispersivity = 0.04 m
+initial = {exp(-(x-0.8)^2/(4*0.051*0.5) - (y^2 + z^2)/(4*0.041*0.5))} mol/m3
+[boundary.left]
+type = inflow
+value = 0 mol/m3
+[boundary.right]
+type = outflow
+[time]
+end = 0.5 s
+tolerance = 1e-5
+[output]
+times = 0.25 s
+)";
+    const CaseDescription description = describe(text, "plume_3d");
+    const RunRecord record = run(description);
+    ASSERT_EQ(record.status, "completed");
+    for (const auto &snapshot : read_all_fields(description.output.folder + "/fields/fields.pvd"))
+      {
+        const auto &c = snapshot.array("concentration");
+        const double age = age0 + snapshot.time;
+        std::vector<double> cx(c.size()), cxx(c.size()), cyy(c.size()), czz(c.size());
+        double error = 0;
+        for (std::size_t i = 0; i < c.size(); ++i)
+          {
+            const double x = snapshot.points[i][0], y = snapshot.points[i][1], z = snapshot.points[i][2];
+            const double dx = x - 0.8 - snapshot.time;
+            cx[i] = c[i] * x;
+            cxx[i] = c[i] * dx * dx;
+            cyy[i] = c[i] * y * y;
+            czz[i] = c[i] * z * z;
+            const double exact =
+              std::pow(age0 / age, 1.5) * std::exp(-dx * dx / (4 * d_l * age) - (y * y + z * z) / (4 * d_t * age));
+            error = std::max(error, std::abs(c[i] - exact));
+          }
+        const double mass = snapshot.integrate(c);
+        const double centre = snapshot.integrate(cx) / mass;
+        const double var_x = snapshot.integrate(cxx) / mass;
+        const double var_y = snapshot.integrate(cyy) / mass, var_z = snapshot.integrate(czz) / mass;
+        std::printf("3-D plume at t = %g s: centre %.5f m (exact %.5f), variances %.5f, %.5f, %.5f m2 (exact %.5f, "
+                    "%.5f), largest error %.2e\n",
+                    snapshot.time, centre, 0.8 + snapshot.time, var_x, var_y, var_z, 2 * d_l * age, 2 * d_t * age,
+                    error);
+        EXPECT_NEAR(centre - 0.8, snapshot.time, 0.01 * std::max(snapshot.time, 1.0));
+        EXPECT_NEAR(var_x, 2 * d_l * age, 0.01 * 2 * d_l * age);
+        EXPECT_NEAR(var_y, 2 * d_t * age, 0.01 * 2 * d_t * age);
+        EXPECT_NEAR(var_z, 2 * d_t * age, 0.01 * 2 * d_t * age);
+        EXPECT_LT(error, 0.01 * std::pow(age0 / age, 1.5)); // 1 % of the peak at that time
+      }
+    EXPECT_LT(record.balance_error_relative, 1e-10);
+  }
 } // namespace fickcast::testing
