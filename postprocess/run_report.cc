@@ -279,7 +279,11 @@ namespace fickcast::post
     const auto *layers = s.setting("geometry.layers");
     const auto *mesh = s.setting("geometry.mesh");
     std::vector<std::vector<std::string>> what{
-      {"equation", "Fick's second law (transient diffusion) with the case's porosity, sorption, partition and decay"},
+      {"equation",
+       s.cell_peclet > 0
+         ? "Fick's second law with advection by a Darcy flux and mechanical dispersion, with the case's "
+           "porosity, sorption, partition and decay"
+         : "Fick's second law (transient diffusion) with the case's porosity, sorption, partition and decay"},
       {"dimension and coordinates", std::to_string(s.dimension) + "-D, " + s.coordinates},
       {"geometry", layers ? "layers " + layers->written
                    : mesh ? "mesh " + mesh->written
@@ -297,6 +301,15 @@ namespace fickcast::post
       what[3][1] += (r ? ", " : "") + std::to_string(r) + ": " + s.regions[r];
     for (std::size_t b = 0; b < s.boundaries.size(); ++b)
       what[4][1] += (b ? ", " : "") + s.boundaries[b];
+    if (s.cell_peclet > 0)
+      {
+        char flow[200];
+        std::snprintf(flow, sizeof(flow),
+                      "cell Peclet number up to %.3g (%s), Courant number of the longest step %.3g; streamline "
+                      "upwinding (Brooks and Hughes 1982)",
+                      s.cell_peclet, s.cell_peclet_region.c_str(), s.courant);
+        what.push_back({"water flow", flow});
+      }
     for (const auto &stage : s.stages)
       what.push_back({"stage " + stage.name, "from " + format_time(stage.start) + " to " + format_time(stage.end)});
     body += html_table({}, what, "facts");

@@ -133,6 +133,12 @@ namespace fickcast::post
         s.carried_error_largest = read.number_or_nan("time.carried_error_largest");
         s.time_tolerance = read.number_or_nan("time.tolerance");
       }
+    if (root.isMember("flow"))
+      {
+        s.cell_peclet = read.number("flow.cell_peclet_largest");
+        s.cell_peclet_region = read.text("flow.cell_peclet_region");
+        s.courant = read.number("flow.courant_largest");
+      }
     if (root["time"].isMember("stages"))
       for (const auto &item : read.at("time.stages", Json::arrayValue))
         {

@@ -69,6 +69,11 @@ namespace fickcast::post
     double carried_error_largest = std::numeric_limits<double>::quiet_NaN();
     double time_tolerance = std::numeric_limits<double>::quiet_NaN();
     std::vector<StageSpan> stages;
+    /// Water flow (summary.json `flow`, written only with a Darcy flux): the largest cell Peclet
+    /// number, its region, the largest Courant number of a step; cell_peclet 0 without flow.
+    double cell_peclet = 0;
+    std::string cell_peclet_region;
+    double courant = 0;
     std::string linear_solver;
     long ranks = 1;
     std::string date;

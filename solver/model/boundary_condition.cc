@@ -31,8 +31,7 @@ namespace fickcast
   double BoundaryCondition::driving_value(const double x, const double y, const double z, const double t) const
   {
     const double value = driving_function()(x, y, z, t);
-    check(value, driving_function(), drives_by_value() ? "value" : "ambient", x, y, z, t,
-          kind() != BoundaryKind::flux);
+    check(value, driving_function(), drives_by_value() ? "value" : "ambient", x, y, z, t, kind() != BoundaryKind::flux);
     return value;
   }
 

@@ -163,6 +163,58 @@ namespace fickcast::testing
       }
   }
 
+  // Adaptivity follows a front carried by the water: Ogata and Banks (1961) at Peclet 100 over
+  // the first metre again, from cells of 5 cm (ten times the uniform mesh above) remeshed during
+  // the run. The remeshing must refine at the front (cells down to the uniform run's 5 mm or
+  // finer) and coarsen behind and ahead of it: the same accuracy, 1e-3 of c0, with fewer than
+  // half the uniform run's 600 cells at the end.
+  TEST(Advection, RemeshingFollowsTheFront)
+  {
+    const std::string text = R"(
+[case]
+title = front followed by the mesh
+[geometry]
+layers = column 3 m
+cell_size = 0.05 m
+[region.column]
+diffusivity = 0.01 m2/s
+porosity = 0.25
+darcy_flux = 0.25 m/s
+[boundary.top]
+type = concentration
+value = 1 mol/m3
+[boundary.bottom]
+type = outflow
+[time]
+end = 0.75 s
+tolerance = 1e-7
+[numerics]
+remesh = on
+remesh_every = 2
+remesh_error = 1e-4
+smallest_cell = 1 mm
+[output]
+times = 0.1875 s, 0.375 s
+)";
+    const CaseDescription description = describe(text, "ogata_banks_remeshed");
+    const RunRecord record = run(description);
+    ASSERT_EQ(record.status, "completed");
+    const auto worst =
+      errors(description.output.folder, 1.0, [](double x, double t) { return ogata_banks(x, t, 1.0, 0.01); });
+    ASSERT_EQ(worst.size(), 3u);
+    for (std::size_t k = 0; k < worst.size(); ++k)
+      {
+        std::printf("Ogata-Banks, Peclet 100, remeshed, output %zu: largest error %.2e of c0\n", k + 1, worst[k]);
+        EXPECT_LT(worst[k], 1e-3);
+      }
+    std::printf("remeshed %u times; %lu cells at the end, at most %lu\n", record.remeshings, record.cells,
+                record.cells_largest);
+    EXPECT_GT(record.remeshings, 5u);
+    EXPECT_GT(record.cells_largest, 60u); // refined beyond the 60 cells it started with
+    EXPECT_LT(record.cells_largest, 300u);
+    EXPECT_LT(std::abs(record.balance_error_relative), 1e-10);
+  }
+
   // van Genuchten and Alves (1982), USDA Technical Bulletin 1661: retardation R = 2 and first-order
   // decay of the dissolved and sorbed species (mu = lambda R), with a first-type inlet (the
   // concentration held) and a third-type inlet (water entering at c0: total flux q c0). Seepage
