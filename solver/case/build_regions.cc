@@ -17,12 +17,16 @@ namespace fickcast
     {
       region.longitudinal_dispersivity = reader.quantity(section, "longitudinal_dispersivity", 0);
       region.transverse_dispersivity = reader.quantity(section, "transverse_dispersivity", 0);
+      // The region's own flux, else the case's [flow] darcy_flux.
       const auto *flux = reader.get(section, "darcy_flux");
+      if (flux == nullptr)
+        flux = reader.get("flow", "darcy_flux");
       if (flux == nullptr)
         {
           for (const char *key : {"longitudinal_dispersivity", "transverse_dispersivity"})
             if (const auto *given = reader.get(section, key); given && given->si != 0)
-              reader.fail(*given, "a dispersivity needs water flowing: give darcy_flux in [" + section + "]");
+              reader.fail(*given,
+                          "a dispersivity needs water flowing: give darcy_flux in [" + section + "] or in [flow]");
           return;
         }
       const unsigned int n = reader.dimension;

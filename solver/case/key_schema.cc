@@ -160,6 +160,10 @@ namespace fickcast
                             {"x", "y", "z"}));
       s.push_back(positive(make("region", "cell_size", K::quantity, Dim::length, "",
                                 "cell size in this layer (overrides geometry.cell_size)")));
+      // [flow]
+      s.push_back(make("flow", "darcy_flux", K::quantity_list, Dim::velocity, "",
+                       "Darcy flux of every region that gives none (in 1-D the same water crosses every layer: "
+                       "one key to vary in a sweep)"));
       s.push_back(make("region", "darcy_flux", K::quantity_list, Dim::velocity, "",
                        "Darcy flux q (water volume per area and time; seepage velocity q / porosity): one value "
                        "in 1-D (positive from the top face toward the bottom), one per axis in 2-D and 3-D"));
@@ -392,8 +396,8 @@ namespace fickcast
 
   const std::vector<std::string> &fixed_sections()
   {
-    static const std::vector<std::string> names = {"case",   "geometry",    "initial", "time", "numerics",
-                                                   "output", "temperature", "sweep",   "size"};
+    static const std::vector<std::string> names = {"case",     "geometry", "flow",        "initial", "time",
+                                                   "numerics", "output",   "temperature", "sweep",   "size"};
     return names;
   }
 

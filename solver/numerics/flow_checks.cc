@@ -97,8 +97,13 @@ namespace fickcast
                 const std::string crossing = "(q.n = " + number_text(qn) + " m/s from region." + material.name() +
                                              ".darcy_flux, n pointing out of the body)";
                 if ((kind == BoundaryKind::inflow || kind == BoundaryKind::outflow) && !material.has_flow())
-                  error = key + ": " + (kind == BoundaryKind::inflow ? "inflow" : "outflow") + ", but region." +
-                          material.name() + " next to the face has no darcy_flux: no water crosses the face";
+                  {
+                    // A study's no-flow case: the face acts as sealed; say so.
+                    if (warning.empty())
+                      warning = face_name + " is an " + (kind == BoundaryKind::inflow ? "inflow" : "outflow") +
+                                " face, but no water flows in region " + material.name() +
+                                " next to it (no darcy_flux): nothing crosses the face, which acts as sealed";
+                  }
                 else if (kind == BoundaryKind::inflow && qn > tolerance)
                   error = key + ": inflow, but water leaves the body there " + crossing +
                           "; give type = outflow there, or turn the flux round";

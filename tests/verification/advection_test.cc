@@ -127,7 +127,8 @@ namespace fickcast::testing
   // Ogata and Banks (1961), USGS Professional Paper 411-A: constant inlet concentration, a long
   // column (the semi-infinite solution holds where the far end has not been reached), error at
   // every node of the first metre at three times, at Peclet numbers v L / D of 1 and 100 over
-  // that metre. Seepage velocity 1 m/s = Darcy flux 0.25 m/s over porosity 0.25.
+  // that metre. Seepage velocity 1 m/s = Darcy flux 0.25 m/s over porosity 0.25 (given once in
+  // [flow] for every region).
   TEST(Advection, ConstantInletMatchesOgataBanks)
   {
     struct Column
@@ -140,7 +141,7 @@ namespace fickcast::testing
         const std::string text = "[case]\ntitle = Ogata-Banks\n[geometry]\nlayers = column " +
                                  std::to_string(column.length) + " m\ncell_size = " + std::to_string(column.cell) +
                                  " m\n[region.column]\ndiffusivity = " + std::to_string(column.diffusivity) +
-                                 " m2/s\nporosity = 0.25\ndarcy_flux = 0.25 m/s\n"
+                                 " m2/s\nporosity = 0.25\n[flow]\ndarcy_flux = 0.25 m/s\n"
                                  "[boundary.top]\ntype = concentration\nvalue = 1 mol/m3\n"
                                  "[boundary.bottom]\ntype = outflow\n[time]\nend = " +
                                  std::to_string(column.end) +
