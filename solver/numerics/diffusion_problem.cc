@@ -772,7 +772,7 @@ namespace fickcast
         else if (boundaries_[b].kind() == BoundaryKind::transfer)
           rates.boundary_inflow[b] = boundary_forcing(b, t, nullptr) - transfer_rowsum_[b] * u;
         else if (boundaries_[b].kind() == BoundaryKind::outflow)
-          rates.boundary_inflow[b] = -(transfer_rowsum_[b] * u);
+          rates.boundary_inflow[b] = advective_weights_.empty() ? 0.0 : -(advective_weights_[b] * u); // all advected
       }
     if (!source_depends_on_space_)
       for (unsigned int r = 0; r < materials_.size(); ++r)

@@ -2,6 +2,7 @@
 // the cell Peclet and Courant figures, and the flow terms of a cell's operator.
 #include "case/input_error.h"
 #include "model/value_text.h"
+#include "numerics/collective.h"
 #include "numerics/diffusion_problem.h"
 #include "numerics/flow_terms.h"
 
@@ -27,13 +28,16 @@ namespace fickcast
       return Utilities::MPI::broadcast(communicator, mine, reporter);
     }
 
-    template <int dim>
-    std::vector<Point<dim>> vertices_of(const typename Triangulation<dim>::active_cell_iterator &cell)
+    /// The flow terms of @p cell (cell_flow with its extent along the flow), D at t = 0.
+    template <int dim, typename Cell>
+    CellFlow<dim> flow_of_cell(const Cell &cell, const Material &material, const double conductance,
+                               const unsigned int degree)
     {
-      std::vector<Point<dim>> points;
+      const Tensor<1, dim> q = darcy_flux_vector<dim>(material);
+      std::vector<Point<dim>> vertices;
       for (const unsigned int v : cell->vertex_indices())
-        points.push_back(cell->vertex(v));
-      return points;
+        vertices.push_back(cell->vertex(v));
+      return cell_flow<dim>(material, conductance, length_along<dim>(vertices, q / q.norm()), degree);
     }
   } // namespace
 
@@ -51,82 +55,77 @@ namespace fickcast
     const QGauss<dim - 1> centre(1);
     const FE_Q<dim> linear(1);
     FEFaceValues<dim> face_values(mapping_, linear, centre, update_normal_vectors | update_quadrature_points);
-    std::string error, warning;
-    for (const auto &cell : triangulation_->active_cell_iterators())
-      {
-        if (!cell->is_locally_owned() || !error.empty())
-          continue;
-        const Material &material = materials_[cell->material_id()];
-        const Tensor<1, dim> q = darcy_flux_vector<dim>(material);
-        const double tolerance = 1e-9 * q.norm();
-        for (const unsigned int f : cell->face_indices())
-          {
-            const auto face = cell->face(f);
-            if (!face->at_boundary())
-              {
-                // Water that would appear or vanish at an interface: the normal flux must match.
-                const auto neighbour = cell->neighbor(f);
-                if (neighbour->is_artificial() || neighbour->material_id() == cell->material_id())
+    std::string warning;
+    // The first input error of any rank, raised on every rank (numerics/collective.h).
+    collectively(communicator_, [&] {
+      const auto fail = [&](const std::string &key, const std::string &message) {
+        throw InputError(description_.file, key, message);
+      };
+      for (const auto &cell : triangulation_->active_cell_iterators())
+        {
+          if (!cell->is_locally_owned())
+            continue;
+          const Material &material = materials_[cell->material_id()];
+          const Tensor<1, dim> q = darcy_flux_vector<dim>(material);
+          const double tolerance = 1e-9 * q.norm();
+          for (const unsigned int f : cell->face_indices())
+            {
+              const auto face = cell->face(f);
+              if (!face->at_boundary())
+                {
+                  // Water that would appear or vanish at an interface: the normal flux must match.
+                  const auto neighbour = cell->neighbor(f);
+                  if (neighbour->is_artificial() || neighbour->material_id() == cell->material_id())
+                    continue;
+                  const Material &other = materials_[neighbour->material_id()];
+                  const Tensor<1, dim> q_other = darcy_flux_vector<dim>(other);
+                  face_values.reinit(cell, f);
+                  const Tensor<1, dim> normal = face_values.normal_vector(0);
+                  const double mine = q * normal, theirs = q_other * normal;
+                  if (std::abs(mine - theirs) > 1e-9 * std::max(q.norm(), q_other.norm()))
+                    {
+                      const Point<dim> &p = face_values.quadrature_point(0);
+                      fail("region." + material.name() + ".darcy_flux",
+                           "its component across the interface with " + other.name() + " (" + number_text(mine) +
+                             " m/s) differs from that of region." + other.name() + " (" + number_text(theirs) +
+                             " m/s) at " + describe_point(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, dim) +
+                             ": water would appear or vanish there; give both regions the same flux across it");
+                    }
                   continue;
-                const Material &other = materials_[neighbour->material_id()];
-                const Tensor<1, dim> q_other = darcy_flux_vector<dim>(other);
-                face_values.reinit(cell, f);
-                const Tensor<1, dim> normal = face_values.normal_vector(0);
-                const double mine = q * normal, theirs = q_other * normal;
-                if (std::abs(mine - theirs) > 1e-9 * std::max(q.norm(), q_other.norm()))
-                  {
-                    const Point<dim> &p = face_values.quadrature_point(0);
-                    error = "region." + material.name() + ".darcy_flux: its component across the interface with " +
-                            other.name() + " (" + number_text(mine) + " m/s) differs from that of region." +
-                            other.name() + " (" + number_text(theirs) + " m/s) at " +
-                            describe_point(p[0], dim > 1 ? p[1] : 0.0, dim > 2 ? p[2] : 0.0, dim) +
-                            ": water would appear or vanish there; give both regions the same flux across it";
-                    break;
-                  }
-                continue;
-              }
-            face_values.reinit(cell, f);
-            const double qn = q * face_values.normal_vector(0);
-            const std::string &face_name = names_.boundaries[face->boundary_id()];
-            for (const StageSpec &stage : description_.stages)
-              {
-                const BoundarySpec *spec = stage.find_boundary(face_name);
-                const BoundaryKind kind = spec ? spec->kind : BoundaryKind::sealed;
-                const std::string key = "boundary." + face_name + ".type" +
-                                        (description_.stages.size() > 1 ? " (stage " + stage.name + ")" : "");
-                const std::string crossing = "(q.n = " + number_text(qn) + " m/s from region." + material.name() +
-                                             ".darcy_flux, n pointing out of the body)";
-                if ((kind == BoundaryKind::inflow || kind == BoundaryKind::outflow) && !material.has_flow())
-                  {
-                    // A study's no-flow case: the face acts as sealed; say so.
-                    if (warning.empty())
-                      warning = face_name + " is an " + (kind == BoundaryKind::inflow ? "inflow" : "outflow") +
-                                " face, but no water flows in region " + material.name() +
-                                " next to it (no darcy_flux): nothing crosses the face, which acts as sealed";
-                  }
-                else if (kind == BoundaryKind::inflow && qn > tolerance)
-                  error = key + ": inflow, but water leaves the body there " + crossing +
-                          "; give type = outflow there, or turn the flux round";
-                else if (kind == BoundaryKind::outflow && qn < -tolerance)
-                  error = key + ": outflow, but water enters the body there " + crossing +
-                          "; give type = inflow with the concentration of the entering water";
-                else if (kind == BoundaryKind::sealed && std::abs(qn) > tolerance && warning.empty())
-                  warning = "water crosses the sealed face " + face_name + " " + crossing +
-                            ", but the species cannot: it piles up or thins out at the face; give type = " +
-                            (qn > 0 ? "outflow" : "inflow") + " where water crosses a face";
-                if (!error.empty())
-                  break;
-              }
-            if (!error.empty())
-              break;
-          }
-      }
-    const std::string message = first_of_ranks(error, communicator_);
-    if (!message.empty())
-      {
-        const auto colon = message.find(": ");
-        throw InputError(description_.file, message.substr(0, colon), message.substr(colon + 2));
-      }
+                }
+              face_values.reinit(cell, f);
+              const double qn = q * face_values.normal_vector(0);
+              const std::string &face_name = names_.boundaries[face->boundary_id()];
+              for (const StageSpec &stage : description_.stages)
+                {
+                  const BoundarySpec *spec = stage.find_boundary(face_name);
+                  const BoundaryKind kind = spec ? spec->kind : BoundaryKind::sealed;
+                  const std::string key = "boundary." + face_name + ".type" +
+                                          (description_.stages.size() > 1 ? " (stage " + stage.name + ")" : "");
+                  const std::string crossing = "(q.n = " + number_text(qn) + " m/s from region." + material.name() +
+                                               ".darcy_flux, n pointing out of the body)";
+                  if ((kind == BoundaryKind::inflow || kind == BoundaryKind::outflow) && !material.has_flow())
+                    {
+                      // A study's no-flow case: the face acts as sealed; say so.
+                      if (warning.empty())
+                        warning = face_name + " is an " + (kind == BoundaryKind::inflow ? "inflow" : "outflow") +
+                                  " face, but no water flows in region " + material.name() +
+                                  " next to it (no darcy_flux): nothing crosses the face, which acts as sealed";
+                    }
+                  else if (kind == BoundaryKind::inflow && qn > tolerance)
+                    fail(key, "inflow, but water leaves the body there " + crossing +
+                                "; give type = outflow there, or turn the flux round");
+                  else if (kind == BoundaryKind::outflow && qn < -tolerance)
+                    fail(key, "outflow, but water enters the body there " + crossing +
+                                "; give type = inflow with the concentration of the entering water");
+                  else if (kind == BoundaryKind::sealed && std::abs(qn) > tolerance && warning.empty())
+                    warning = "water crosses the sealed face " + face_name + " " + crossing +
+                              ", but the species cannot: it piles up or thins out at the face; give type = " +
+                              (qn > 0 ? "outflow" : "inflow") + " where water crosses a face";
+                }
+            }
+        }
+    });
     flow_warning_ = first_of_ranks(warning, communicator_);
   }
 
@@ -145,10 +144,8 @@ namespace fickcast
         const Material &material = materials_[cell->material_id()];
         if (!material.has_flow())
           continue;
-        const Tensor<1, dim> q = darcy_flux_vector<dim>(material);
-        const double length = length_along<dim>(vertices_of<dim>(cell), q / q.norm());
         const CellFlow<dim> flow =
-          cell_flow<dim>(material, conductance(cell->material_id(), cell->center(), 0.0), length, fe_.degree);
+          flow_of_cell<dim>(cell, material, conductance(cell->material_id(), cell->center(), 0.0), fe_.degree);
         if (flow.peclet > peclet)
           {
             peclet = flow.peclet;
@@ -174,13 +171,8 @@ namespace fickcast
     // over a cell's shape functions, so amounts and loads keep their totals.
     const auto region = cell->material_id();
     const Material &material = materials_[region];
-    const Tensor<1, dim> q = darcy_flux_vector<dim>(material);
-    std::vector<Point<dim>> vertices;
-    for (const unsigned int v : cell->vertex_indices())
-      vertices.push_back(cell->vertex(v));
-    const double length = length_along<dim>(vertices, q / q.norm());
     const double g = conductance(region, cell->center(), 0.0);
-    const CellFlow<dim> flow = cell_flow<dim>(material, g, length, fe_.degree);
+    const CellFlow<dim> flow = flow_of_cell<dim>(cell, material, g, fe_.degree);
     Tensor<2, dim> g_total = flow.dispersion;
     for (unsigned int d = 0; d < dim; ++d)
       g_total[d][d] += g;

@@ -181,7 +181,7 @@ namespace fickcast
               }
             if (!outflow)
               hanging_.distribute_local_to_global(face_load, dofs, boundary_load_[b]);
-            if (kind == BoundaryKind::transfer || outflow)
+            if (kind == BoundaryKind::transfer)
               hanging_.distribute_local_to_global(face_load, dofs, transfer_rowsum_[b]); // boundary mass row sums
           }
 

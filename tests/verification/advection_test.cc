@@ -10,6 +10,7 @@
 #include <gtest/gtest.h>
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <cstdio>
 #include <functional>
@@ -87,6 +88,39 @@ namespace fickcast::testing
           worst.push_back(e);
         }
       return worst;
+    }
+
+    /// What a plume looks like in a written field: the centre along x, the variances about the
+    /// exact centre along each axis, and the largest difference from the exact field.
+    struct Plume
+    {
+      double centre = 0;
+      std::array<double, 3> variance{{0, 0, 0}};
+      double error = 0;
+    };
+
+    Plume plume(const FieldSnapshot &snapshot, const int dimension, const std::array<double, 3> &exact_centre,
+                const std::function<double(double, double, double)> &exact)
+    {
+      const auto &c = snapshot.array("concentration");
+      std::vector<double> cx(c.size());
+      std::array<std::vector<double>, 3> second;
+      for (auto &v : second)
+        v.resize(c.size());
+      Plume result;
+      for (std::size_t i = 0; i < c.size(); ++i)
+        {
+          const auto &p = snapshot.points[i];
+          cx[i] = c[i] * p[0];
+          for (int d = 0; d < dimension; ++d)
+            second[d][i] = c[i] * (p[d] - exact_centre[d]) * (p[d] - exact_centre[d]);
+          result.error = std::max(result.error, std::abs(c[i] - exact(p[0], p[1], p[2])));
+        }
+      const double mass = snapshot.integrate(c);
+      result.centre = snapshot.integrate(cx) / mass;
+      for (int d = 0; d < dimension; ++d)
+        result.variance[d] = snapshot.integrate(second[d]) / mass;
+      return result;
     }
   } // namespace
 
@@ -344,30 +378,19 @@ times = 1 s
     EXPECT_TRUE(record.warnings.empty()) << record.warnings.front();
     for (const auto &snapshot : read_all_fields(description.output.folder + "/fields/fields.pvd"))
       {
-        const auto &c = snapshot.array("concentration");
         const double age = age0 + snapshot.time;
-        std::vector<double> cx(c.size()), cxx(c.size()), cyy(c.size());
-        double error = 0;
-        for (std::size_t i = 0; i < c.size(); ++i)
-          {
-            const double x = snapshot.points[i][0], y = snapshot.points[i][1];
-            cx[i] = c[i] * x;
-            const double dx = x - 1.5 - snapshot.time, dy = y - 1;
-            cxx[i] = c[i] * dx * dx;
-            cyy[i] = c[i] * dy * dy;
-            const double exact = age0 / age * std::exp(-dx * dx / (4 * d_l * age) - dy * dy / (4 * d_t * age));
-            error = std::max(error, std::abs(c[i] - exact));
-          }
-        const double mass = snapshot.integrate(c);
-        const double centre = snapshot.integrate(cx) / mass;
-        const double var_x = snapshot.integrate(cxx) / mass, var_y = snapshot.integrate(cyy) / mass;
+        const Plume p = plume(snapshot, 2, {{1.5 + snapshot.time, 1.0, 0.0}}, [&](double x, double y, double) {
+          const double dx = x - 1.5 - snapshot.time, dy = y - 1;
+          return age0 / age * std::exp(-dx * dx / (4 * d_l * age) - dy * dy / (4 * d_t * age));
+        });
         std::printf("plume at t = %g s: centre %.5f m (exact %.5f), variances %.5f, %.5f m2 (exact %.5f, %.5f), "
                     "largest error %.2e of the first peak\n",
-                    snapshot.time, centre, 1.5 + snapshot.time, var_x, var_y, 2 * d_l * age, 2 * d_t * age, error);
-        EXPECT_NEAR(centre - 1.5, snapshot.time, 0.01 * std::max(snapshot.time, 1.0));
-        EXPECT_NEAR(var_x, 2 * d_l * age, 0.01 * 2 * d_l * age);
-        EXPECT_NEAR(var_y, 2 * d_t * age, 0.01 * 2 * d_t * age);
-        EXPECT_LT(error, 0.01 * age0 / age); // 1 % of the peak at that time
+                    snapshot.time, p.centre, 1.5 + snapshot.time, p.variance[0], p.variance[1], 2 * d_l * age,
+                    2 * d_t * age, p.error);
+        EXPECT_NEAR(p.centre - 1.5, snapshot.time, 0.01 * std::max(snapshot.time, 1.0));
+        EXPECT_NEAR(p.variance[0], 2 * d_l * age, 0.01 * 2 * d_l * age);
+        EXPECT_NEAR(p.variance[1], 2 * d_t * age, 0.01 * 2 * d_t * age);
+        EXPECT_LT(p.error, 0.01 * age0 / age); // 1 % of the peak at that time
       }
     EXPECT_LT(record.balance_error_relative, 1e-10);
   }
@@ -410,35 +433,20 @@ times = 0.25 s
     ASSERT_EQ(record.status, "completed");
     for (const auto &snapshot : read_all_fields(description.output.folder + "/fields/fields.pvd"))
       {
-        const auto &c = snapshot.array("concentration");
         const double age = age0 + snapshot.time;
-        std::vector<double> cx(c.size()), cxx(c.size()), cyy(c.size()), czz(c.size());
-        double error = 0;
-        for (std::size_t i = 0; i < c.size(); ++i)
-          {
-            const double x = snapshot.points[i][0], y = snapshot.points[i][1], z = snapshot.points[i][2];
-            const double dx = x - 0.8 - snapshot.time;
-            cx[i] = c[i] * x;
-            cxx[i] = c[i] * dx * dx;
-            cyy[i] = c[i] * y * y;
-            czz[i] = c[i] * z * z;
-            const double exact =
-              std::pow(age0 / age, 1.5) * std::exp(-dx * dx / (4 * d_l * age) - (y * y + z * z) / (4 * d_t * age));
-            error = std::max(error, std::abs(c[i] - exact));
-          }
-        const double mass = snapshot.integrate(c);
-        const double centre = snapshot.integrate(cx) / mass;
-        const double var_x = snapshot.integrate(cxx) / mass;
-        const double var_y = snapshot.integrate(cyy) / mass, var_z = snapshot.integrate(czz) / mass;
+        const Plume p = plume(snapshot, 3, {{0.8 + snapshot.time, 0.0, 0.0}}, [&](double x, double y, double z) {
+          const double dx = x - 0.8 - snapshot.time;
+          return std::pow(age0 / age, 1.5) * std::exp(-dx * dx / (4 * d_l * age) - (y * y + z * z) / (4 * d_t * age));
+        });
         std::printf("3-D plume at t = %g s: centre %.5f m (exact %.5f), variances %.5f, %.5f, %.5f m2 (exact %.5f, "
                     "%.5f), largest error %.2e\n",
-                    snapshot.time, centre, 0.8 + snapshot.time, var_x, var_y, var_z, 2 * d_l * age, 2 * d_t * age,
-                    error);
-        EXPECT_NEAR(centre - 0.8, snapshot.time, 0.01 * std::max(snapshot.time, 1.0));
-        EXPECT_NEAR(var_x, 2 * d_l * age, 0.01 * 2 * d_l * age);
-        EXPECT_NEAR(var_y, 2 * d_t * age, 0.01 * 2 * d_t * age);
-        EXPECT_NEAR(var_z, 2 * d_t * age, 0.01 * 2 * d_t * age);
-        EXPECT_LT(error, 0.01 * std::pow(age0 / age, 1.5)); // 1 % of the peak at that time
+                    snapshot.time, p.centre, 0.8 + snapshot.time, p.variance[0], p.variance[1], p.variance[2],
+                    2 * d_l * age, 2 * d_t * age, p.error);
+        EXPECT_NEAR(p.centre - 0.8, snapshot.time, 0.01 * std::max(snapshot.time, 1.0));
+        EXPECT_NEAR(p.variance[0], 2 * d_l * age, 0.01 * 2 * d_l * age);
+        EXPECT_NEAR(p.variance[1], 2 * d_t * age, 0.01 * 2 * d_t * age);
+        EXPECT_NEAR(p.variance[2], 2 * d_t * age, 0.01 * 2 * d_t * age);
+        EXPECT_LT(p.error, 0.01 * std::pow(age0 / age, 1.5)); // 1 % of the peak at that time
       }
     EXPECT_LT(record.balance_error_relative, 1e-10);
   }
